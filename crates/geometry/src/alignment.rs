@@ -1,0 +1,215 @@
+//! A validated profile, ready to evaluate at any station.
+
+use crate::{CurveGeometry, Profile, ProfileProblem, Pvi, Segment, Station, Units};
+
+/// Elevation and grade at one station.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Sample {
+    /// Profile elevation.
+    pub elevation: f64,
+    /// Grade, percent. At a bare grade break, the grade ahead (except at the
+    /// last PVI, where it is the grade behind).
+    pub grade_percent: f64,
+}
+
+/// A station outside the profile.
+#[derive(Clone, Copy, Debug, PartialEq, thiserror::Error)]
+#[error("station {station} is outside the profile ({start} to {end})")]
+pub struct OutOfRange {
+    /// The station asked for.
+    pub station: f64,
+    /// First PVI station.
+    pub start: f64,
+    /// Last PVI station.
+    pub end: f64,
+}
+
+/// What a station of [`Alignment::key_stations`] is.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum KeyPoint {
+    /// A PVI (its curve elevation, not the PVI elevation, is the profile's).
+    Pvi,
+    /// Start of a vertical curve.
+    Pvc,
+    /// End of a vertical curve.
+    Pvt,
+}
+
+/// A profile that passed validation: tangents and parabolic pieces end to end
+/// from the first PVI to the last. Evaluation is O(log n) at a random station
+/// and amortised O(1) per station through a [`Cursor`] on sorted stations.
+#[derive(Clone, Debug)]
+pub struct Alignment {
+    units: Units,
+    pvis: Vec<Pvi>,
+    curves: Vec<CurveGeometry>,
+    segments: Vec<Segment>,
+}
+
+impl Alignment {
+    /// Validates `profile` and builds its pieces.
+    ///
+    /// # Errors
+    /// Every [`ProfileProblem`] found, when there is any.
+    pub fn new(profile: &Profile) -> Result<Self, Vec<ProfileProblem>> {
+        let problems = profile.problems();
+        if !problems.is_empty() {
+            return Err(problems);
+        }
+        let pvis = profile.pvis.clone();
+        let curves = interior_curves(&pvis);
+        let mut segments = Vec::with_capacity(pvis.len() * 3);
+        // Tangent from the end of the previous curve (or the first PVI) to the
+        // start of the next curve (or the last PVI), then that curve's branches.
+        let mut tangent_start = (pvis[0].station.0, pvis[0].elevation);
+        for (i, pair) in pvis.windows(2).enumerate() {
+            let [a, b] = pair else { continue };
+            let grade = (b.elevation - a.elevation) / (b.station - a.station);
+            let next_curve = curves.get(i); // the curve at PVI i + 1, if interior
+            let tangent_end = match next_curve {
+                Some(c) => c.pvc.0,
+                None => b.station.0,
+            };
+            if tangent_end > tangent_start.0 || segments.is_empty() && next_curve.is_none() {
+                segments.push(Segment {
+                    start: tangent_start.0,
+                    end: tangent_end,
+                    elevation: a.elevation + grade * (tangent_start.0 - a.station.0),
+                    grade,
+                    rate: 0.0,
+                });
+            }
+            if let Some(c) = next_curve {
+                segments.extend(c.segments().into_iter().flatten());
+                tangent_start = (c.pvt.0, c.pvt_elevation);
+            }
+        }
+        Ok(Self { units: profile.units, pvis, curves, segments })
+    }
+
+    /// Unit system.
+    pub fn units(&self) -> Units {
+        self.units
+    }
+
+    /// The PVIs.
+    pub fn pvis(&self) -> &[Pvi] {
+        &self.pvis
+    }
+
+    /// The curve at every interior PVI, in order (`curves()[i]` is at PVI `i + 1`).
+    pub fn curves(&self) -> &[CurveGeometry] {
+        &self.curves
+    }
+
+    /// The constant-y″ pieces, in station order, end to end.
+    pub fn segments(&self) -> &[Segment] {
+        &self.segments
+    }
+
+    /// First PVI station.
+    pub fn start(&self) -> Station {
+        self.pvis.first().map_or(Station(0.0), |p| p.station)
+    }
+
+    /// Last PVI station.
+    pub fn end(&self) -> Station {
+        self.pvis.last().map_or(Station(0.0), |p| p.station)
+    }
+
+    fn check_range(&self, station: f64) -> Result<(), OutOfRange> {
+        let (start, end) = (self.start().0, self.end().0);
+        if station >= start && station <= end {
+            Ok(())
+        } else {
+            Err(OutOfRange { station, start, end })
+        }
+    }
+
+    fn segment_index(&self, station: f64) -> usize {
+        let i = self.segments.partition_point(|seg| seg.end <= station);
+        i.min(self.segments.len().saturating_sub(1))
+    }
+
+    /// Elevation and grade at `station`, O(log n).
+    ///
+    /// # Errors
+    /// [`OutOfRange`] for a station before the first or after the last PVI.
+    pub fn sample(&self, station: Station) -> Result<Sample, OutOfRange> {
+        self.check_range(station.0)?;
+        Ok(self.sample_in(self.segment_index(station.0), station.0))
+    }
+
+    fn sample_in(&self, index: usize, s: f64) -> Sample {
+        match self.segments.get(index) {
+            Some(seg) => Sample {
+                elevation: seg.elevation_at(s),
+                grade_percent: seg.grade_at(s) * 100.0,
+            },
+            None => Sample { elevation: f64::NAN, grade_percent: f64::NAN },
+        }
+    }
+
+    /// A cursor for evaluating many stations in increasing order.
+    pub fn cursor(&self) -> Cursor<'_> {
+        Cursor { alignment: self, index: 0 }
+    }
+
+    /// Every PVI, PVC and PVT station, in order (PVC/PVT only for real curves).
+    pub fn key_stations(&self) -> Vec<(Station, KeyPoint)> {
+        let mut keys: Vec<(Station, KeyPoint)> =
+            self.pvis.iter().map(|p| (p.station, KeyPoint::Pvi)).collect();
+        for c in &self.curves {
+            if c.length() > 0.0 {
+                keys.push((c.pvc, KeyPoint::Pvc));
+                keys.push((c.pvt, KeyPoint::Pvt));
+            }
+        }
+        keys.sort_by(|a, b| a.0.total_cmp(&b.0));
+        keys
+    }
+}
+
+/// The curve geometry at every interior PVI. Needs finite values and strictly
+/// increasing stations; curves may overlap (they are computed one by one).
+pub fn interior_curves(pvis: &[Pvi]) -> Vec<CurveGeometry> {
+    pvis.windows(3)
+        .enumerate()
+        .filter_map(|(i, w)| match w {
+            [a, b, c] => Some(CurveGeometry::new(i + 1, a, b, c)),
+            _ => None,
+        })
+        .collect()
+}
+
+/// Evaluates stations in increasing order in amortised O(1) each; a station
+/// behind the cursor is still answered correctly (by a binary search).
+#[derive(Clone, Debug)]
+pub struct Cursor<'a> {
+    alignment: &'a Alignment,
+    index: usize,
+}
+
+impl Cursor<'_> {
+    /// Elevation and grade at `station`.
+    ///
+    /// # Errors
+    /// [`OutOfRange`] for a station outside the profile.
+    #[inline]
+    pub fn sample(&mut self, station: Station) -> Result<Sample, OutOfRange> {
+        let s = station.0;
+        self.alignment.check_range(s)?;
+        let segments = &self.alignment.segments;
+        match segments.get(self.index) {
+            Some(seg) if s >= seg.start => {
+                while self.index + 1 < segments.len()
+                    && segments.get(self.index).is_some_and(|seg| seg.end <= s)
+                {
+                    self.index += 1;
+                }
+            }
+            _ => self.index = self.alignment.segment_index(s),
+        }
+        Ok(self.alignment.sample_in(self.index, s))
+    }
+}

@@ -1,0 +1,332 @@
+//! Checks of a profile against resolved criteria: a list of structured findings.
+
+use crate::{
+    CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, Station,
+    Units, interior_curves, sight,
+};
+
+/// How serious a finding is.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum Severity {
+    /// For information.
+    Info,
+    /// Worth a look; not a failure of a criterion.
+    Warn,
+    /// A criterion is not met, or the profile is not buildable.
+    Fail,
+}
+
+impl Severity {
+    /// `"info"`, `"warn"` or `"fail"`.
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::Info => "info",
+            Self::Warn => "warn",
+            Self::Fail => "fail",
+        }
+    }
+}
+
+/// One check result.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Finding {
+    /// How serious.
+    pub severity: Severity,
+    /// Stable code, e.g. `crest.k-min`.
+    pub code: &'static str,
+    /// First station concerned.
+    pub station_start: Station,
+    /// Last station concerned.
+    pub station_end: Station,
+    /// The PVI concerned, 0-based, if any.
+    pub pvi: Option<usize>,
+    /// What is wrong, with the numbers and the rule used.
+    pub message: String,
+}
+
+/// A curve with what the criteria ask of it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct CurveCheck {
+    /// The curve.
+    pub curve: CurveGeometry,
+    /// The minimum K for this kind of curve (`None` when no curve is needed).
+    pub k_required: Option<f64>,
+    /// Length for stopping sight distance by the exact formula (S < L or S > L).
+    pub sight_length: f64,
+    /// Sag comfort length, when that check is on and the curve is a sag.
+    pub comfort_length: Option<f64>,
+    /// Minimum length rule.
+    pub min_length: f64,
+    /// The governing minimum length: the largest of K·A, the sight-distance
+    /// length, the comfort length and the minimum-length rule.
+    pub length_required: f64,
+    /// Whether no failure was found on this curve.
+    pub ok: bool,
+}
+
+/// All findings of a profile, plus the per-curve figures.
+#[derive(Clone, Debug, PartialEq, Default)]
+pub struct CheckReport {
+    /// Findings, in station order within each kind of check.
+    pub findings: Vec<Finding>,
+    /// One entry per interior PVI, in order (empty when stations are unusable).
+    pub curves: Vec<CurveCheck>,
+}
+
+impl CheckReport {
+    /// Whether any finding is a failure.
+    pub fn has_failures(&self) -> bool {
+        self.findings.iter().any(|f| f.severity == Severity::Fail)
+    }
+
+    /// The worst severity on PVI `index`, if any finding names it.
+    pub fn worst_at(&self, index: usize) -> Option<Severity> {
+        self.findings.iter().filter(|f| f.pvi == Some(index)).map(|f| f.severity).max()
+    }
+}
+
+/// Room for comparisons: a length or K equal to the requirement within this
+/// relative amount passes (values typed to the decimal must not fail by 1e-12).
+const TOLERANCE: f64 = 1e-9;
+
+fn below(value: f64, required: f64) -> bool {
+    value < required * (1.0 - TOLERANCE) - TOLERANCE
+}
+
+/// Checks `profile` against `criteria`: structural problems (as failures), then
+/// every curve and every tangent grade.
+pub fn check_profile(profile: &Profile, criteria: &ResolvedCriteria) -> CheckReport {
+    let mut report = CheckReport::default();
+    let problems = profile.problems();
+    let mut usable = true;
+    for problem in &problems {
+        if !matches!(
+            problem,
+            ProfileProblem::Overlap { .. }
+                | ProfileProblem::CurveExceedsTangent { .. }
+                | ProfileProblem::CurveAtEnd { .. }
+        ) {
+            usable = false;
+        }
+        report.findings.push(problem_finding(profile, problem));
+    }
+    if !usable {
+        return report;
+    }
+    for curve in interior_curves(&profile.pvis) {
+        let check = check_curve(&curve, criteria, &mut report.findings);
+        report.curves.push(check);
+    }
+    check_grades(profile, criteria, &mut report.findings);
+    for check in &mut report.curves {
+        let index = check.curve.index;
+        check.ok = !report
+            .findings
+            .iter()
+            .any(|f| f.pvi == Some(index) && f.severity == Severity::Fail);
+    }
+    report
+}
+
+fn label(units: Units, station: Station) -> String {
+    station.label(units, units.station_decimals())
+}
+
+fn problem_finding(profile: &Profile, problem: &ProfileProblem) -> Finding {
+    let units = profile.units;
+    let pvi = problem.pvi_index();
+    let station = pvi
+        .and_then(|i| profile.pvis.get(i))
+        .map(|p| p.station)
+        .filter(|s| s.0.is_finite())
+        .unwrap_or(Station(0.0));
+    let (start, end) = match problem {
+        ProfileProblem::Overlap { pvt, pvc, .. } => (Station(*pvc), Station(*pvt)),
+        _ => (station, station),
+    };
+    let at = pvi.map_or(String::new(), |_| format!(" (at {})", label(units, station)));
+    Finding {
+        severity: Severity::Fail,
+        code: problem.code(),
+        station_start: start,
+        station_end: end,
+        pvi,
+        message: format!("{problem}{at}"),
+    }
+}
+
+fn check_curve(
+    curve: &CurveGeometry,
+    criteria: &ResolvedCriteria,
+    findings: &mut Vec<Finding>,
+) -> CurveCheck {
+    let units = criteria.units;
+    let len = units.length_symbol();
+    let ks = units.k_symbol();
+    let a = curve.a_percent();
+    let ssd = criteria.get(CriterionId::StoppingSightDistance);
+    let mut check = CurveCheck {
+        curve: *curve,
+        k_required: None,
+        sight_length: 0.0,
+        comfort_length: None,
+        min_length: 0.0,
+        length_required: 0.0,
+        ok: true,
+    };
+    let where_ = format!("PVI {} ({})", curve.index + 1, label(units, curve.pvi));
+    let mut push = |severity, code, message: String| {
+        findings.push(Finding {
+            severity,
+            code,
+            station_start: curve.pvc,
+            station_end: curve.pvt,
+            pvi: Some(curve.index),
+            message,
+        });
+    };
+    let (name, k_id) = match curve.kind {
+        CurveKind::Crest => ("Crest", CriterionId::CrestK),
+        CurveKind::Sag => ("Sag", CriterionId::SagK),
+        CurveKind::None => {
+            if curve.length() > 0.0 {
+                push(
+                    Severity::Info,
+                    "curve.not-needed",
+                    format!("{where_}: no grade change, so the {:.3} {len} curve is not needed", curve.length()),
+                );
+            }
+            return check;
+        }
+    };
+    let k = curve.k().unwrap_or(0.0);
+    let k_min = criteria.get(k_id);
+    check.k_required = Some(k_min);
+    // Equivalent equal-tangent length: L itself, or K_sharper·A when unequal.
+    let length = k * a;
+    let k_code = if curve.kind == CurveKind::Crest { "crest.k-min" } else { "sag.k-min" };
+    if below(k, k_min) {
+        push(
+            Severity::Fail,
+            k_code,
+            format!(
+                "{where_}: {} curve K = {k:.1} {ks} is below the minimum {k_min:.1} {ks} \
+                 (K = L/A = {:.2} {len} / {a:.3} %; needs L ≥ {:.2} {len})",
+                name.to_lowercase(),
+                curve.length(),
+                k_min * a
+            ),
+        );
+    }
+    let (sight, sight_code, formula) = if curve.kind == CurveKind::Crest {
+        let c = criteria.crest_constant();
+        let r = sight::crest_length(a, ssd, c);
+        let formula = match r.case {
+            sight::SightCase::ShorterThanCurve => format!("L = A·S²/{c:.0}"),
+            sight::SightCase::LongerThanCurve => format!("L = 2S − {c:.0}/A"),
+        };
+        (r.length, "crest.ssd-length", formula)
+    } else {
+        let (base, slope) = criteria.headlight_terms();
+        let r = sight::sag_headlight_length(a, ssd, (base, slope));
+        let formula = match r.case {
+            sight::SightCase::ShorterThanCurve => format!("L = A·S²/({base:.0} + {slope:.2}S)"),
+            sight::SightCase::LongerThanCurve => format!("L = 2S − ({base:.0} + {slope:.2}S)/A"),
+        };
+        (r.length, "sag.headlight-length", formula)
+    };
+    check.sight_length = sight;
+    if below(length, sight) {
+        push(
+            Severity::Fail,
+            sight_code,
+            format!(
+                "{where_}: {name} length {length:.2} {len} is shorter than the {sight:.2} {len} \
+                 needed for SSD {ssd:.0} {len} ({formula}, A = {a:.3} %)"
+            ),
+        );
+    }
+    if curve.kind == CurveKind::Sag && criteria.sag_comfort {
+        let accel = criteria.get(CriterionId::ComfortAcceleration);
+        let comfort = sight::sag_comfort_length(units, a, criteria.design_speed, accel);
+        check.comfort_length = Some(comfort);
+        if below(length, comfort) {
+            push(
+                Severity::Fail,
+                "sag.comfort-length",
+                format!(
+                    "{where_}: sag length {length:.2} {len} is shorter than the comfort length \
+                     {comfort:.2} {len} (L = A·v²/(100·a), a = {accel} {})",
+                    units.acceleration_symbol()
+                ),
+            );
+        }
+    }
+    let min_length = criteria.get(CriterionId::MinCurveLength);
+    check.min_length = min_length;
+    if below(curve.length(), min_length) {
+        push(
+            Severity::Warn,
+            "curve.min-length",
+            format!(
+                "{where_}: curve length {:.2} {len} is below the minimum length {min_length:.2} {len} ({})",
+                curve.length(),
+                criteria.entry(CriterionId::MinCurveLength).map_or("", |e| e.rule.as_str())
+            ),
+        );
+    }
+    let drainage = criteria.get(CriterionId::DrainageK);
+    if let Some((station, elevation)) = curve.turning
+        && k > drainage
+    {
+        push(
+            Severity::Warn,
+            "drainage.flat-curve",
+            format!(
+                "{where_}: K = {k:.1} {ks} is above {drainage:.0} {ks} with a level point at {} \
+                 (elevation {elevation:.3}); check drainage near the level point",
+                label(units, station)
+            ),
+        );
+    }
+    check.length_required = [k_min * a, sight, check.comfort_length.unwrap_or(0.0), min_length]
+        .into_iter()
+        .fold(0.0, f64::max);
+    check
+}
+
+fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut Vec<Finding>) {
+    let units = profile.units;
+    let max = criteria.get(CriterionId::MaxGrade);
+    let min = criteria.get(CriterionId::MinGrade);
+    for (i, pair) in profile.pvis.windows(2).enumerate() {
+        let [a, b] = pair else { continue };
+        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
+        let span = format!("{} to {}", label(units, a.station), label(units, b.station));
+        let mut push = |severity, code, message| {
+            findings.push(Finding {
+                severity,
+                code,
+                station_start: a.station,
+                station_end: b.station,
+                pvi: Some(i),
+                message,
+            });
+        };
+        if grade.abs() > max * (1.0 + TOLERANCE) {
+            push(
+                Severity::Fail,
+                "grade.max",
+                format!("Grade {grade:+.3} % from {span} is steeper than the maximum {max:.2} %"),
+            );
+        } else if below(grade.abs(), min) {
+            push(
+                Severity::Warn,
+                "grade.min",
+                format!(
+                    "Grade {grade:+.3} % from {span} is flatter than the minimum {min:.2} % for drainage"
+                ),
+            );
+        }
+    }
+}

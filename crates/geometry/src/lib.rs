@@ -1,0 +1,35 @@
+//! Gradewright geometry: the vertical profile of a road, modelled exactly.
+//!
+//! * [`Profile`] / [`Pvi`] / [`VerticalCurve`]: the profile as entered, with
+//!   [`Profile::problems`] listing everything that is wrong with it at once.
+//! * [`Alignment`]: a validated profile evaluated at any station.
+//! * [`CurveGeometry`]: PVC, PVT, K, external, high/low point of one curve.
+//! * [`Criteria`] → [`ResolvedCriteria`]: design criteria computed from the
+//!   design speed by the published method, or overridden.
+//! * [`check_profile`]: structured findings.
+//! * [`Project`]: the RON project file, saved atomically.
+//! * [`format_station`] / [`parse_station`]: `12+34.56` and `1+234.567`.
+//!
+//! This crate has no GUI dependency and never will.
+
+mod alignment;
+mod checks;
+mod criteria;
+mod curve;
+mod profile;
+mod project;
+pub mod sight;
+mod station;
+mod units;
+
+pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
+pub use checks::{CheckReport, CurveCheck, Finding, Severity, check_profile};
+pub use criteria::{
+    CriteriaError, Criteria, CriterionId, Quantity, Resolved, ResolvedCriteria, Setting, Terrain,
+    max_grade_percent,
+};
+pub use curve::{CurveGeometry, CurveKind, Segment};
+pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
+pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, write_atomic};
+pub use station::{Station, StationError, format_station, parse_station};
+pub use units::Units;

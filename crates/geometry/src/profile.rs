@@ -1,0 +1,347 @@
+//! The profile as the designer enters it: an ordered list of PVIs, each with an
+//! optional vertical curve, plus validation that reports every problem at once.
+
+use serde::{Deserialize, Serialize};
+
+use crate::{Station, Units};
+
+/// The vertical curve at a PVI.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize, Default)]
+pub enum VerticalCurve {
+    /// A plain grade break (or the first/last PVI).
+    #[default]
+    None,
+    /// An equal-tangent parabola of total length `length`, centred on the PVI.
+    Symmetric {
+        /// Horizontal length PVC→PVT.
+        length: f64,
+    },
+    /// An unequal-tangent parabola: `length_in` before the PVI, `length_out` after.
+    Unequal {
+        /// Horizontal length PVC→PVI.
+        length_in: f64,
+        /// Horizontal length PVI→PVT.
+        length_out: f64,
+    },
+}
+
+impl VerticalCurve {
+    /// Builds a curve from its two half lengths: both zero is no curve, both equal
+    /// is symmetric, otherwise unequal-tangent.
+    pub fn from_lengths(length_in: f64, length_out: f64) -> Self {
+        if length_in == 0.0 && length_out == 0.0 {
+            Self::None
+        } else if length_in.to_bits() == length_out.to_bits() {
+            Self::Symmetric { length: length_in + length_out }
+        } else {
+            Self::Unequal { length_in, length_out }
+        }
+    }
+
+    /// Length before the PVI (PVC→PVI).
+    pub fn length_in(self) -> f64 {
+        match self {
+            Self::None => 0.0,
+            Self::Symmetric { length } => length / 2.0,
+            Self::Unequal { length_in, .. } => length_in,
+        }
+    }
+
+    /// Length after the PVI (PVI→PVT).
+    pub fn length_out(self) -> f64 {
+        match self {
+            Self::None => 0.0,
+            Self::Symmetric { length } => length / 2.0,
+            Self::Unequal { length_out, .. } => length_out,
+        }
+    }
+
+    /// Total horizontal length PVC→PVT.
+    pub fn length(self) -> f64 {
+        match self {
+            Self::None => 0.0,
+            Self::Symmetric { length } => length,
+            Self::Unequal { length_in, length_out } => length_in + length_out,
+        }
+    }
+
+    /// Whether this is a real curve (any length above zero).
+    pub fn is_curve(self) -> bool {
+        self.length_in() > 0.0 || self.length_out() > 0.0
+    }
+
+    /// The same curve type scaled to a new total length (unequal curves keep
+    /// their in/out ratio).
+    #[must_use]
+    pub fn with_length(self, total: f64) -> Self {
+        match self {
+            Self::None | Self::Symmetric { .. } => {
+                if total > 0.0 {
+                    Self::Symmetric { length: total }
+                } else {
+                    Self::None
+                }
+            }
+            Self::Unequal { length_in, length_out } => {
+                let old = length_in + length_out;
+                if old > 0.0 && total > 0.0 {
+                    Self::Unequal {
+                        length_in: total * length_in / old,
+                        length_out: total * length_out / old,
+                    }
+                } else {
+                    Self::None
+                }
+            }
+        }
+    }
+}
+
+/// A point of vertical intersection: where two grade lines meet.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Pvi {
+    /// Station of the PVI.
+    pub station: Station,
+    /// Elevation of the PVI (the grade lines' intersection, not the curve).
+    pub elevation: f64,
+    /// The vertical curve at this PVI.
+    #[serde(default)]
+    pub curve: VerticalCurve,
+}
+
+impl Pvi {
+    /// A PVI with no curve.
+    pub fn new(station: f64, elevation: f64) -> Self {
+        Self { station: Station(station), elevation, curve: VerticalCurve::None }
+    }
+
+    /// A PVI with a symmetric curve of total length `length` (0 = no curve).
+    pub fn with_curve(station: f64, elevation: f64, length: f64) -> Self {
+        Self {
+            station: Station(station),
+            elevation,
+            curve: VerticalCurve::from_lengths(length / 2.0, length / 2.0),
+        }
+    }
+}
+
+/// A vertical profile: PVIs in station order, in one unit system.
+#[derive(Clone, Debug, PartialEq, Default)]
+pub struct Profile {
+    /// Unit system of every station, elevation and length.
+    pub units: Units,
+    /// The PVIs, first to last.
+    pub pvis: Vec<Pvi>,
+}
+
+/// What is wrong with a profile, naming the PVI (0-based index) concerned.
+#[derive(Clone, Debug, PartialEq, thiserror::Error)]
+pub enum ProfileProblem {
+    /// A profile needs at least two PVIs.
+    #[error("the profile has {count} PVI(s); at least two are needed")]
+    TooFewPvis {
+        /// How many there are.
+        count: usize,
+    },
+    /// A number is NaN or infinite.
+    #[error("PVI {}: {field} is not a finite number", .index + 1)]
+    NotFinite {
+        /// The PVI.
+        index: usize,
+        /// Which value.
+        field: &'static str,
+    },
+    /// A curve length is negative.
+    #[error("PVI {}: {field} is negative ({value})", .index + 1)]
+    NegativeLength {
+        /// The PVI.
+        index: usize,
+        /// Which length.
+        field: &'static str,
+        /// Its value.
+        value: f64,
+    },
+    /// Stations must strictly increase.
+    #[error("PVI {}: station {station} is not after the previous PVI's station {previous}", .index + 1)]
+    StationOrder {
+        /// The PVI.
+        index: usize,
+        /// Its station.
+        station: f64,
+        /// The previous PVI's station.
+        previous: f64,
+    },
+    /// The first and last PVI cannot carry a curve.
+    #[error("PVI {}: the first and last PVI cannot carry a vertical curve", .index + 1)]
+    CurveAtEnd {
+        /// The PVI.
+        index: usize,
+    },
+    /// A curve half is longer than its tangent.
+    #[error("PVI {}: the curve's {side} part ({length}) is longer than its tangent ({available})", .index + 1)]
+    CurveExceedsTangent {
+        /// The PVI.
+        index: usize,
+        /// `"back"` (before the PVI) or `"ahead"` (after it).
+        side: &'static str,
+        /// That part's length.
+        length: f64,
+        /// The tangent's length.
+        available: f64,
+    },
+    /// An unequal-tangent curve with one part of zero length.
+    #[error("PVI {}: both parts of an unequal-tangent curve must be longer than zero", .index + 1)]
+    ZeroCurvePart {
+        /// The PVI.
+        index: usize,
+    },
+    /// Two curves overlap: the PVT of one is past the PVC of the next.
+    #[error("PVI {} and PVI {}: curves overlap by {overlap} (PVT {pvt} is past PVC {pvc})", .index + 1, .index + 2)]
+    Overlap {
+        /// The first of the two PVIs.
+        index: usize,
+        /// PVT station of the first curve.
+        pvt: f64,
+        /// PVC station of the next curve.
+        pvc: f64,
+        /// How much they overlap.
+        overlap: f64,
+    },
+}
+
+impl ProfileProblem {
+    /// A stable code for reports (`profile.overlap`, …).
+    pub fn code(&self) -> &'static str {
+        match self {
+            Self::TooFewPvis { .. } => "profile.too-few-pvis",
+            Self::NotFinite { .. } => "profile.not-finite",
+            Self::NegativeLength { .. } => "profile.negative-length",
+            Self::StationOrder { .. } => "profile.station-order",
+            Self::CurveAtEnd { .. } => "profile.curve-at-end",
+            Self::CurveExceedsTangent { .. } => "curve.exceeds-tangent",
+            Self::ZeroCurvePart { .. } => "curve.zero-part",
+            Self::Overlap { .. } => "curve.overlap",
+        }
+    }
+
+    /// The first PVI concerned, if any.
+    pub fn pvi_index(&self) -> Option<usize> {
+        match self {
+            Self::TooFewPvis { .. } => None,
+            Self::NotFinite { index, .. }
+            | Self::NegativeLength { index, .. }
+            | Self::StationOrder { index, .. }
+            | Self::CurveAtEnd { index }
+            | Self::ZeroCurvePart { index }
+            | Self::CurveExceedsTangent { index, .. }
+            | Self::Overlap { index, .. } => Some(*index),
+        }
+    }
+}
+
+impl Profile {
+    /// A profile from PVIs.
+    pub fn new(units: Units, pvis: Vec<Pvi>) -> Self {
+        Self { units, pvis }
+    }
+
+    /// Every problem that stops the profile from being evaluated, all at once.
+    /// An empty list means [`crate::Alignment::new`] will succeed.
+    pub fn problems(&self) -> Vec<ProfileProblem> {
+        let mut problems = Vec::new();
+        let n = self.pvis.len();
+        if n < 2 {
+            problems.push(ProfileProblem::TooFewPvis { count: n });
+        }
+        let mut finite = vec![true; n];
+        for (index, pvi) in self.pvis.iter().enumerate() {
+            let values = [
+                ("station", pvi.station.0),
+                ("elevation", pvi.elevation),
+                ("curve length in", pvi.curve.length_in()),
+                ("curve length out", pvi.curve.length_out()),
+            ];
+            for (field, value) in values {
+                if !value.is_finite() {
+                    problems.push(ProfileProblem::NotFinite { index, field });
+                    finite[index] = false;
+                } else if field.starts_with("curve") && value < 0.0 {
+                    problems.push(ProfileProblem::NegativeLength { index, field, value });
+                    finite[index] = false;
+                }
+            }
+            if pvi.curve.is_curve()
+                && (pvi.curve.length_in() == 0.0 || pvi.curve.length_out() == 0.0)
+            {
+                problems.push(ProfileProblem::ZeroCurvePart { index });
+                finite[index] = false;
+            }
+            if (index == 0 || index + 1 == n) && pvi.curve.is_curve() {
+                problems.push(ProfileProblem::CurveAtEnd { index });
+            }
+        }
+        let mut ordered = true;
+        for (index, pair) in self.pvis.windows(2).enumerate() {
+            let [a, b] = pair else { continue };
+            if finite[index] && finite[index + 1] && b.station.0 <= a.station.0 {
+                ordered = false;
+                problems.push(ProfileProblem::StationOrder {
+                    index: index + 1,
+                    station: b.station.0,
+                    previous: a.station.0,
+                });
+            }
+        }
+        if !ordered || finite.iter().any(|f| !f) {
+            return problems;
+        }
+        for (index, pvi) in self.pvis.iter().enumerate() {
+            if index == 0 || index + 1 == n {
+                continue;
+            }
+            let (Some(prev), Some(next)) = (self.pvis.get(index - 1), self.pvis.get(index + 1))
+            else {
+                continue;
+            };
+            let back = pvi.station - prev.station;
+            let ahead = next.station - pvi.station;
+            if pvi.curve.length_in() > back {
+                problems.push(ProfileProblem::CurveExceedsTangent {
+                    index,
+                    side: "back",
+                    length: pvi.curve.length_in(),
+                    available: back,
+                });
+            }
+            if pvi.curve.length_out() > ahead {
+                problems.push(ProfileProblem::CurveExceedsTangent {
+                    index,
+                    side: "ahead",
+                    length: pvi.curve.length_out(),
+                    available: ahead,
+                });
+            }
+        }
+        for (index, pair) in self.pvis.windows(2).enumerate() {
+            let [a, b] = pair else { continue };
+            let pvt = a.station.0 + a.curve.length_out();
+            let pvc = b.station.0 - b.curve.length_in();
+            // Only report an overlap between two real curves; a single curve that is
+            // too long for its tangent was reported above.
+            if pvt > pvc && a.curve.is_curve() && b.curve.is_curve() {
+                problems.push(ProfileProblem::Overlap { index, pvt, pvc, overlap: pvt - pvc });
+            }
+        }
+        problems
+    }
+
+    /// Station of the first PVI.
+    pub fn start(&self) -> Option<Station> {
+        self.pvis.first().map(|p| p.station)
+    }
+
+    /// Station of the last PVI.
+    pub fn end(&self) -> Option<Station> {
+        self.pvis.last().map(|p| p.station)
+    }
+}

@@ -1,0 +1,236 @@
+//! The project file: a profile, its criteria and room for ground and controls.
+//!
+//! Saved as RON with a `format_version`. Loading names the line and column of
+//! any error; saving is atomic and keeps the previous file as `*.bak`.
+
+use std::fs;
+use std::io::Write as _;
+use std::path::{Path, PathBuf};
+
+use serde::{Deserialize, Serialize};
+
+use crate::{Criteria, Profile, Pvi, Units};
+
+/// The newest file format this build reads and the one it writes.
+pub const FORMAT_VERSION: u32 = 1;
+
+/// A point of the existing ground line.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct GroundPoint {
+    /// Station.
+    pub station: f64,
+    /// Ground elevation.
+    pub elevation: f64,
+}
+
+/// A fixed elevation the profile must meet (tie-in, structure, culvert).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ControlPoint {
+    /// What it is.
+    pub name: String,
+    /// Station.
+    pub station: f64,
+    /// Required elevation.
+    pub elevation: f64,
+    /// Allowed deviation below the elevation.
+    #[serde(default)]
+    pub below: f64,
+    /// Allowed deviation above the elevation.
+    #[serde(default)]
+    pub above: f64,
+}
+
+/// A Gradewright project.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Project {
+    /// File format version ([`FORMAT_VERSION`] when written by this build).
+    pub format_version: u32,
+    /// Project name.
+    #[serde(default)]
+    pub name: String,
+    /// Unit system of everything in the file.
+    pub units: Units,
+    /// Design criteria.
+    #[serde(default)]
+    pub criteria: Criteria,
+    /// The proposed profile's PVIs, in station order.
+    pub pvis: Vec<Pvi>,
+    /// Existing ground line (station, elevation), in station order.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub ground: Vec<GroundPoint>,
+    /// Fixed elevations the profile must meet.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub controls: Vec<ControlPoint>,
+}
+
+impl Project {
+    /// An empty project in `units`.
+    pub fn new(name: impl Into<String>, units: Units) -> Self {
+        Self {
+            format_version: FORMAT_VERSION,
+            name: name.into(),
+            units,
+            criteria: Criteria::default(),
+            pvis: Vec::new(),
+            ground: Vec::new(),
+            controls: Vec::new(),
+        }
+    }
+
+    /// The profile (a copy of units and PVIs).
+    pub fn profile(&self) -> Profile {
+        Profile::new(self.units, self.pvis.clone())
+    }
+
+    /// Parses project text; `origin` names the file in errors.
+    ///
+    /// # Errors
+    /// [`FileError::Syntax`] with line and column, or [`FileError::NewerVersion`].
+    pub fn from_ron(text: &str, origin: &Path) -> Result<Self, FileError> {
+        // Read the version first, so a newer file says so instead of failing
+        // on a field this build does not know.
+        if let Ok(probe) = ron::from_str::<VersionProbe>(text)
+            && probe.format_version > FORMAT_VERSION
+        {
+            return Err(FileError::NewerVersion {
+                path: origin.to_owned(),
+                found: probe.format_version,
+                supported: FORMAT_VERSION,
+            });
+        }
+        let project: Self = ron::from_str(text).map_err(|e| FileError::Syntax {
+            path: origin.to_owned(),
+            line: e.span.start.line,
+            column: e.span.start.col,
+            message: e.code.to_string(),
+        })?;
+        if project.format_version == 0 {
+            return Err(FileError::Syntax {
+                path: origin.to_owned(),
+                line: 1,
+                column: 1,
+                message: "format_version must be 1 or more".to_owned(),
+            });
+        }
+        Ok(project)
+    }
+
+    /// The project as pretty RON text.
+    ///
+    /// # Errors
+    /// [`FileError::Encode`] if serialisation fails (it does not for finite data).
+    pub fn to_ron(&self) -> Result<String, FileError> {
+        let config = ron::ser::PrettyConfig::new().depth_limit(4).struct_names(true);
+        let mut text = ron::ser::to_string_pretty(self, config)
+            .map_err(|e| FileError::Encode(e.to_string()))?;
+        text.push('\n');
+        Ok(text)
+    }
+
+    /// Loads a project file.
+    ///
+    /// # Errors
+    /// [`FileError`] naming the file, and line and column for syntax errors.
+    pub fn load(path: &Path) -> Result<Self, FileError> {
+        let text = fs::read_to_string(path)
+            .map_err(|e| FileError::Io { path: path.to_owned(), message: e.to_string() })?;
+        Self::from_ron(&text, path)
+    }
+
+    /// Saves atomically: writes a temporary file beside `path`, flushes it to
+    /// disk, copies any existing file to `path.bak`, then renames the temporary
+    /// file over `path`. A failure at any step leaves the old file as it was.
+    ///
+    /// # Errors
+    /// [`FileError::Io`] naming the file.
+    pub fn save(&self, path: &Path) -> Result<(), FileError> {
+        let text = self.to_ron()?;
+        write_atomic(path, text.as_bytes(), true)
+    }
+}
+
+#[derive(Deserialize)]
+#[serde(rename = "Project")]
+struct VersionProbe {
+    format_version: u32,
+}
+
+/// Why a project file could not be read or written.
+#[derive(Clone, Debug, PartialEq, thiserror::Error)]
+pub enum FileError {
+    /// Reading or writing failed.
+    #[error("{}: {message}", .path.display())]
+    Io {
+        /// The file.
+        path: PathBuf,
+        /// What the system said.
+        message: String,
+    },
+    /// The text is not a valid project.
+    #[error("{}:{line}:{column}: {message}", .path.display())]
+    Syntax {
+        /// The file.
+        path: PathBuf,
+        /// 1-based line.
+        line: usize,
+        /// 1-based column.
+        column: usize,
+        /// What was wrong or expected.
+        message: String,
+    },
+    /// The file was written by a newer Gradewright.
+    #[error("{}: file format version {found} is newer than this build reads (up to {supported}); update Gradewright", .path.display())]
+    NewerVersion {
+        /// The file.
+        path: PathBuf,
+        /// Version in the file.
+        found: u32,
+        /// Newest version this build reads.
+        supported: u32,
+    },
+    /// The project could not be encoded.
+    #[error("could not encode the project: {0}")]
+    Encode(String),
+}
+
+/// Writes `bytes` to `path` atomically (temporary file in the same folder,
+/// flush and sync, rename). With `backup`, an existing file is first copied to
+/// `path` + `.bak` (itself written atomically).
+///
+/// # Errors
+/// [`FileError::Io`] naming the file; on error the old file is untouched.
+pub fn write_atomic(path: &Path, bytes: &[u8], backup: bool) -> Result<(), FileError> {
+    let io = |p: &Path, e: std::io::Error| FileError::Io { path: p.to_owned(), message: e.to_string() };
+    let dir = match path.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d.to_owned(),
+        _ => PathBuf::from("."),
+    };
+    let file_name = path.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
+    if file_name.is_empty() {
+        return Err(FileError::Io { path: path.to_owned(), message: "not a file name".to_owned() });
+    }
+    let temp = dir.join(format!(".{file_name}.{}.tmp", std::process::id()));
+    let result = (|| {
+        let mut file = fs::File::create(&temp).map_err(|e| io(&temp, e))?;
+        file.write_all(bytes).map_err(|e| io(&temp, e))?;
+        file.sync_all().map_err(|e| io(&temp, e))?;
+        drop(file);
+        if backup && path.exists() {
+            let old = fs::read(path).map_err(|e| io(path, e))?;
+            let mut bak = path.as_os_str().to_owned();
+            bak.push(".bak");
+            write_atomic(Path::new(&bak), &old, false)?;
+        }
+        fs::rename(&temp, path).map_err(|e| io(path, e))?;
+        if let Ok(d) = fs::File::open(&dir) {
+            let _ = d.sync_all();
+        }
+        Ok(())
+    })();
+    if result.is_err() {
+        let _ = fs::remove_file(&temp);
+    }
+    result
+}

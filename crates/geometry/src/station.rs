@@ -1,0 +1,201 @@
+//! Stations: positions along the alignment, and their `12+34.56` notation.
+//!
+//! A [`Station`] is a position; the difference of two stations is a plain length
+//! (`f64`, in the project's length unit). Adding two stations does not compile.
+
+use std::cmp::Ordering;
+use std::ops::{Add, Sub};
+
+use serde::{Deserialize, Serialize};
+
+use crate::Units;
+
+/// A position along the alignment, in the project's length unit (m or ft).
+#[derive(Clone, Copy, Debug, PartialEq, PartialOrd, Default, Serialize, Deserialize)]
+#[serde(transparent)]
+pub struct Station(pub f64);
+
+impl Station {
+    /// The station as a plain number (distance in the project's length unit).
+    pub fn value(self) -> f64 {
+        self.0
+    }
+
+    /// Total order (NaN last), for sorting.
+    pub fn total_cmp(&self, other: &Self) -> Ordering {
+        self.0.total_cmp(&other.0)
+    }
+
+    /// Formats in station notation for `units` with `decimals` decimals.
+    pub fn label(self, units: Units, decimals: usize) -> String {
+        format_station(self.0, units, decimals)
+    }
+}
+
+impl Sub for Station {
+    type Output = f64;
+    fn sub(self, rhs: Self) -> f64 {
+        self.0 - rhs.0
+    }
+}
+
+impl Add<f64> for Station {
+    type Output = Station;
+    fn add(self, rhs: f64) -> Station {
+        Station(self.0 + rhs)
+    }
+}
+
+impl Sub<f64> for Station {
+    type Output = Station;
+    fn sub(self, rhs: f64) -> Station {
+        Station(self.0 - rhs)
+    }
+}
+
+/// Why a station could not be read.
+#[derive(Clone, Debug, PartialEq, thiserror::Error)]
+pub enum StationError {
+    /// Nothing was given.
+    #[error("empty station")]
+    Empty,
+    /// The text is neither a number nor station notation.
+    #[error("'{0}' is not a station (expected e.g. {1} or a plain number)")]
+    Malformed(String, &'static str),
+    /// The part after `+` is a full station or more.
+    #[error("'{text}': the part after '+' must be less than {limit}")]
+    OffsetTooLarge {
+        /// The text as given.
+        text: String,
+        /// One station length.
+        limit: f64,
+    },
+    /// The number is infinite or not a number.
+    #[error("'{0}' is not a finite station")]
+    NotFinite(String),
+}
+
+/// An example of the notation, for messages.
+fn example(units: Units) -> &'static str {
+    match units {
+        Units::Metric => "1+234.567",
+        Units::UsCustomary => "12+34.56",
+    }
+}
+
+/// Formats `value` in station notation: `1+234.567` (metric, 1000 m stations) or
+/// `12+34.56` (US, 100 ft stations); negative stations get a leading `-`
+/// (`-0+050.000`). Rounding is done once on the whole value, so a remainder never
+/// reads `100.00`. Non-finite values and values too large to round exactly are
+/// written as plain numbers.
+pub fn format_station(value: f64, units: Units, decimals: usize) -> String {
+    let decimals = decimals.min(9);
+    let scale = 10_f64.powi(i32::try_from(decimals).unwrap_or(9));
+    let scaled = (value.abs() * scale).round();
+    if !value.is_finite() || scaled >= 2f64.powi(53) {
+        return format!("{value}");
+    }
+    // Exact integer arithmetic on the rounded value (below 2^53, so exact in u64).
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let total = scaled as u64;
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let block = (units.station_length() * scale) as u64;
+    let whole = total / block;
+    let rest = total % block;
+    let sign = if value < 0.0 && total != 0 { "-" } else { "" };
+    #[allow(clippy::cast_precision_loss)]
+    let rest_value = rest as f64 / scale;
+    let width = units.station_digits() + if decimals > 0 { decimals + 1 } else { 0 };
+    format!("{sign}{whole}+{rest_value:0width$.decimals$}")
+}
+
+/// Parses station notation (`12+34.56`, `1+234.567`, `-0+50`) or a plain number
+/// (`1234.56`). Surrounding white space is ignored.
+///
+/// # Errors
+/// [`StationError`] when the text is empty, malformed, not finite, or the part after
+/// `+` is one full station or more.
+pub fn parse_station(text: &str, units: Units) -> Result<f64, StationError> {
+    let trimmed = text.trim();
+    if trimmed.is_empty() {
+        return Err(StationError::Empty);
+    }
+    let malformed = || StationError::Malformed(trimmed.to_owned(), example(units));
+    let Some((head, tail)) = trimmed.split_once('+') else {
+        let value: f64 = trimmed.parse().map_err(|_| malformed())?;
+        if !value.is_finite() {
+            return Err(StationError::NotFinite(trimmed.to_owned()));
+        }
+        return Ok(value);
+    };
+    let (negative, digits) = match head.strip_prefix('-') {
+        Some(rest) => (true, rest),
+        None => (false, head),
+    };
+    let is_number = |s: &str| {
+        !s.is_empty()
+            && s.chars().all(|c| c.is_ascii_digit() || c == '.')
+            && s.chars().filter(|&c| c == '.').count() <= 1
+            && s.chars().any(|c| c.is_ascii_digit())
+    };
+    if digits.is_empty() || !digits.chars().all(|c| c.is_ascii_digit()) || !is_number(tail) {
+        return Err(malformed());
+    }
+    let whole: f64 = digits.parse().map_err(|_| malformed())?;
+    let offset: f64 = tail.parse().map_err(|_| malformed())?;
+    if offset >= units.station_length() {
+        return Err(StationError::OffsetTooLarge {
+            text: trimmed.to_owned(),
+            limit: units.station_length(),
+        });
+    }
+    let magnitude = whole * units.station_length() + offset;
+    if !magnitude.is_finite() {
+        return Err(StationError::NotFinite(trimmed.to_owned()));
+    }
+    Ok(if negative { -magnitude } else { magnitude })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn formats_both_systems() {
+        assert_eq!(format_station(5650.0, Units::UsCustomary, 2), "56+50.00");
+        assert_eq!(format_station(1234.5678, Units::Metric, 3), "1+234.568");
+        assert_eq!(format_station(-50.0, Units::UsCustomary, 2), "-0+50.00");
+        assert_eq!(format_station(5.0, Units::Metric, 0), "0+005");
+        // Carry: 99.999 rounds to the next full station, never "0+100.00".
+        assert_eq!(format_station(99.999, Units::UsCustomary, 2), "1+00.00");
+        assert_eq!(format_station(-0.0001, Units::Metric, 3), "0+000.000");
+    }
+
+    #[test]
+    fn parses_notation_and_numbers() {
+        assert_eq!(parse_station("56+50.00", Units::UsCustomary), Ok(5650.0));
+        assert_eq!(parse_station(" 1+234.5 ", Units::Metric), Ok(1234.5));
+        assert_eq!(parse_station("-0+50", Units::UsCustomary), Ok(-50.0));
+        assert_eq!(parse_station("-12.5", Units::Metric), Ok(-12.5));
+        assert!(matches!(
+            parse_station("1+1000", Units::Metric),
+            Err(StationError::OffsetTooLarge { .. })
+        ));
+        assert!(parse_station("1+2+3", Units::Metric).is_err());
+        assert!(parse_station("a+10", Units::Metric).is_err());
+        assert!(parse_station("", Units::Metric).is_err());
+        assert!(parse_station("inf", Units::Metric).is_err());
+        assert!(parse_station("1+-5", Units::Metric).is_err());
+    }
+
+    #[test]
+    fn round_trips() {
+        for units in [Units::Metric, Units::UsCustomary] {
+            for &v in &[0.0, 12.345, 999.999, 1000.0, 5650.25, -1234.567, 20_000.0] {
+                let text = format_station(v, units, 3);
+                let back = parse_station(&text, units).map(|b| format_station(b, units, 3));
+                assert_eq!(back.as_deref(), Ok(text.as_str()), "{v} {units:?}");
+            }
+        }
+    }
+}

@@ -1,0 +1,115 @@
+//! Unit systems. A project is either metric or US customary, never both.
+
+use serde::{Deserialize, Serialize};
+
+/// The unit system of a project: every length, station and elevation in it is in
+/// this system's length unit, and the design speed in its speed unit.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize, Default)]
+pub enum Units {
+    /// Metres, km/h, stations of 1000 m written `1+234.567`.
+    #[default]
+    Metric,
+    /// US survey feet, mph, stations of 100 ft written `12+34.56`.
+    UsCustomary,
+}
+
+impl Units {
+    /// Length of one full station in the project's length unit (1000 m or 100 ft).
+    pub fn station_length(self) -> f64 {
+        match self {
+            Self::Metric => 1000.0,
+            Self::UsCustomary => 100.0,
+        }
+    }
+
+    /// Digits after the `+` in station notation before the decimal point.
+    pub fn station_digits(self) -> usize {
+        match self {
+            Self::Metric => 3,
+            Self::UsCustomary => 2,
+        }
+    }
+
+    /// Decimals usually shown for stations (3 for m, 2 for ft; common practice).
+    pub fn station_decimals(self) -> usize {
+        match self {
+            Self::Metric => 3,
+            Self::UsCustomary => 2,
+        }
+    }
+
+    /// Symbol of the length unit: `m` or `ft`.
+    pub fn length_symbol(self) -> &'static str {
+        match self {
+            Self::Metric => "m",
+            Self::UsCustomary => "ft",
+        }
+    }
+
+    /// Symbol of the speed unit: `km/h` or `mph`.
+    pub fn speed_symbol(self) -> &'static str {
+        match self {
+            Self::Metric => "km/h",
+            Self::UsCustomary => "mph",
+        }
+    }
+
+    /// Symbol of acceleration: `m/s²` or `ft/s²`.
+    pub fn acceleration_symbol(self) -> &'static str {
+        match self {
+            Self::Metric => "m/s²",
+            Self::UsCustomary => "ft/s²",
+        }
+    }
+
+    /// Symbol of K (length per percent of grade change): `m/%` or `ft/%`.
+    pub fn k_symbol(self) -> &'static str {
+        match self {
+            Self::Metric => "m/%",
+            Self::UsCustomary => "ft/%",
+        }
+    }
+
+    /// The short name used on the command line and in JSON: `metric` or `us`.
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::Metric => "metric",
+            Self::UsCustomary => "us",
+        }
+    }
+
+    /// Parses the short name (`metric`/`m`/`si` or `us`/`ft`/`imperial`), case-insensitive.
+    pub fn from_key(text: &str) -> Option<Self> {
+        match text.trim().to_ascii_lowercase().as_str() {
+            "metric" | "m" | "si" => Some(Self::Metric),
+            "us" | "ft" | "us-customary" | "imperial" => Some(Self::UsCustomary),
+            _ => None,
+        }
+    }
+
+    /// Standard gravity in this system's length unit per s² (9.81 m/s², 32.2 ft/s²,
+    /// the values in the AASHTO grade-adjusted stopping sight distance formula).
+    pub fn gravity(self) -> f64 {
+        match self {
+            Self::Metric => 9.81,
+            Self::UsCustomary => 32.2,
+        }
+    }
+
+    /// Metres or feet per second in one km/h or mph (1/3.6 or 5280/3600).
+    pub fn speed_to_length_per_second(self) -> f64 {
+        match self {
+            Self::Metric => 1.0 / 3.6,
+            Self::UsCustomary => 5280.0 / 3600.0,
+        }
+    }
+}
+
+impl std::fmt::Display for Units {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self {
+            Self::Metric => "metric (m, km/h)",
+            Self::UsCustomary => "US customary (ft, mph)",
+        })
+    }
+}
