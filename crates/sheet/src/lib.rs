@@ -1,1 +1,8 @@
-//! placeholder
+//! Gradewright exchange formats: PVI tables and station tables as CSV.
+//! Depends on the geometry crate only; every writer takes any `impl Write`.
+
+mod pvi_csv;
+mod table;
+
+pub use pvi_csv::{CsvError, read_pvi_csv, write_pvi_csv};
+pub use table::{TABLE_HEADER, TableError, interval_stations, write_station_table};

@@ -1,0 +1,178 @@
+//! The headless command line: `gradewright table|check …`.
+
+use std::io::Write as _;
+use std::path::PathBuf;
+use std::process::ExitCode;
+
+use anyhow::{Context as _, anyhow, bail};
+use clap::{Parser, Subcommand, ValueEnum};
+use gradewright_geometry::{Alignment, Project, Units, check_profile, parse_station};
+
+use crate::input::load_input;
+use crate::report;
+
+/// Gradewright: design the vertical profile of a road.
+#[derive(Debug, Parser)]
+#[command(name = "gradewright", version, about, long_about = None)]
+pub struct Cli {
+    /// What to do; with none, opens the editor.
+    #[command(subcommand)]
+    pub command: Option<Command>,
+}
+
+/// Unit system on the command line.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub enum UnitsArg {
+    /// Metres and km/h.
+    Metric,
+    /// US customary: feet and mph.
+    Us,
+}
+
+impl From<UnitsArg> for Units {
+    fn from(u: UnitsArg) -> Self {
+        match u {
+            UnitsArg::Metric => Units::Metric,
+            UnitsArg::Us => Units::UsCustomary,
+        }
+    }
+}
+
+/// Output format of `check`.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum, Default)]
+pub enum Format {
+    /// Human-readable text.
+    #[default]
+    Text,
+    /// One JSON object.
+    Json,
+}
+
+/// The subcommands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Elevation and grade at stations, as CSV
+    Table {
+        /// Project file (.ron) or PVI table (.csv)
+        input: PathBuf,
+        /// Units of a CSV input
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+        /// Station interval (default 20 m or 50 ft)
+        #[arg(long)]
+        interval: Option<f64>,
+        /// A station to report (repeatable; notation like 1+250 or a number)
+        #[arg(long = "at", value_name = "STATION", allow_hyphen_values = true)]
+        at: Vec<String>,
+        /// Round numbers to N decimals (default: shortest exact form)
+        #[arg(long, value_name = "N")]
+        decimals: Option<usize>,
+    },
+    /// Check curves and grades against the design criteria
+    Check {
+        /// Project file (.ron) or PVI table (.csv)
+        input: PathBuf,
+        /// Units of a CSV input
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+        /// Design speed (km/h or mph); overrides the project's
+        #[arg(long)]
+        design_speed: Option<f64>,
+        /// Output format
+        #[arg(long, value_enum, default_value_t)]
+        format: Format,
+    },
+}
+
+/// Runs the command line and maps the outcome to an exit status: 0 when no
+/// finding fails, 1 when one does, 2 on bad input or usage.
+pub fn main() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        Err(e) => {
+            let _ = e.print();
+            return if e.use_stderr() { ExitCode::from(2) } else { ExitCode::SUCCESS };
+        }
+    };
+    match run(cli) {
+        Ok(code) => code,
+        Err(e) => {
+            eprintln!("gradewright: {}", one_line(&e));
+            ExitCode::from(2)
+        }
+    }
+}
+
+fn one_line(e: &anyhow::Error) -> String {
+    e.chain().map(ToString::to_string).collect::<Vec<_>>().join(": ").replace('\n', " ")
+}
+
+/// Runs a parsed command line.
+///
+/// # Errors
+/// Bad input, with a message naming file, line and field.
+pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
+    match cli.command {
+        None => {
+            use clap::CommandFactory as _;
+            Cli::command().print_help()?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Some(Command::Table { input, units, interval, at, decimals }) => {
+            let project = load_input(&input, units.map(Into::into))?;
+            let alignment = build(&project, &input)?;
+            let stations = if at.is_empty() {
+                let interval = interval.unwrap_or(match project.units {
+                    Units::Metric => 20.0,
+                    Units::UsCustomary => 50.0,
+                });
+                if !interval.is_finite() || interval <= 0.0 {
+                    bail!("--interval: {interval} is not a positive length");
+                }
+                let span = alignment.end() - alignment.start();
+                if span / interval > 1.0e7 {
+                    bail!("--interval: {interval} would give more than 10 million rows");
+                }
+                gradewright_sheet::interval_stations(&alignment, interval)
+            } else {
+                at.iter()
+                    .map(|text| {
+                        parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}"))
+                    })
+                    .collect::<anyhow::Result<Vec<_>>>()?
+            };
+            let mut buffer = Vec::new();
+            gradewright_sheet::write_station_table(&mut buffer, &alignment, &stations, decimals)
+                .map_err(|e| anyhow!("--at: {e}"))?;
+            std::io::stdout().lock().write_all(&buffer).context("writing the table")?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Some(Command::Check { input, units, design_speed, format }) => {
+            let mut project = load_input(&input, units.map(Into::into))?;
+            if let Some(v) = design_speed {
+                project.criteria.design_speed = Some(v);
+            }
+            let criteria = project.criteria.resolve(project.units).map_err(|e| match e {
+                gradewright_geometry::CriteriaError::NoDesignSpeed => anyhow!(
+                    "{}: no design speed: give --design-speed or set criteria.design_speed in the project",
+                    input.display()
+                ),
+                other => anyhow!("{}: criteria: {other}", input.display()),
+            })?;
+            let checks = check_profile(&project.profile(), &criteria);
+            let text = match format {
+                Format::Text => report::text(&project, &criteria, &checks),
+                Format::Json => report::json(&project, &criteria, &checks)?,
+            };
+            std::io::stdout().lock().write_all(text.as_bytes())?;
+            Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
+        }
+    }
+}
+
+fn build(project: &Project, input: &std::path::Path) -> anyhow::Result<Alignment> {
+    Alignment::new(&project.profile()).map_err(|problems| {
+        let list = problems.iter().map(ToString::to_string).collect::<Vec<_>>().join("; ");
+        anyhow!("{}: pvis: {list}", input.display())
+    })
+}

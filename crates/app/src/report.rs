@@ -1,0 +1,162 @@
+//! Printing check results as text or JSON.
+
+use std::fmt::Write as _;
+
+use gradewright_geometry::{CheckReport, CriterionId, Project, ResolvedCriteria};
+use serde::Serialize;
+
+#[derive(Serialize)]
+struct JsonReport<'a> {
+    units: &'static str,
+    design_speed: f64,
+    ssd_required: f64,
+    curves: Vec<JsonCurve>,
+    findings: Vec<JsonFinding<'a>>,
+}
+
+#[derive(Serialize)]
+struct JsonCurve {
+    pvi_station: f64,
+    pvi_elevation: f64,
+    kind: &'static str,
+    g1: f64,
+    g2: f64,
+    a: f64,
+    length: f64,
+    k: Option<f64>,
+    k_required: Option<f64>,
+    length_required: f64,
+    pvc_station: f64,
+    pvc_elevation: f64,
+    pvt_station: f64,
+    pvt_elevation: f64,
+    turning_station: Option<f64>,
+    turning_elevation: Option<f64>,
+    ok: bool,
+}
+
+#[derive(Serialize)]
+struct JsonFinding<'a> {
+    severity: &'static str,
+    code: &'static str,
+    station_start: f64,
+    station_end: f64,
+    message: &'a str,
+}
+
+/// The check report as one JSON object (see the README for its fields).
+pub fn json(
+    project: &Project,
+    criteria: &ResolvedCriteria,
+    checks: &CheckReport,
+) -> anyhow::Result<String> {
+    let report = JsonReport {
+        units: project.units.key(),
+        design_speed: criteria.design_speed,
+        ssd_required: criteria.get(CriterionId::StoppingSightDistance),
+        curves: checks
+            .curves
+            .iter()
+            .map(|c| {
+                let g = &c.curve;
+                JsonCurve {
+                    pvi_station: g.pvi.0,
+                    pvi_elevation: g.pvi_elevation,
+                    kind: g.kind.key(),
+                    g1: g.grade_in_percent,
+                    g2: g.grade_out_percent,
+                    a: g.a_percent(),
+                    length: g.length(),
+                    k: g.k(),
+                    k_required: c.k_required,
+                    length_required: c.length_required,
+                    pvc_station: g.pvc.0,
+                    pvc_elevation: g.pvc_elevation,
+                    pvt_station: g.pvt.0,
+                    pvt_elevation: g.pvt_elevation,
+                    turning_station: g.turning.map(|t| t.0.0),
+                    turning_elevation: g.turning.map(|t| t.1),
+                    ok: c.ok,
+                }
+            })
+            .collect(),
+        findings: checks
+            .findings
+            .iter()
+            .map(|f| JsonFinding {
+                severity: f.severity.key(),
+                code: f.code,
+                station_start: f.station_start.0,
+                station_end: f.station_end.0,
+                message: &f.message,
+            })
+            .collect(),
+    };
+    let mut text = serde_json::to_string_pretty(&report)?;
+    text.push('\n');
+    Ok(text)
+}
+
+/// The check report as text for a terminal.
+pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport) -> String {
+    let units = project.units;
+    let len = units.length_symbol();
+    let mut out = String::new();
+    let _ = writeln!(
+        out,
+        "{}: {} PVIs, {units}, design speed {} {}",
+        if project.name.is_empty() { "profile" } else { &project.name },
+        project.pvis.len(),
+        criteria.design_speed,
+        units.speed_symbol()
+    );
+    for id in CriterionId::ALL {
+        if let Some(entry) = criteria.entry(id) {
+            let _ = writeln!(
+                out,
+                "  {:<26} {:>9.2} {:<5} {}",
+                id.label(),
+                entry.value,
+                id.quantity().symbol(units),
+                entry.rule
+            );
+        }
+    }
+    let _ = writeln!(out, "\nCurves:");
+    let _ = writeln!(
+        out,
+        "  {:>4} {:>12} {:<5} {:>8} {:>8} {:>7} {:>9} {:>8} {:>8} {:>9}  status",
+        "PVI", "station", "kind", "g1 %", "g2 %", "A %", "L", "K", "K min", "L req"
+    );
+    for c in &checks.curves {
+        let g = &c.curve;
+        let opt = |v: Option<f64>| v.map_or("-".to_owned(), |v| format!("{v:.1}"));
+        let _ = writeln!(
+            out,
+            "  {:>4} {:>12} {:<5} {:>+8.3} {:>+8.3} {:>7.3} {:>9.2} {:>8} {:>8} {:>9.2}  {}",
+            g.index + 1,
+            g.pvi.label(units, units.station_decimals()),
+            g.kind.key(),
+            g.grade_in_percent,
+            g.grade_out_percent,
+            g.a_percent(),
+            g.length(),
+            opt(g.k()),
+            opt(c.k_required),
+            c.length_required,
+            if c.ok { "ok" } else { "FAIL" }
+        );
+    }
+    let _ = writeln!(out, "\nFindings ({}):", checks.findings.len());
+    if checks.findings.is_empty() {
+        let _ = writeln!(out, "  none");
+    }
+    for f in &checks.findings {
+        let _ = writeln!(out, "  [{}] {}: {}", f.severity.key().to_uppercase(), f.code, f.message);
+    }
+    let _ = writeln!(
+        out,
+        "\nLengths in {len}. Results need checking by a licensed engineer; local codes and agency standards govern."
+    );
+    out
+}

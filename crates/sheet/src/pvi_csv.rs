@@ -1,0 +1,137 @@
+//! The PVI table as CSV: `station,elevation` plus either `curve_length`
+//! (symmetric; 0 or empty = no curve) or `length_in,length_out`.
+
+use std::io::{Read, Write};
+use std::path::{Path, PathBuf};
+
+use gradewright_geometry::{Pvi, Station, Units, VerticalCurve, format_station, parse_station};
+
+/// A problem in a PVI CSV file, naming file, line and field.
+#[derive(Clone, Debug, PartialEq, thiserror::Error)]
+#[error("{}:{line}: {field}: {message}", .path.display())]
+pub struct CsvError {
+    /// The file.
+    pub path: PathBuf,
+    /// 1-based line.
+    pub line: u64,
+    /// Column name (or `header`, `record`).
+    pub field: String,
+    /// What was wrong.
+    pub message: String,
+}
+
+enum Layout {
+    Symmetric { length: usize },
+    Unequal { length_in: usize, length_out: usize },
+}
+
+/// Reads a PVI table. Stations may be plain numbers or station notation in
+/// `units`. Every row must have every column; unknown columns are an error.
+///
+/// # Errors
+/// The first [`CsvError`] met, naming file, line and column.
+pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Vec<Pvi>, CsvError> {
+    let err = |line: u64, field: &str, message: String| CsvError {
+        path: origin.to_owned(),
+        line,
+        field: field.to_owned(),
+        message,
+    };
+    let mut csv = csv::ReaderBuilder::new().trim(csv::Trim::All).comment(Some(b'#')).from_reader(reader);
+    let headers = csv
+        .headers()
+        .map_err(|e| err(1, "header", e.to_string()))?
+        .iter()
+        .map(str::to_ascii_lowercase)
+        .collect::<Vec<_>>();
+    let find = |name: &str| headers.iter().position(|h| h == name);
+    for h in &headers {
+        if !["station", "elevation", "curve_length", "length_in", "length_out"].contains(&h.as_str()) {
+            return Err(err(
+                1,
+                "header",
+                format!("unknown column '{h}' (expected station, elevation and curve_length, or length_in and length_out)"),
+            ));
+        }
+    }
+    let (Some(station), Some(elevation)) = (find("station"), find("elevation")) else {
+        return Err(err(1, "header", "the header needs columns 'station' and 'elevation'".to_owned()));
+    };
+    let layout = match (find("curve_length"), find("length_in"), find("length_out")) {
+        (Some(length), None, None) => Layout::Symmetric { length },
+        (None, Some(length_in), Some(length_out)) => Layout::Unequal { length_in, length_out },
+        (None, None, None) => {
+            return Err(err(1, "header", "the header needs 'curve_length' or both 'length_in' and 'length_out'".to_owned()));
+        }
+        _ => {
+            return Err(err(1, "header", "use either 'curve_length' or 'length_in' and 'length_out', not a mix".to_owned()));
+        }
+    };
+    let mut pvis = Vec::new();
+    for record in csv.records() {
+        let record = record.map_err(|e| {
+            let line = e.position().map_or(0, csv::Position::line);
+            err(line, "record", e.to_string())
+        })?;
+        let line = record.position().map_or(0, csv::Position::line);
+        let cell = |i: usize| record.get(i).unwrap_or("");
+        let name = |i: usize| headers.get(i).map_or("?", String::as_str).to_owned();
+        let number = |i: usize, empty_is_zero: bool| -> Result<f64, CsvError> {
+            let text = cell(i);
+            if text.is_empty() && empty_is_zero {
+                return Ok(0.0);
+            }
+            let value: f64 = text
+                .parse()
+                .map_err(|_| err(line, &name(i), format!("'{text}' is not a number")))?;
+            if !value.is_finite() {
+                return Err(err(line, &name(i), format!("'{text}' is not a finite number")));
+            }
+            if empty_is_zero && value < 0.0 {
+                return Err(err(line, &name(i), format!("length {value} is negative")));
+            }
+            Ok(value)
+        };
+        let sta = parse_station(cell(station), units).map_err(|e| err(line, "station", e.to_string()))?;
+        let elev = number(elevation, false)?;
+        let curve = match layout {
+            Layout::Symmetric { length } => {
+                let l = number(length, true)?;
+                VerticalCurve::from_lengths(l / 2.0, l / 2.0)
+            }
+            Layout::Unequal { length_in, length_out } => {
+                VerticalCurve::from_lengths(number(length_in, true)?, number(length_out, true)?)
+            }
+        };
+        pvis.push(Pvi { station: Station(sta), elevation: elev, curve });
+    }
+    Ok(pvis)
+}
+
+/// Writes a PVI table. Uses `curve_length` when every curve is symmetric,
+/// otherwise `length_in,length_out`. Stations are written in station notation.
+///
+/// # Errors
+/// Any I/O error of `out`.
+pub fn write_pvi_csv(out: impl Write, pvis: &[Pvi], units: Units) -> std::io::Result<()> {
+    let symmetric = pvis.iter().all(|p| !matches!(p.curve, VerticalCurve::Unequal { .. }));
+    let mut csv = csv::Writer::from_writer(out);
+    let map = |e: csv::Error| std::io::Error::other(e.to_string());
+    if symmetric {
+        csv.write_record(["station", "elevation", "curve_length"]).map_err(map)?;
+    } else {
+        csv.write_record(["station", "elevation", "length_in", "length_out"]).map_err(map)?;
+    }
+    for p in pvis {
+        let station = format_station(p.station.0, units, 6);
+        let mut row = vec![station, format!("{}", p.elevation)];
+        if symmetric {
+            row.push(format!("{}", p.curve.length()));
+        } else {
+            row.push(format!("{}", p.curve.length_in()));
+            row.push(format!("{}", p.curve.length_out()));
+        }
+        csv.write_record(&row).map_err(map)?;
+    }
+    csv.flush()
+}

@@ -1,0 +1,99 @@
+//! Station tables: elevation and grade at chosen stations, as CSV.
+
+use std::io::Write;
+
+use gradewright_geometry::{Alignment, Station, format_station};
+
+/// The header of a station table.
+pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "grade_percent"];
+
+/// Stations every `interval` from the first PVI (first + k·interval), plus both
+/// ends and every PVC, PVI and PVT, sorted, without duplicates.
+pub fn interval_stations(alignment: &Alignment, interval: f64) -> Vec<f64> {
+    let start = alignment.start().0;
+    let end = alignment.end().0;
+    let mut stations: Vec<f64> = alignment.key_stations().iter().map(|(s, _)| s.0).collect();
+    if interval.is_finite() && interval > 0.0 {
+        let steps = ((end - start) / interval).floor();
+        // Bounded by the caller's interval check; 10 million rows at the most.
+        let steps = steps.clamp(0.0, 1.0e7);
+        #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+        for k in 0..=(steps as u64) {
+            #[allow(clippy::cast_precision_loss)]
+            let s = start + k as f64 * interval;
+            if s <= end {
+                stations.push(s);
+            }
+        }
+    }
+    stations.push(start);
+    stations.push(end);
+    stations.sort_by(f64::total_cmp);
+    let scale = (end - start).abs().max(1.0) * 1e-12;
+    stations.dedup_by(|a, b| (*a - *b).abs() <= scale);
+    stations
+}
+
+fn number(value: f64, decimals: Option<usize>) -> String {
+    let value = if value == 0.0 { 0.0 } else { value }; // no "-0"
+    match decimals {
+        Some(d) => {
+            let text = format!("{value:.d$}");
+            // "-0.00" after rounding reads as zero.
+            if text.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+                text.trim_start_matches('-').to_owned()
+            } else {
+                text
+            }
+        }
+        None => format!("{value}"),
+    }
+}
+
+/// Writes one row per station, in the order given: the station as a plain
+/// number, its label in station notation, elevation, grade in percent.
+/// Numbers are written in the shortest form that reads back to the same f64,
+/// or with `decimals` decimals.
+///
+/// # Errors
+/// An out-of-range station (nothing more is written after it) or an I/O error.
+pub fn write_station_table(
+    out: impl Write,
+    alignment: &Alignment,
+    stations: &[f64],
+    decimals: Option<usize>,
+) -> Result<(), TableError> {
+    let units = alignment.units();
+    let mut csv = csv::Writer::from_writer(out);
+    csv.write_record(TABLE_HEADER)?;
+    let mut cursor = alignment.cursor();
+    for &s in stations {
+        let sample = cursor.sample(Station(s))?;
+        let label_decimals = decimals.unwrap_or(units.station_decimals());
+        csv.write_record([
+            number(s, decimals),
+            format_station(s, units, label_decimals),
+            number(sample.elevation, decimals),
+            number(sample.grade_percent, decimals),
+        ])?;
+    }
+    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    Ok(())
+}
+
+/// Why a table could not be written.
+#[derive(Debug, thiserror::Error)]
+pub enum TableError {
+    /// A station outside the profile.
+    #[error(transparent)]
+    OutOfRange(#[from] gradewright_geometry::OutOfRange),
+    /// Writing failed.
+    #[error("{0}")]
+    Io(String),
+}
+
+impl From<csv::Error> for TableError {
+    fn from(e: csv::Error) -> Self {
+        Self::Io(e.to_string())
+    }
+}

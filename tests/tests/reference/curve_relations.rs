@@ -1,0 +1,152 @@
+//! Parabola relations (REFERENCES §1) and the worked curve example.
+
+use gradewright_acceptance::{alignment, assert_close};
+use gradewright_geometry::{
+    Alignment, CurveKind, Profile, Pvi, Station, Units, VerticalCurve, format_station,
+};
+
+/// J. Mahun, open-access vertical-curve solutions 1, Problem 2: PVI 56+50.00 at
+/// 1325.00 ft, grades +5.0 % / −3.5 %, L = 500 ft. Printed stations, elevations
+/// and grades.
+#[test]
+fn mahun_problem_2_station_elevations_and_grades() {
+    let a = alignment(
+        Units::UsCustomary,
+        &[(5000.0, 1292.5, 0.0), (5650.0, 1325.0, 500.0), (6300.0, 1302.25, 0.0)],
+    );
+    let curve = a.curves()[0];
+    // Mahun Prob. 2: BVC 54+00 at 1312.500, EVC 59+00 at 1316.250.
+    assert_eq!(format_station(curve.pvc.0, Units::UsCustomary, 2), "54+00.00");
+    assert_close(curve.pvc_elevation, 1312.5, 1e-9, "BVC elevation (Mahun Prob. 2)");
+    assert_eq!(format_station(curve.pvt.0, Units::UsCustomary, 2), "59+00.00");
+    assert_close(curve.pvt_elevation, 1316.25, 1e-9, "EVC elevation (Mahun Prob. 2)");
+    // Mahun Prob. 2 table: station, elevation (3 decimals), grade (1 decimal).
+    for (station, elevation, grade) in [
+        (5500.0, 1316.650, 3.3),
+        (5600.0, 1319.100, 1.6),
+        (5700.0, 1319.850, -0.1),
+        (5800.0, 1318.900, -1.8),
+    ] {
+        let s = a.sample(Station(station)).unwrap_or_else(|e| panic!("{e}"));
+        assert_close(s.elevation, elevation, 5e-4, "elevation (Mahun Prob. 2)");
+        assert_close(s.grade_percent, grade, 0.05, "grade (Mahun Prob. 2)");
+    }
+    // High point, derived from the formula in Mahun: x = g1·L/(g1 − g2) = 294.12 ft
+    // → 56+94.12 at 1319.853.
+    let (station, elevation) = curve.turning.unwrap_or_else(|| panic!("no high point"));
+    assert_close(station.0, 5694.12, 0.005, "high point station (derived from Mahun)");
+    assert_close(elevation, 1319.853, 5e-4, "high point elevation (derived from Mahun)");
+    assert_eq!(curve.kind, CurveKind::Crest);
+}
+
+/// Elevation y = y_PVC + g1·x/100 + (g2 − g1)·x²/(200L) and grade
+/// g = g1 + (g2 − g1)·x/L at every metre (REFERENCES §1, Mahun; grade derived).
+#[test]
+fn closed_form_elevation_and_grade_metric() {
+    let (g1, g2, l) = (-2.2, 3.4, 180.0);
+    let a = alignment(Units::Metric, &[(0.0, 105.5, 0.0), (400.0, 96.7, l), (900.0, 113.7, 0.0)]);
+    let c = a.curves()[0];
+    assert_close(c.grade_in_percent, g1, 1e-12, "g1");
+    assert_close(c.grade_out_percent, g2, 1e-12, "g2");
+    // PVC/PVT (Mahun): elev_PVC = elev_PVI − g1·L/200, elev_PVT = elev_PVI + g2·L/200.
+    assert_close(c.pvc_elevation, 96.7 - g1 * l / 200.0, 1e-9, "PVC elevation");
+    assert_close(c.pvt_elevation, 96.7 + g2 * l / 200.0, 1e-9, "PVT elevation");
+    for step in 0..=180 {
+        let x = f64::from(step);
+        let s = a.sample(c.pvc + x).unwrap_or_else(|e| panic!("{e}"));
+        let y = c.pvc_elevation + g1 * x / 100.0 + (g2 - g1) * x * x / (200.0 * l);
+        assert_close(s.elevation, y, 1e-9, "elevation (Mahun)");
+        assert_close(s.grade_percent, g1 + (g2 - g1) * x / l, 1e-9, "grade (derived)");
+    }
+    // r = (g2 − g1)/L, K = L/A, E = A·L/800, offset Y = A·x²/(200L) (REFERENCES §1).
+    let (r1, r2) = c.rates_percent();
+    assert_close(r1, (g2 - g1) / l, 1e-12, "r");
+    assert_close(r2, (g2 - g1) / l, 1e-12, "r");
+    assert_close(c.k().unwrap_or(f64::NAN), l / 5.6, 1e-9, "K = L/A (MoDOT slides)");
+    assert_close(c.external(), 5.6 * l / 800.0, 1e-9, "E = A·L/800 (derived)");
+    let x = 50.0;
+    let tangent = c.pvc_elevation + g1 * x / 100.0;
+    let s = a.sample(c.pvc + x).unwrap_or_else(|e| panic!("{e}"));
+    assert_close(s.elevation - tangent, 5.6 * x * x / (200.0 * l), 1e-9, "offset (Mannering Ex 3.3 form)");
+    // Sag low point at x = g1·L/(g1 − g2) (derived).
+    let (low, _) = c.turning.unwrap_or_else(|| panic!("no low point"));
+    assert_close(low - c.pvc, g1 * l / (g1 - g2), 1e-9, "low point");
+}
+
+/// Unequal-tangent curve (REFERENCES §1, derived): offset at the PVI
+/// e = l1·l2·(g2 − g1)/(2L), grade at the CVC g_c = (l1·g1 + l2·g2)/L, branch
+/// elevations tangent + e·(x/l1)² and y_PVT − g2·x' + e·(x'/l2)². The curve is
+/// the second of the LandXML example in REFERENCES §7: PVI 63+00 at 1302.25 ft,
+/// lengthIn 200, lengthOut 300, grades −3.5 % / +2.0 %.
+#[test]
+fn unequal_tangent_branches() {
+    let pvis = vec![
+        Pvi::new(5650.0, 1325.0),
+        Pvi {
+            station: Station(6300.0),
+            elevation: 1302.25,
+            curve: VerticalCurve::Unequal { length_in: 200.0, length_out: 300.0 },
+        },
+        Pvi::new(6900.0, 1314.25),
+    ];
+    let a = Alignment::new(&Profile::new(Units::UsCustomary, pvis)).unwrap_or_else(|e| panic!("{e:?}"));
+    let c = a.curves()[0];
+    let (g1, g2, l1, l2) = (-0.035, 0.02, 200.0, 300.0);
+    let l = l1 + l2;
+    let e = l1 * l2 * (g2 - g1) / (2.0 * l);
+    assert_close(c.offset_at_pvi, e, 1e-9, "e at PVI (derived)");
+    let cvc = a.sample(Station(6300.0)).unwrap_or_else(|e| panic!("{e}"));
+    assert_close(cvc.elevation, 1302.25 + e, 1e-9, "CVC elevation");
+    assert_close(cvc.grade_percent, (l1 * g1 + l2 * g2) / l * 100.0, 1e-9, "g_c (derived)");
+    let y_pvc = 1302.25 - g1 * l1;
+    let y_pvt = 1302.25 + g2 * l2;
+    for step in 0..=20 {
+        let x = 10.0 * f64::from(step);
+        let s = a.sample(Station(6100.0 + x)).unwrap_or_else(|e| panic!("{e}"));
+        assert_close(s.elevation, y_pvc + g1 * x + e * (x / l1).powi(2), 1e-9, "branch 1");
+    }
+    for step in 0..=30 {
+        let xp = 10.0 * f64::from(step);
+        let s = a.sample(Station(6600.0 - xp)).unwrap_or_else(|e| panic!("{e}"));
+        assert_close(s.elevation, y_pvt - g2 * xp + e * (xp / l2).powi(2), 1e-9, "branch 2");
+    }
+    // Low point: on branch 2 at x = l1 − g_c/r2 from the PVC (derived).
+    let gc = (l1 * g1 + l2 * g2) / l;
+    let r2 = l1 * (g2 - g1) / (l2 * l);
+    let (low, _) = c.turning.unwrap_or_else(|| panic!("no low point"));
+    assert_close(low.0 - 6100.0, l1 - gc / r2, 1e-9, "turning point on branch 2");
+}
+
+/// Stations outside the profile are an error, never an extrapolation.
+#[test]
+fn outside_the_profile_is_an_error() {
+    let a = alignment(Units::Metric, &[(100.0, 50.0, 0.0), (300.0, 52.0, 0.0)]);
+    assert!(a.sample(Station(99.999)).is_err());
+    assert!(a.sample(Station(300.001)).is_err());
+    assert!(a.sample(Station(f64::NAN)).is_err());
+    assert!(a.sample(Station(300.0)).is_ok());
+}
+
+/// Validation reports every problem at once (common practice).
+#[test]
+fn validation_lists_every_problem() {
+    let pvis = vec![
+        Pvi::with_curve(0.0, 10.0, 40.0),     // curve at the first PVI
+        Pvi::with_curve(100.0, 12.0, 120.0),  // overlaps the next
+        Pvi::with_curve(200.0, 11.0, 100.0),
+        Pvi::new(150.0, f64::NAN),            // out of order and not finite
+    ];
+    let problems = Profile::new(Units::Metric, pvis).problems();
+    let codes: Vec<_> = problems.iter().map(|p| p.code()).collect();
+    assert!(codes.contains(&"profile.curve-at-end"), "{codes:?}");
+    assert!(codes.contains(&"profile.not-finite"), "{codes:?}");
+    assert_eq!(Profile::new(Units::Metric, vec![Pvi::new(0.0, 1.0)]).problems().len(), 1);
+    let overlapping = vec![
+        Pvi::new(0.0, 10.0),
+        Pvi::with_curve(100.0, 12.0, 120.0),
+        Pvi::with_curve(200.0, 11.0, 100.0),
+        Pvi::new(300.0, 12.0),
+    ];
+    let problems = Profile::new(Units::Metric, overlapping).problems();
+    assert!(problems.iter().any(|p| p.code() == "curve.overlap"), "{problems:?}");
+}

@@ -1,0 +1,171 @@
+//! Required curve lengths (REFERENCES §3, §4) and the worked examples of §6.
+
+use gradewright_acceptance::{alignment, assert_close};
+use gradewright_geometry::{
+    Criteria, Profile, Pvi, Setting, Severity, Units, check_profile,
+    sight::{self, SightCase},
+};
+
+/// Slides "Example #6/#7 Designing a Crest Vertical Curve" (MoDOT): 40 mph,
+/// SSD 305 ft, +1.25 % / −2.75 %: A = 4.0; S < L trial 172.43 ft is rejected
+/// and S > L gives 70.5 ft.
+#[test]
+fn crest_example_s_longer_than_l() {
+    let c = sight::crest_constant(Units::UsCustomary, 3.5, 2.0);
+    assert_close(4.0 * 305.0 * 305.0 / c, 172.43, 0.005, "S < L trial (MoDOT Ex #6)");
+    let r = sight::crest_length(4.0, 305.0, c);
+    assert_eq!(r.case, SightCase::LongerThanCurve);
+    assert_close(r.length, 70.5, 1e-9, "S > L length (MoDOT Ex #7)");
+}
+
+/// Slides "Example #8 Designing a Sag Vertical Curve": 40 mph, SSD 305 ft,
+/// −3.2 % / +2.4 %: A = 5.6; headlight S < L 354.98 ft (S > L trial 347.95
+/// rejected); comfort 192.69 ft.
+#[test]
+fn sag_example_headlight_and_comfort() {
+    let terms = sight::headlight_terms(Units::UsCustomary, 2.0, 1.0);
+    let r = sight::sag_headlight_length(5.6, 305.0, terms);
+    assert_eq!(r.case, SightCase::ShorterThanCurve);
+    assert_close(r.length, 354.98, 0.005, "headlight length (Example #8)");
+    assert_close(2.0 * 305.0 - (400.0 + 3.5 * 305.0) / 5.6, 347.95, 0.005, "rejected trial");
+    let comfort = sight::sag_comfort_length(Units::UsCustomary, 5.6, 40.0, 1.0);
+    assert_close(comfort, 192.69, 0.005, "comfort length (Example #8)");
+}
+
+/// M. Rogers, *Highway Engineering*, Ex 6.8: 85 km/h, +4 % / −2.5 %, eye
+/// 1.05 m, object 0.26 m, SSD 160 m → L = 353 m (S ≤ L); with h2 = 0, 792 m.
+#[test]
+fn rogers_crest_with_uk_heights() {
+    let c = sight::crest_constant(Units::Metric, 1.05, 0.26);
+    let r = sight::crest_length(6.5, 160.0, c);
+    assert_eq!(r.case, SightCase::ShorterThanCurve);
+    assert_close(r.length, 353.29, 0.01, "Rogers Ex 6.8");
+    let c0 = sight::crest_constant(Units::Metric, 1.05, 0.0);
+    assert_close(sight::crest_length(6.5, 160.0, c0).length, 792.4, 0.1, "Rogers Ex 6.8, h2 = 0");
+}
+
+/// Rogers Ex 6.6: 100 km/h, A = 7 %, K 100 (desirable) and 55 (absolute) →
+/// 700 m and 385 m, via a K override in the criteria.
+#[test]
+fn rogers_k_override_lengths() {
+    for (k, expected) in [(100.0, 700.0), (55.0, 385.0)] {
+        let criteria = Criteria {
+            design_speed: Some(100.0),
+            crest_k: Setting::Override(k),
+            ..Criteria::default()
+        };
+        let resolved = criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+        let profile = Profile::new(
+            Units::Metric,
+            vec![Pvi::new(0.0, 100.0), Pvi::with_curve(1000.0, 130.0, 300.0), Pvi::new(2000.0, 90.0)],
+        );
+        let report = check_profile(&profile, &resolved);
+        let curve = &report.curves[0];
+        assert_close(curve.k_required.unwrap_or(0.0) * curve.curve.a_percent(), expected, 1e-9, "L = K·A (Rogers Ex 6.6)");
+        assert!(report.findings.iter().any(|f| f.code == "crest.k-min"), "{report:?}");
+    }
+}
+
+/// General crest constant C = 100(√(2h1) + √(2h2))² (U. Idaho NIATT): 2158.3
+/// at 3.5/2.0 ft, 657.99 at 1.08/0.60 m; passing h1 = h2 = 3.5 ft gives 2800
+/// and 1.08 m gives 864 (REFERENCES §3, constants derived).
+#[test]
+fn crest_constants() {
+    assert_close(sight::crest_constant(Units::UsCustomary, 3.5, 2.0001), 2158.3, 0.1, "US");
+    assert_close(sight::crest_constant(Units::Metric, 1.0800001, 0.6), 657.99, 0.01, "metric");
+    assert_close(sight::crest_constant(Units::UsCustomary, 3.5, 3.5), 2800.0, 1e-9, "passing US");
+    assert_close(sight::crest_constant(Units::Metric, 1.08, 1.08), 864.0, 1e-9, "passing metric");
+    // Published rounded constants at the defaults (MoDOT slides: 2158; 658).
+    assert_close(sight::crest_constant(Units::UsCustomary, 3.5, 2.0), 2158.0, 0.0, "published US");
+    assert_close(sight::crest_constant(Units::Metric, 1.08, 0.6), 658.0, 0.0, "published metric");
+}
+
+/// Headlight basis L = A·S²/(200(H + S·tan β)): 200·tan 1° = 3.49 (Pearson /
+/// easycalculation form; derived), published rounded to 3.5.
+#[test]
+fn headlight_terms_general() {
+    let (base, slope) = sight::headlight_terms(Units::Metric, 0.75, 1.0);
+    assert_close(base, 150.0, 1e-9, "200·H");
+    assert_close(slope, 3.49, 0.005, "200·tan 1°");
+    assert_eq!(sight::headlight_terms(Units::Metric, 0.6, 1.0), (120.0, 3.5));
+}
+
+/// Undercrossing sag (Mannering answer via csr.engine.ac.nz, US S > L form;
+/// general h1 = 8 ft, h2 = 2 ft from memory): L = A·S²/(800(C − 5)) when S < L,
+/// else 2S − 800(C − 5)/A; metric C − 1.5 with 2.4 m / 0.6 m.
+#[test]
+fn undercrossing_lengths() {
+    let (a, s, c) = (10.0, 1000.0, 16.5);
+    let r = sight::sag_undercrossing_length(a, s, c, 8.0, 2.0);
+    assert_eq!(r.case, SightCase::ShorterThanCurve);
+    assert_close(r.length, a * s * s / (800.0 * (c - 5.0)), 1e-9, "S < L");
+    let r = sight::sag_undercrossing_length(3.0, 2000.0, 16.5, 8.0, 2.0);
+    assert_eq!(r.case, SightCase::LongerThanCurve);
+    assert_close(r.length, 4000.0 - 800.0 * 11.5 / 3.0, 1e-9, "S > L");
+    let r = sight::sag_undercrossing_length(8.0, 400.0, 5.0, 2.4, 0.6);
+    assert_eq!(r.case, SightCase::ShorterThanCurve);
+    assert_close(r.length, 8.0 * 400.0 * 400.0 / (800.0 * 3.5), 1e-9, "metric S < L");
+}
+
+/// Metric comfort L = A·V²/395 (395 = 1296 × 0.3048, derived) and appearance
+/// minimum L ≥ 0.6V m / 3V ft (from memory).
+#[test]
+fn comfort_and_appearance_rules() {
+    assert_close(sight::sag_comfort_length(Units::Metric, 4.0, 80.0, 0.3048), 4.0 * 6400.0 / 395.0, 1e-9, "395");
+    let general = sight::sag_comfort_length(Units::Metric, 4.0, 80.0, 0.3);
+    assert_close(general, 4.0 * 6400.0 / (1296.0 * 0.3), 1e-9, "general");
+    assert_close(sight::appearance_min_length(Units::UsCustomary, 50.0), 150.0, 0.0, "3V");
+    assert_close(sight::appearance_min_length(Units::Metric, 80.0), 48.0, 1e-12, "0.6V");
+}
+
+/// The checks on a whole profile: a short crest fails both its K and its exact
+/// SSD length; a sag passes; a flat sag with a low point gets the drainage
+/// warning (K > 51 m/%, state-manual copy); a steep grade fails the maximum.
+#[test]
+fn profile_checks_flag_what_fails() {
+    let a = alignment(
+        Units::Metric,
+        &[(0.0, 100.0, 0.0), (300.0, 109.0, 90.0), (600.0, 103.0, 400.0), (1000.0, 107.0, 0.0)],
+    );
+    let criteria = Criteria { design_speed: Some(80.0), ..Criteria::default() };
+    let resolved = criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+    let profile = Profile::new(Units::Metric, a.pvis().to_vec());
+    let report = check_profile(&profile, &resolved);
+    let codes: Vec<_> = report.findings.iter().map(|f| (f.code, f.severity, f.pvi)).collect();
+    // Crest +3 % → −2 %, A = 5, L 90: K 18 < 26 (AASHTO metric table, 80 km/h).
+    assert!(codes.contains(&("crest.k-min", Severity::Fail, Some(1))), "{codes:?}");
+    // Exact: S = 130 m > L → L = 2·130 − 658/5 = 128.4 m > 90.
+    assert!(codes.contains(&("crest.ssd-length", Severity::Fail, Some(1))), "{codes:?}");
+    assert_close(report.curves[0].sight_length, 128.4, 1e-9, "2S − 658/A");
+    assert!(!report.curves[0].ok);
+    // Sag −2 % → +1 %, A = 3, L 400 → K 133 > 51 with a low point: drainage warning.
+    assert!(codes.contains(&("drainage.flat-curve", Severity::Warn, Some(2))), "{codes:?}");
+    assert!(report.curves[1].ok);
+    assert_close(report.curves[1].length_required, 90.0, 1e-9, "sag K 30 · A 3");
+    let steep = Profile::new(Units::Metric, vec![Pvi::new(0.0, 100.0), Pvi::new(100.0, 108.0)]);
+    let report = check_profile(&steep, &resolved);
+    assert!(report.findings.iter().any(|f| f.code == "grade.max" && f.severity == Severity::Fail));
+    let flat = Profile::new(Units::Metric, vec![Pvi::new(0.0, 100.0), Pvi::new(100.0, 100.1)]);
+    let report = check_profile(&flat, &resolved);
+    assert!(report.findings.iter().any(|f| f.code == "grade.min" && f.severity == Severity::Warn));
+    assert!(!report.has_failures());
+}
+
+/// Overlapping curves are reported as failures by the checks, with both PVIs'
+/// curves still evaluated (common practice: show everything at once).
+#[test]
+fn overlap_is_a_failure_finding() {
+    let profile = Profile::new(
+        Units::Metric,
+        vec![
+            Pvi::new(0.0, 100.0),
+            Pvi::with_curve(200.0, 106.0, 200.0),
+            Pvi::with_curve(350.0, 103.0, 200.0),
+            Pvi::new(600.0, 108.0),
+        ],
+    );
+    let criteria = Criteria { design_speed: Some(60.0), ..Criteria::default() };
+    let report = check_profile(&profile, &criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}")));
+    assert!(report.findings.iter().any(|f| f.code == "curve.overlap" && f.severity == Severity::Fail));
+    assert_eq!(report.curves.len(), 2);
+}

@@ -1,0 +1,8 @@
+//! Checks of the main job against published references; each module is one
+//! topic, and each check names its source beside it.
+
+mod criteria_tables;
+mod curve_relations;
+mod files;
+mod lengths;
+mod properties;
