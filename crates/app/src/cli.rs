@@ -6,9 +6,9 @@ use std::process::ExitCode;
 
 use anyhow::{Context as _, anyhow, bail};
 use clap::{Parser, Subcommand, ValueEnum};
-use gradewright_geometry::{Alignment, Project, Units, check_profile, parse_station};
+use gradewright_geometry::{Alignment, Units, check_profile, parse_station};
 
-use crate::input::load_input;
+use crate::input::{Input, ProblemRef, load_input};
 use crate::report;
 
 /// Gradewright: design the vertical profile of a road.
@@ -119,8 +119,9 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Table { input, units, interval, at, decimals }) => {
-            let project = load_input(&input, units.map(Into::into))?;
-            let alignment = build(&project, &input)?;
+            let loaded = load_input(&input, units.map(Into::into))?;
+            let alignment = build(&loaded)?;
+            let project = &loaded.project;
             let stations = if at.is_empty() {
                 let interval = interval.unwrap_or(match project.units {
                     Units::Metric => 20.0,
@@ -136,9 +137,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 gradewright_sheet::interval_stations(&alignment, interval)
             } else {
                 at.iter()
-                    .map(|text| {
-                        parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}"))
-                    })
+                    .map(|text| parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}")))
                     .collect::<anyhow::Result<Vec<_>>>()?
             };
             let mut buffer = Vec::new();
@@ -148,7 +147,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Check { input, units, design_speed, format }) => {
-            let mut project = load_input(&input, units.map(Into::into))?;
+            let mut project = load_input(&input, units.map(Into::into))?.project;
             if let Some(v) = design_speed {
                 project.criteria.design_speed = Some(v);
             }
@@ -170,9 +169,15 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
     }
 }
 
-fn build(project: &Project, input: &std::path::Path) -> anyhow::Result<Alignment> {
-    Alignment::new(&project.profile()).map_err(|problems| {
-        let list = problems.iter().map(ToString::to_string).collect::<Vec<_>>().join("; ");
-        anyhow!("{}: pvis: {list}", input.display())
+/// Builds the alignment, or one line naming file, line and field of the first
+/// problem (and how many more there are).
+fn build(input: &Input) -> anyhow::Result<Alignment> {
+    Alignment::new(&input.project.profile()).map_err(|problems| {
+        let Some(first) = problems.first() else { return anyhow!("invalid profile") };
+        let more = match problems.len() {
+            1 => String::new(),
+            n => format!(" (and {} more problem(s); `gradewright check` lists them all)", n - 1),
+        };
+        anyhow!("{}: {first}{more}", input.locate(&ProblemRef(first)))
     })
 }

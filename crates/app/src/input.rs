@@ -1,10 +1,37 @@
 //! Reading what the user points the program at: a project file (`.ron`) or a
 //! PVI table (`.csv`).
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use anyhow::{Context as _, bail};
-use gradewright_geometry::{Project, Units};
+use gradewright_geometry::{ProfileProblem, Project, Units};
+
+/// A loaded input: the project, and for a CSV table the line of every PVI.
+#[derive(Clone, Debug)]
+pub struct Input {
+    /// Where it came from.
+    pub path: PathBuf,
+    /// The project (a CSV table becomes a project with default criteria).
+    pub project: Project,
+    /// File line of each PVI, when known (CSV input).
+    pub pvi_lines: Option<Vec<u64>>,
+}
+
+impl Input {
+    /// Where a profile problem sits: `file:line: field` for CSV input,
+    /// `file: pvis` for a project file.
+    pub fn locate(&self, problem: &ProblemRef<'_>) -> String {
+        let problem = problem.0;
+        let line = problem.pvi_index().and_then(|i| self.pvi_lines.as_ref().and_then(|lines| lines.get(i)));
+        match line {
+            Some(line) => format!("{}:{line}: {}", self.path.display(), problem.field()),
+            None => format!("{}: pvis", self.path.display()),
+        }
+    }
+}
+
+/// A borrowed profile problem (keeps [`Input::locate`] readable at call sites).
+pub struct ProblemRef<'a>(pub &'a ProfileProblem);
 
 /// Loads `path` as a project. A `.csv` file is read as a PVI table and needs
 /// `units`; a project file already has units, and a `units` that disagrees
@@ -12,20 +39,18 @@ use gradewright_geometry::{Project, Units};
 ///
 /// # Errors
 /// A message naming the file, line and field.
-pub fn load_input(path: &Path, units: Option<Units>) -> anyhow::Result<Project> {
-    let is_csv = path
-        .extension()
-        .is_some_and(|e| e.eq_ignore_ascii_case("csv"));
+pub fn load_input(path: &Path, units: Option<Units>) -> anyhow::Result<Input> {
+    let is_csv = path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv"));
     if is_csv {
         let Some(units) = units else {
             bail!("{}: a CSV PVI table needs --units metric|us", path.display());
         };
         let file = std::fs::File::open(path).with_context(|| format!("{}", path.display()))?;
-        let pvis = gradewright_sheet::read_pvi_csv(std::io::BufReader::new(file), path, units)?;
+        let table = gradewright_sheet::read_pvi_csv(std::io::BufReader::new(file), path, units)?;
         let name = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
         let mut project = Project::new(name, units);
-        project.pvis = pvis;
-        return Ok(project);
+        project.pvis = table.pvis;
+        return Ok(Input { path: path.to_owned(), project, pvi_lines: Some(table.lines) });
     }
     let project = Project::load(path)?;
     if let Some(units) = units
@@ -38,5 +63,5 @@ pub fn load_input(path: &Path, units: Option<Units>) -> anyhow::Result<Project> 
             project.units.key()
         );
     }
-    Ok(project)
+    Ok(Input { path: path.to_owned(), project, pvi_lines: None })
 }

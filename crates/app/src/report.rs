@@ -45,11 +45,7 @@ struct JsonFinding<'a> {
 }
 
 /// The check report as one JSON object (see the README for its fields).
-pub fn json(
-    project: &Project,
-    criteria: &ResolvedCriteria,
-    checks: &CheckReport,
-) -> anyhow::Result<String> {
+pub fn json(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport) -> anyhow::Result<String> {
     let report = JsonReport {
         units: project.units.key(),
         design_speed: criteria.design_speed,

@@ -119,11 +119,7 @@ impl Alignment {
 
     fn check_range(&self, station: f64) -> Result<(), OutOfRange> {
         let (start, end) = (self.start().0, self.end().0);
-        if station >= start && station <= end {
-            Ok(())
-        } else {
-            Err(OutOfRange { station, start, end })
-        }
+        if station >= start && station <= end { Ok(()) } else { Err(OutOfRange { station, start, end }) }
     }
 
     fn segment_index(&self, station: f64) -> usize {
@@ -142,10 +138,7 @@ impl Alignment {
 
     fn sample_in(&self, index: usize, s: f64) -> Sample {
         match self.segments.get(index) {
-            Some(seg) => Sample {
-                elevation: seg.elevation_at(s),
-                grade_percent: seg.grade_at(s) * 100.0,
-            },
+            Some(seg) => Sample { elevation: seg.elevation_at(s), grade_percent: seg.grade_at(s) * 100.0 },
             None => Sample { elevation: f64::NAN, grade_percent: f64::NAN },
         }
     }

@@ -1,8 +1,8 @@
 //! Checks of a profile against resolved criteria: a list of structured findings.
 
 use crate::{
-    CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, Station,
-    Units, interior_curves, sight,
+    CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, Station, Units,
+    interior_curves, sight,
 };
 
 /// How serious a finding is.
@@ -120,10 +120,7 @@ pub fn check_profile(profile: &Profile, criteria: &ResolvedCriteria) -> CheckRep
     check_grades(profile, criteria, &mut report.findings);
     for check in &mut report.curves {
         let index = check.curve.index;
-        check.ok = !report
-            .findings
-            .iter()
-            .any(|f| f.pvi == Some(index) && f.severity == Severity::Fail);
+        check.ok = !report.findings.iter().any(|f| f.pvi == Some(index) && f.severity == Severity::Fail);
     }
     report
 }
@@ -193,7 +190,10 @@ fn check_curve(
                 push(
                     Severity::Info,
                     "curve.not-needed",
-                    format!("{where_}: no grade change, so the {:.3} {len} curve is not needed", curve.length()),
+                    format!(
+                        "{where_}: no grade change, so the {:.3} {len} curve is not needed",
+                        curve.length()
+                    ),
                 );
             }
             return check;
@@ -289,9 +289,8 @@ fn check_curve(
             ),
         );
     }
-    check.length_required = [k_min * a, sight, check.comfort_length.unwrap_or(0.0), min_length]
-        .into_iter()
-        .fold(0.0, f64::max);
+    check.length_required =
+        [k_min * a, sight, check.comfort_length.unwrap_or(0.0), min_length].into_iter().fold(0.0, f64::max);
     check
 }
 

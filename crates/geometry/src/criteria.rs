@@ -426,10 +426,9 @@ impl ResolvedCriteria {
                     ),
                 )
             }
-            CriterionId::ComfortAcceleration => (
-                sight::default_comfort_acceleration(units),
-                "AASHTO comfort limit (1 ft/s²)".to_owned(),
-            ),
+            CriterionId::ComfortAcceleration => {
+                (sight::default_comfort_acceleration(units), "AASHTO comfort limit (1 ft/s²)".to_owned())
+            }
             CriterionId::MinCurveLength => {
                 let rule = match units {
                     Units::UsCustomary => "3·V",
@@ -496,11 +495,9 @@ pub fn max_grade_percent(units: Units, speed: f64, terrain: Terrain) -> (f64, St
         (Some(0), Some(low)) if speed < low - 1e-9 => {
             format!("; table starts at {low} {}, its value used", units.speed_symbol())
         }
-        (None, _) => format!(
-            "; table ends at {} {}, its value used",
-            highest.unwrap_or(0.0),
-            units.speed_symbol()
-        ),
+        (None, _) => {
+            format!("; table ends at {} {}, its value used", highest.unwrap_or(0.0), units.speed_symbol())
+        }
         _ => String::new(),
     };
     let column = column.unwrap_or(speeds.len().saturating_sub(1));

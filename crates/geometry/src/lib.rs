@@ -20,12 +20,13 @@ mod profile;
 mod project;
 pub mod sight;
 mod station;
+pub mod synthetic;
 mod units;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
 pub use checks::{CheckReport, CurveCheck, Finding, Severity, check_profile};
 pub use criteria::{
-    CriteriaError, Criteria, CriterionId, Quantity, Resolved, ResolvedCriteria, Setting, Terrain,
+    Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, Setting, Terrain,
     max_grade_percent,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};

@@ -85,10 +85,7 @@ impl VerticalCurve {
             Self::Unequal { length_in, length_out } => {
                 let old = length_in + length_out;
                 if old > 0.0 && total > 0.0 {
-                    Self::Unequal {
-                        length_in: total * length_in / old,
-                        length_out: total * length_out / old,
-                    }
+                    Self::Unequal { length_in: total * length_in / old, length_out: total * length_out / old }
                 } else {
                     Self::None
                 }
@@ -224,6 +221,24 @@ impl ProfileProblem {
         }
     }
 
+    /// The field of the PVI that is at fault, as the PVI table names it.
+    pub fn field(&self) -> &'static str {
+        match self {
+            Self::TooFewPvis { .. } => "pvis",
+            Self::NotFinite { field, .. } => match *field {
+                "station" => "station",
+                "elevation" => "elevation",
+                _ => "curve_length",
+            },
+            Self::StationOrder { .. } => "station",
+            Self::NegativeLength { .. }
+            | Self::CurveAtEnd { .. }
+            | Self::ZeroCurvePart { .. }
+            | Self::CurveExceedsTangent { .. }
+            | Self::Overlap { .. } => "curve_length",
+        }
+    }
+
     /// The first PVI concerned, if any.
     pub fn pvi_index(&self) -> Option<usize> {
         match self {
@@ -270,9 +285,7 @@ impl Profile {
                     finite[index] = false;
                 }
             }
-            if pvi.curve.is_curve()
-                && (pvi.curve.length_in() == 0.0 || pvi.curve.length_out() == 0.0)
-            {
+            if pvi.curve.is_curve() && (pvi.curve.length_in() == 0.0 || pvi.curve.length_out() == 0.0) {
                 problems.push(ProfileProblem::ZeroCurvePart { index });
                 finite[index] = false;
             }
@@ -299,8 +312,7 @@ impl Profile {
             if index == 0 || index + 1 == n {
                 continue;
             }
-            let (Some(prev), Some(next)) = (self.pvis.get(index - 1), self.pvis.get(index + 1))
-            else {
+            let (Some(prev), Some(next)) = (self.pvis.get(index - 1), self.pvis.get(index + 1)) else {
                 continue;
             };
             let back = pvi.station - prev.station;

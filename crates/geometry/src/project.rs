@@ -123,8 +123,8 @@ impl Project {
     /// [`FileError::Encode`] if serialisation fails (it does not for finite data).
     pub fn to_ron(&self) -> Result<String, FileError> {
         let config = ron::ser::PrettyConfig::new().depth_limit(4).struct_names(true);
-        let mut text = ron::ser::to_string_pretty(self, config)
-            .map_err(|e| FileError::Encode(e.to_string()))?;
+        let mut text =
+            ron::ser::to_string_pretty(self, config).map_err(|e| FileError::Encode(e.to_string()))?;
         text.push('\n');
         Ok(text)
     }

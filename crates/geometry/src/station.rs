@@ -144,10 +144,7 @@ pub fn parse_station(text: &str, units: Units) -> Result<f64, StationError> {
     let whole: f64 = digits.parse().map_err(|_| malformed())?;
     let offset: f64 = tail.parse().map_err(|_| malformed())?;
     if offset >= units.station_length() {
-        return Err(StationError::OffsetTooLarge {
-            text: trimmed.to_owned(),
-            limit: units.station_length(),
-        });
+        return Err(StationError::OffsetTooLarge { text: trimmed.to_owned(), limit: units.station_length() });
     }
     let magnitude = whole * units.station_length() + offset;
     if !magnitude.is_finite() {
@@ -177,10 +174,7 @@ mod tests {
         assert_eq!(parse_station(" 1+234.5 ", Units::Metric), Ok(1234.5));
         assert_eq!(parse_station("-0+50", Units::UsCustomary), Ok(-50.0));
         assert_eq!(parse_station("-12.5", Units::Metric), Ok(-12.5));
-        assert!(matches!(
-            parse_station("1+1000", Units::Metric),
-            Err(StationError::OffsetTooLarge { .. })
-        ));
+        assert!(matches!(parse_station("1+1000", Units::Metric), Err(StationError::OffsetTooLarge { .. })));
         assert!(parse_station("1+2+3", Units::Metric).is_err());
         assert!(parse_station("a+10", Units::Metric).is_err());
         assert!(parse_station("", Units::Metric).is_err());

@@ -25,12 +25,21 @@ enum Layout {
     Unequal { length_in: usize, length_out: usize },
 }
 
+/// A PVI table as read, with the file line of every PVI (for messages).
+#[derive(Clone, Debug, PartialEq, Default)]
+pub struct PviTable {
+    /// The PVIs, in file order.
+    pub pvis: Vec<Pvi>,
+    /// The 1-based line of each PVI in the file.
+    pub lines: Vec<u64>,
+}
+
 /// Reads a PVI table. Stations may be plain numbers or station notation in
 /// `units`. Every row must have every column; unknown columns are an error.
 ///
 /// # Errors
 /// The first [`CsvError`] met, naming file, line and column.
-pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Vec<Pvi>, CsvError> {
+pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<PviTable, CsvError> {
     let err = |line: u64, field: &str, message: String| CsvError {
         path: origin.to_owned(),
         line,
@@ -50,7 +59,9 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Ve
             return Err(err(
                 1,
                 "header",
-                format!("unknown column '{h}' (expected station, elevation and curve_length, or length_in and length_out)"),
+                format!(
+                    "unknown column '{h}' (expected station, elevation and curve_length, or length_in and length_out)"
+                ),
             ));
         }
     }
@@ -61,13 +72,21 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Ve
         (Some(length), None, None) => Layout::Symmetric { length },
         (None, Some(length_in), Some(length_out)) => Layout::Unequal { length_in, length_out },
         (None, None, None) => {
-            return Err(err(1, "header", "the header needs 'curve_length' or both 'length_in' and 'length_out'".to_owned()));
+            return Err(err(
+                1,
+                "header",
+                "the header needs 'curve_length' or both 'length_in' and 'length_out'".to_owned(),
+            ));
         }
         _ => {
-            return Err(err(1, "header", "use either 'curve_length' or 'length_in' and 'length_out', not a mix".to_owned()));
+            return Err(err(
+                1,
+                "header",
+                "use either 'curve_length' or 'length_in' and 'length_out', not a mix".to_owned(),
+            ));
         }
     };
-    let mut pvis = Vec::new();
+    let mut table = PviTable::default();
     for record in csv.records() {
         let record = record.map_err(|e| {
             let line = e.position().map_or(0, csv::Position::line);
@@ -81,9 +100,8 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Ve
             if text.is_empty() && empty_is_zero {
                 return Ok(0.0);
             }
-            let value: f64 = text
-                .parse()
-                .map_err(|_| err(line, &name(i), format!("'{text}' is not a number")))?;
+            let value: f64 =
+                text.parse().map_err(|_| err(line, &name(i), format!("'{text}' is not a number")))?;
             if !value.is_finite() {
                 return Err(err(line, &name(i), format!("'{text}' is not a finite number")));
             }
@@ -103,9 +121,10 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Ve
                 VerticalCurve::from_lengths(number(length_in, true)?, number(length_out, true)?)
             }
         };
-        pvis.push(Pvi { station: Station(sta), elevation: elev, curve });
+        table.pvis.push(Pvi { station: Station(sta), elevation: elev, curve });
+        table.lines.push(line);
     }
-    Ok(pvis)
+    Ok(table)
 }
 
 /// Writes a PVI table. Uses `curve_length` when every curve is symmetric,

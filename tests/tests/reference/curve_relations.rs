@@ -21,12 +21,9 @@ fn mahun_problem_2_station_elevations_and_grades() {
     assert_eq!(format_station(curve.pvt.0, Units::UsCustomary, 2), "59+00.00");
     assert_close(curve.pvt_elevation, 1316.25, 1e-9, "EVC elevation (Mahun Prob. 2)");
     // Mahun Prob. 2 table: station, elevation (3 decimals), grade (1 decimal).
-    for (station, elevation, grade) in [
-        (5500.0, 1316.650, 3.3),
-        (5600.0, 1319.100, 1.6),
-        (5700.0, 1319.850, -0.1),
-        (5800.0, 1318.900, -1.8),
-    ] {
+    for (station, elevation, grade) in
+        [(5500.0, 1316.650, 3.3), (5600.0, 1319.100, 1.6), (5700.0, 1319.850, -0.1), (5800.0, 1318.900, -1.8)]
+    {
         let s = a.sample(Station(station)).unwrap_or_else(|e| panic!("{e}"));
         assert_close(s.elevation, elevation, 5e-4, "elevation (Mahun Prob. 2)");
         assert_close(s.grade_percent, grade, 0.05, "grade (Mahun Prob. 2)");
@@ -131,13 +128,13 @@ fn outside_the_profile_is_an_error() {
 #[test]
 fn validation_lists_every_problem() {
     let pvis = vec![
-        Pvi::with_curve(0.0, 10.0, 40.0),     // curve at the first PVI
-        Pvi::with_curve(100.0, 12.0, 120.0),  // overlaps the next
+        Pvi::with_curve(0.0, 10.0, 40.0),    // curve at the first PVI
+        Pvi::with_curve(100.0, 12.0, 120.0), // overlaps the next
         Pvi::with_curve(200.0, 11.0, 100.0),
-        Pvi::new(150.0, f64::NAN),            // out of order and not finite
+        Pvi::new(150.0, f64::NAN), // out of order and not finite
     ];
     let problems = Profile::new(Units::Metric, pvis).problems();
-    let codes: Vec<_> = problems.iter().map(|p| p.code()).collect();
+    let codes: Vec<_> = problems.iter().map(gradewright_geometry::ProfileProblem::code).collect();
     assert!(codes.contains(&"profile.curve-at-end"), "{codes:?}");
     assert!(codes.contains(&"profile.not-finite"), "{codes:?}");
     assert_eq!(Profile::new(Units::Metric, vec![Pvi::new(0.0, 1.0)]).problems().len(), 1);

@@ -19,7 +19,10 @@ fn sample_project() -> Project {
     p.pvis = vec![
         Pvi::new(1000.0, 500.0),
         Pvi::with_curve(1500.0, 510.0, 300.0),
-        Pvi { curve: VerticalCurve::Unequal { length_in: 100.0, length_out: 150.0 }, ..Pvi::new(2000.0, 505.0) },
+        Pvi {
+            curve: VerticalCurve::Unequal { length_in: 100.0, length_out: 150.0 },
+            ..Pvi::new(2000.0, 505.0)
+        },
         Pvi::new(2500.0, 512.0),
     ];
     p

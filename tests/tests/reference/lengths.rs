@@ -49,11 +49,8 @@ fn rogers_crest_with_uk_heights() {
 #[test]
 fn rogers_k_override_lengths() {
     for (k, expected) in [(100.0, 700.0), (55.0, 385.0)] {
-        let criteria = Criteria {
-            design_speed: Some(100.0),
-            crest_k: Setting::Override(k),
-            ..Criteria::default()
-        };
+        let criteria =
+            Criteria { design_speed: Some(100.0), crest_k: Setting::Override(k), ..Criteria::default() };
         let resolved = criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
         let profile = Profile::new(
             Units::Metric,
@@ -61,7 +58,12 @@ fn rogers_k_override_lengths() {
         );
         let report = check_profile(&profile, &resolved);
         let curve = &report.curves[0];
-        assert_close(curve.k_required.unwrap_or(0.0) * curve.curve.a_percent(), expected, 1e-9, "L = K·A (Rogers Ex 6.6)");
+        assert_close(
+            curve.k_required.unwrap_or(0.0) * curve.curve.a_percent(),
+            expected,
+            1e-9,
+            "L = K·A (Rogers Ex 6.6)",
+        );
         assert!(report.findings.iter().any(|f| f.code == "crest.k-min"), "{report:?}");
     }
 }
@@ -111,7 +113,12 @@ fn undercrossing_lengths() {
 /// minimum L ≥ 0.6V m / 3V ft (from memory).
 #[test]
 fn comfort_and_appearance_rules() {
-    assert_close(sight::sag_comfort_length(Units::Metric, 4.0, 80.0, 0.3048), 4.0 * 6400.0 / 395.0, 1e-9, "395");
+    assert_close(
+        sight::sag_comfort_length(Units::Metric, 4.0, 80.0, 0.3048),
+        4.0 * 6400.0 / 395.0,
+        1e-9,
+        "395",
+    );
     let general = sight::sag_comfort_length(Units::Metric, 4.0, 80.0, 0.3);
     assert_close(general, 4.0 * 6400.0 / (1296.0 * 0.3), 1e-9, "general");
     assert_close(sight::appearance_min_length(Units::UsCustomary, 50.0), 150.0, 0.0, "3V");

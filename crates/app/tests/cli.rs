@@ -1,0 +1,185 @@
+//! The command line, run as a user would: output text, exit status, errors.
+
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+
+fn bin() -> Command {
+    Command::new(env!("CARGO_BIN_EXE_gradewright"))
+}
+
+fn asset(name: &str) -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join("../../assets").join(name)
+}
+
+fn run(args: &[&str]) -> Output {
+    bin().args(args).output().unwrap_or_else(|e| panic!("{e}"))
+}
+
+fn stdout(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stdout).into_owned()
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stderr).into_owned()
+}
+
+fn temp_file(name: &str, text: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("gradewright-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let path = dir.join(name);
+    std::fs::write(&path, text).unwrap_or_else(|e| panic!("{e}"));
+    path
+}
+
+/// `table --at` on the worked example of J. Mahun, vertical-curve solutions 1,
+/// Prob. 2 (PVI 56+50 at 1325.00 ft, +5.0 % / −3.5 %, L 500 ft): 55+00 at
+/// 1316.650, 57+00 at 1319.850, in the order given.
+#[test]
+fn table_at_stations_reproduces_mahun() {
+    let csv = temp_file(
+        "mahun.csv",
+        "station,elevation,curve_length\n50+00,1292.5,\n56+50,1325.00,500\n63+00,1302.25,0\n",
+    );
+    let csv = csv.to_string_lossy().into_owned();
+    let o = run(&["table", &csv, "--units", "us", "--at", "57+00", "--at", "5500", "--decimals", "3"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    let lines: Vec<_> = text.lines().collect();
+    assert_eq!(lines[0], "station,station_label,elevation,grade_percent");
+    assert_eq!(lines[1], "5700.000,57+00.000,1319.850,-0.100");
+    assert_eq!(lines[2], "5500.000,55+00.000,1316.650,3.300");
+    assert_eq!(lines.len(), 3);
+}
+
+#[test]
+fn table_interval_includes_ends_and_key_points() {
+    let o = run(&["table", &asset("alder-brook-road.ron").to_string_lossy(), "--interval", "100"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    let stations: Vec<f64> = text
+        .lines()
+        .skip(1)
+        .map(|l| l.split(',').next().and_then(|s| s.parse().ok()).unwrap_or(f64::NAN))
+        .collect();
+    for key in [0.0, 100.0, 260.0, 320.0, 380.0, 1055.0, 1500.0, 1640.0, 2000.0] {
+        assert!(stations.contains(&key), "missing {key}: {stations:?}");
+    }
+    assert!(stations.windows(2).all(|w| w[0] < w[1]), "not sorted");
+    // Unrounded numbers are the shortest exact form, not padded.
+    assert!(text.contains("\n0,0+000.000,212.4,2.5"), "{text}");
+}
+
+#[test]
+fn check_json_has_the_documented_shape() {
+    let o = run(&["check", &asset("alder-brook-road.ron").to_string_lossy(), "--format", "json"]);
+    assert_eq!(o.status.code(), Some(1), "the demo has a failing crest: {}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(v["units"], "metric");
+    assert_eq!(v["design_speed"], 80.0);
+    // AASHTO metric Table 3-1 (from memory): 80 km/h → 130 m.
+    assert_eq!(v["ssd_required"], 130.0);
+    let curves = v["curves"].as_array().map_or(0, Vec::len);
+    assert_eq!(curves, 4);
+    let crest = &v["curves"][2];
+    for key in [
+        "pvi_station",
+        "pvi_elevation",
+        "kind",
+        "g1",
+        "g2",
+        "a",
+        "length",
+        "k",
+        "k_required",
+        "length_required",
+        "pvc_station",
+        "pvc_elevation",
+        "pvt_station",
+        "pvt_elevation",
+        "turning_station",
+        "turning_elevation",
+        "ok",
+    ] {
+        assert!(crest.get(key).is_some(), "missing {key}");
+    }
+    assert_eq!(crest["kind"], "crest");
+    assert_eq!(crest["ok"], false);
+    // AASHTO metric Table 3-34 (from memory): 80 km/h → crest K 26.
+    assert_eq!(crest["k_required"], 26.0);
+    let finding = &v["findings"][0];
+    for key in ["severity", "code", "station_start", "station_end", "message"] {
+        assert!(finding.get(key).is_some(), "missing {key}");
+    }
+}
+
+#[test]
+fn design_speed_flag_overrides_and_passing_exits_zero() {
+    let csv = asset("cedar-hollow-lane.csv").to_string_lossy().into_owned();
+    let o = run(&["check", &csv, "--units", "us", "--design-speed", "45"]);
+    assert_eq!(o.status.code(), Some(0), "{}{}", stdout(&o), stderr(&o));
+    let o = run(&["check", &csv, "--units", "us", "--design-speed", "70"]);
+    assert_eq!(o.status.code(), Some(1), "70 mph needs crest K 247: {}", stdout(&o));
+    let o = run(&["check", &csv, "--units", "us"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("design speed"), "{}", stderr(&o));
+}
+
+#[test]
+fn bad_inputs_exit_2_with_file_line_and_field() {
+    let bad = temp_file("bad.csv", "station,elevation,curve_length\n0+00,100,0\n5+00,abc,0\n");
+    let o = run(&["table", &bad.to_string_lossy(), "--units", "us"]);
+    assert_eq!(o.status.code(), Some(2));
+    let err = stderr(&o);
+    assert!(err.contains("bad.csv:3: elevation:"), "{err}");
+    assert_eq!(err.trim().lines().count(), 1, "one line: {err}");
+
+    let bad = temp_file(
+        "bad.ron",
+        "Project(format_version: 1, units: Metric,\n pvis: [Pvi(station: 1.0 elevation: 2.0)])\n",
+    );
+    let o = run(&["check", &bad.to_string_lossy(), "--design-speed", "50"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("bad.ron:2:"), "{}", stderr(&o));
+
+    let o = run(&["table", &asset("cedar-hollow-lane.csv").to_string_lossy()]);
+    assert_eq!(o.status.code(), Some(2), "CSV without --units");
+    let o = run(&["table", &asset("alder-brook-road.ron").to_string_lossy(), "--units", "us"]);
+    assert_eq!(o.status.code(), Some(2), "units that disagree with the project");
+    assert!(stderr(&o).contains("never converted"), "{}", stderr(&o));
+    let o = run(&["table", &asset("alder-brook-road.ron").to_string_lossy(), "--at", "9+000"]);
+    assert_eq!(o.status.code(), Some(2), "station outside the profile");
+    assert!(stderr(&o).contains("outside"), "{}", stderr(&o));
+    let o = run(&["table", "/nonexistent/x.ron"]);
+    assert_eq!(o.status.code(), Some(2));
+    let o = run(&["frobnicate"]);
+    assert_eq!(o.status.code(), Some(2));
+}
+
+/// No input file makes the program panic: a few hostile files.
+#[test]
+fn never_panics_on_odd_files() {
+    let cases = [
+        ("empty.csv", ""),
+        ("header.csv", "station,elevation,curve_length\n"),
+        ("one.csv", "station,elevation,curve_length\n0,1,0\n"),
+        ("nan.csv", "station,elevation,curve_length\n0,NaN,0\n10,1,0\n"),
+        ("ragged.csv", "station,elevation,curve_length\n0,1\n"),
+        ("overlap.csv", "station,elevation,curve_length\n0,0,0\n10,1,15\n20,0,15\n30,1,0\n"),
+        ("binary.ron", "\u{0}\u{1}\u{2}garbage(("),
+        ("empty.ron", ""),
+        ("neg.csv", "station,elevation,length_in,length_out\n0,0,0,0\n10,1,-3,2\n20,0,0,0\n"),
+        ("big.csv", "station,elevation,curve_length\n0,0,0\n1e308,1,0\n"),
+    ];
+    for (name, text) in cases {
+        let path = temp_file(name, text).to_string_lossy().into_owned();
+        for args in [
+            vec!["table", &path, "--units", "metric"],
+            vec!["check", &path, "--units", "metric", "--design-speed", "60", "--format", "json"],
+        ] {
+            let o = run(&args);
+            let code = o.status.code();
+            assert!(matches!(code, Some(0..=2)), "{name}: {code:?} {}", stderr(&o));
+            assert!(!stderr(&o).contains("panicked"), "{name}: {}", stderr(&o));
+        }
+    }
+}
