@@ -51,6 +51,11 @@ pub enum Format {
 /// The subcommands.
 #[derive(Debug, Subcommand)]
 pub enum Command {
+    /// Open the editor (on FILE, or on the demo project)
+    Edit {
+        /// Project file (.ron)
+        input: Option<PathBuf>,
+    },
     /// Elevation and grade at stations, as CSV
     Table {
         /// Project file (.ron) or PVI table (.csv)
@@ -114,8 +119,11 @@ fn one_line(e: &anyhow::Error) -> String {
 pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
     match cli.command {
         None => {
-            use clap::CommandFactory as _;
-            Cli::command().print_help()?;
+            crate::gui::run(None)?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Some(Command::Edit { input }) => {
+            crate::gui::run(input.as_deref())?;
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Table { input, units, interval, at, decimals }) => {

@@ -1,6 +1,7 @@
-//! Gradewright: the application. The command line lives in [`cli`]; loading
-//! of input files in [`input`].
+//! Gradewright: the application. The command line lives in [`cli`], the
+//! editor in [`gui`], loading of input files in [`input`].
 
 pub mod cli;
+pub mod gui;
 pub mod input;
 mod report;

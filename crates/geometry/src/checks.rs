@@ -93,6 +93,12 @@ fn below(value: f64, required: f64) -> bool {
     value < required * (1.0 - TOLERANCE) - TOLERANCE
 }
 
+/// The structural problems of `profile` as failure findings (what
+/// [`check_profile`] reports first), for use when no criteria are available.
+pub fn structural_findings(profile: &Profile) -> Vec<Finding> {
+    profile.problems().iter().map(|p| problem_finding(profile, p)).collect()
+}
+
 /// Checks `profile` against `criteria`: structural problems (as failures), then
 /// every curve and every tangent grade.
 pub fn check_profile(profile: &Profile, criteria: &ResolvedCriteria) -> CheckReport {

@@ -16,6 +16,7 @@ mod alignment;
 mod checks;
 mod criteria;
 mod curve;
+mod edit;
 mod profile;
 mod project;
 pub mod sight;
@@ -24,12 +25,13 @@ pub mod synthetic;
 mod units;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
-pub use checks::{CheckReport, CurveCheck, Finding, Severity, check_profile};
+pub use checks::{CheckReport, CurveCheck, Finding, Severity, check_profile, structural_findings};
 pub use criteria::{
     Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, Setting, Terrain,
     max_grade_percent,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
+pub use edit::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, write_atomic};
 pub use station::{Station, StationError, format_station, parse_station};

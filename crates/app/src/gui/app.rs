@@ -1,0 +1,534 @@
+//! The application state and the one place where actions are applied.
+
+use std::path::{Path, PathBuf};
+
+use gradewright_geometry::{Project, Pvi, Units};
+
+use super::command::{Action, Edit, REDO_ALT, UiCommand};
+use super::derived::Derived;
+use super::files::AppFiles;
+use super::history::History;
+use super::view::ViewState;
+
+/// The demo project shown on first start (a fictional road).
+pub const DEMO_PROJECT: &str = include_str!("../../../../assets/alder-brook-road.ron");
+
+/// How often unsaved work is written to the recovery file, seconds.
+const AUTOSAVE_SECONDS: f64 = 30.0;
+
+/// A message shown in the window.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Notice {
+    /// Whether it reports an error.
+    pub error: bool,
+    /// The text.
+    pub text: String,
+}
+
+/// What waits for the user's answer about unsaved changes.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Pending {
+    /// Unsaved changes: save, discard or cancel before `then`.
+    UnsavedChanges(Box<Action>),
+    /// A recovery file was found at start.
+    Recovery(Box<Project>),
+}
+
+/// The Gradewright editor: project, history, derived data and view state.
+pub struct GradewrightApp {
+    project: Project,
+    path: Option<PathBuf>,
+    saved: Option<Project>,
+    history: History,
+    drag_origin: Option<Project>,
+    derived: Derived,
+    revision: u64,
+    /// View state (selection, plot settings, cell buffers).
+    pub view: ViewState,
+    files: AppFiles,
+    recent: Vec<PathBuf>,
+    /// A dialog waiting for an answer.
+    pub pending: Option<Pending>,
+    /// The latest message.
+    pub notice: Option<Notice>,
+    actions: Vec<Action>,
+    last_autosave: Option<f64>,
+    close_confirmed: bool,
+    /// Set when the window should close (read by the eframe shell).
+    pub close_requested: bool,
+}
+
+impl GradewrightApp {
+    /// The editor on `project`, keeping its own files in `files`.
+    pub fn new(project: Project, path: Option<PathBuf>, files: AppFiles) -> Self {
+        let derived = Derived::compute(&project);
+        let recent = files.recent();
+        let saved = path.as_ref().map(|_| project.clone());
+        let mut app = Self {
+            project,
+            path,
+            saved,
+            history: History::default(),
+            drag_origin: None,
+            derived,
+            revision: 0,
+            view: ViewState::default(),
+            files,
+            recent,
+            pending: None,
+            notice: None,
+            actions: Vec::new(),
+            last_autosave: None,
+            close_confirmed: false,
+            close_requested: false,
+        };
+        app.view.request_fit();
+        if let Some(recovered) = app.files.read_recovery() {
+            app.pending = Some(Pending::Recovery(Box::new(recovered)));
+        }
+        app
+    }
+
+    /// The editor on the built-in demo project (first start).
+    pub fn with_demo(files: AppFiles) -> Self {
+        let project = Project::from_ron(DEMO_PROJECT, Path::new("alder-brook-road.ron"))
+            .unwrap_or_else(|_| Project::new("Untitled", Units::Metric));
+        let mut app = Self::new(project, None, files);
+        app.view.selected = Some(3);
+        app
+    }
+
+    /// Opens `path` at start, or falls back to the demo with the error shown.
+    pub fn with_file(path: &Path, files: AppFiles) -> Self {
+        match Project::load(path) {
+            Ok(project) => {
+                let app = Self::new(project, Some(path.to_owned()), files);
+                let _ = app.files.add_recent(path);
+                app
+            }
+            Err(e) => {
+                let mut app = Self::with_demo(files);
+                app.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
+                app
+            }
+        }
+    }
+
+    /// The project as it stands.
+    pub fn project(&self) -> &Project {
+        &self.project
+    }
+
+    /// The file the project was last opened from or saved to.
+    pub fn path(&self) -> Option<&Path> {
+        self.path.as_deref()
+    }
+
+    /// Derived data for the current project.
+    pub fn derived(&self) -> &Derived {
+        &self.derived
+    }
+
+    /// Recent files, newest first.
+    pub fn recent(&self) -> &[PathBuf] {
+        &self.recent
+    }
+
+    /// Whether there are changes not saved to a file.
+    pub fn is_dirty(&self) -> bool {
+        self.saved.as_ref() != Some(&self.project)
+    }
+
+    /// Whether there is something to undo or redo.
+    pub fn can_undo_redo(&self) -> (bool, bool) {
+        (self.history.can_undo(), self.history.can_redo())
+    }
+
+    /// A counter that changes whenever the project does.
+    pub fn revision(&self) -> u64 {
+        self.revision
+    }
+
+    /// The window title: file name, unsaved mark, program name.
+    pub fn title(&self) -> String {
+        let name = self.path.as_ref().and_then(|p| p.file_name()).map_or_else(
+            || format!("{} (not saved)", self.project.name),
+            |n| n.to_string_lossy().into_owned(),
+        );
+        let mark = if self.is_dirty() { " ●" } else { "" };
+        format!("{name}{mark} — Gradewright")
+    }
+
+    /// Queues an action for the end of this frame.
+    pub fn push(&mut self, action: Action) {
+        self.actions.push(action);
+    }
+
+    fn changed(&mut self) {
+        self.revision += 1;
+        self.derived = Derived::compute(&self.project);
+        if let Some(sel) = self.view.selected
+            && sel >= self.project.pvis.len()
+        {
+            self.view.selected = self.project.pvis.len().checked_sub(1);
+        }
+    }
+
+    fn replace_project(&mut self, project: Project, path: Option<PathBuf>) {
+        self.project = project;
+        self.saved = path.as_ref().map(|_| self.project.clone());
+        self.path = path;
+        self.history.clear();
+        self.view.reset_for_new_project();
+        self.changed();
+    }
+
+    /// Applies an edit as one undo step. Returns whether anything changed.
+    pub fn apply_edit(&mut self, edit: Edit) -> bool {
+        let before = self.project.clone();
+        let pvis = &mut self.project.pvis;
+        match edit {
+            Edit::SetPvi { index, pvi } => match pvis.get_mut(index) {
+                Some(slot) => *slot = pvi,
+                None => return false,
+            },
+            Edit::Insert { index, pvi } => {
+                if index > pvis.len() {
+                    return false;
+                }
+                pvis.insert(index, pvi);
+                self.view.selected = Some(index);
+            }
+            Edit::Delete { index } => {
+                if pvis.len() <= 2 || index >= pvis.len() {
+                    self.notice =
+                        Some(Notice { error: true, text: "A profile keeps at least two PVIs".to_owned() });
+                    return false;
+                }
+                pvis.remove(index);
+                // The new first/last PVI carries no curve.
+                let last = pvis.len() - 1;
+                for end in [0, last] {
+                    if let Some(p) = pvis.get_mut(end) {
+                        p.curve = gradewright_geometry::VerticalCurve::None;
+                    }
+                }
+                self.view.selected = Some(index.min(last));
+            }
+            Edit::SetCriteria(criteria) => self.project.criteria = criteria,
+            Edit::SetName(name) => self.project.name = name,
+            Edit::Replace(project) => self.project = *project,
+        }
+        if self.project == before {
+            return false;
+        }
+        self.history.record(before);
+        self.changed();
+        true
+    }
+
+    /// Starts dragging PVI `index` (the whole drag becomes one undo step).
+    pub fn begin_drag(&mut self, index: usize) {
+        self.view.selected = Some(index);
+        if self.drag_origin.is_none() {
+            self.drag_origin = Some(self.project.clone());
+        }
+    }
+
+    /// Moves the dragged PVI towards a point, within its limits; live.
+    pub fn drag_to(&mut self, index: usize, station: f64, elevation: f64) {
+        let (station, elevation) = self.view.snap(station, elevation);
+        let Some(pvi) = self.project.profile().move_pvi_clamped(index, station, elevation) else { return };
+        if let Some(slot) = self.project.pvis.get_mut(index)
+            && *slot != pvi
+        {
+            *slot = pvi;
+            self.changed();
+        }
+    }
+
+    /// Ends a drag: records one undo step if anything moved.
+    pub fn end_drag(&mut self) {
+        if let Some(origin) = self.drag_origin.take()
+            && origin != self.project
+        {
+            self.history.record(origin);
+        }
+    }
+
+    /// Whether a drag is under way.
+    pub fn is_dragging(&self) -> bool {
+        self.drag_origin.is_some()
+    }
+
+    /// Opens `path`, keeping the current work if it fails (the error is shown).
+    pub fn open_path(&mut self, path: &Path) -> bool {
+        match Project::load(path) {
+            Ok(project) => {
+                self.replace_project(project, Some(path.to_owned()));
+                self.note_recent(path);
+                self.notice = Some(Notice { error: false, text: format!("Opened {}", path.display()) });
+                true
+            }
+            Err(e) => {
+                self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
+                false
+            }
+        }
+    }
+
+    /// Saves to `path` (atomically, keeping a backup). Returns whether it worked.
+    pub fn save_to(&mut self, path: &Path) -> bool {
+        let mut project = self.project.clone();
+        project.format_version = gradewright_geometry::FORMAT_VERSION;
+        match project.save(path) {
+            Ok(()) => {
+                self.saved = Some(self.project.clone());
+                self.path = Some(path.to_owned());
+                self.files.clear_recovery();
+                self.note_recent(path);
+                self.notice = Some(Notice { error: false, text: format!("Saved {}", path.display()) });
+                true
+            }
+            Err(e) => {
+                self.notice = Some(Notice { error: true, text: format!("Could not save: {e}") });
+                false
+            }
+        }
+    }
+
+    fn note_recent(&mut self, path: &Path) {
+        if let Ok(list) = self.files.add_recent(path) {
+            self.recent = list;
+        }
+    }
+
+    /// Writes the recovery file when there are unsaved changes and the
+    /// interval has passed; `now` is seconds since start.
+    pub fn autosave(&mut self, now: f64) {
+        let due = self.last_autosave.is_none_or(|t| now - t >= AUTOSAVE_SECONDS);
+        if !due {
+            return;
+        }
+        self.last_autosave = Some(now);
+        if self.is_dirty()
+            && !self.is_dragging()
+            && let Err(e) = self.files.write_recovery(&self.project)
+        {
+            self.notice = Some(Notice { error: true, text: format!("Autosave failed: {e}") });
+        }
+    }
+
+    /// Takes the recovered project offered at start.
+    pub fn accept_recovery(&mut self, project: Project) {
+        self.replace_project(project, None);
+        self.notice =
+            Some(Notice { error: false, text: "Recovered unsaved work; save it to keep it".to_owned() });
+    }
+
+    /// Discards the recovery file.
+    pub fn discard_recovery(&mut self) {
+        self.files.clear_recovery();
+    }
+
+    /// Marks that the user agreed to close with unsaved changes.
+    pub fn confirm_close(&mut self) {
+        self.close_confirmed = true;
+        self.close_requested = true;
+    }
+
+    /// Whether closing may go ahead now (no unsaved changes, or confirmed).
+    pub fn may_close(&self) -> bool {
+        self.close_confirmed || !self.is_dirty()
+    }
+
+    /// Asks about unsaved changes before `action`, or runs it.
+    fn guarded(&mut self, action: Action) {
+        if self.is_dirty() {
+            self.pending = Some(Pending::UnsavedChanges(Box::new(action)));
+        } else {
+            self.run_now(action);
+        }
+    }
+
+    /// Runs an action that was waiting for the unsaved-changes answer.
+    pub fn resolve_unsaved(&mut self, save_first: bool, action: Action) {
+        if save_first {
+            let saved = match self.path.clone() {
+                Some(path) => self.save_to(&path),
+                None => match pick_save_path(&self.project) {
+                    Some(path) => self.save_to(&path),
+                    None => false,
+                },
+            };
+            if !saved {
+                return;
+            }
+        }
+        self.run_now(action);
+    }
+
+    fn run_now(&mut self, action: Action) {
+        match action {
+            Action::New(units) => {
+                let mut project = Project::new("Untitled", units);
+                project.criteria.design_speed = Some(match units {
+                    Units::Metric => 80.0,
+                    Units::UsCustomary => 50.0,
+                });
+                let (length, rise) = match units {
+                    Units::Metric => (1000.0, 10.0),
+                    Units::UsCustomary => (3000.0, 30.0),
+                };
+                project.pvis = vec![Pvi::new(0.0, 100.0), Pvi::new(length, 100.0 + rise)];
+                self.replace_project(project, None);
+            }
+            Action::Open(Some(path)) => {
+                self.open_path(&path);
+            }
+            Action::Open(None) => {
+                if let Some(path) =
+                    rfd::FileDialog::new().add_filter("Gradewright project", &["ron"]).pick_file()
+                {
+                    self.open_path(&path);
+                } else {
+                    self.no_dialog();
+                }
+            }
+            Action::Quit => self.confirm_close(),
+            other => self.apply(other),
+        }
+    }
+
+    fn no_dialog(&mut self) {
+        self.notice = Some(Notice {
+            error: false,
+            text: "No file chosen (if no dialog appeared, type a path in File ▸ Path)".to_owned(),
+        });
+    }
+
+    /// Applies one action now.
+    pub fn apply(&mut self, action: Action) {
+        match action {
+            Action::Edit(edit) => {
+                self.apply_edit(*edit);
+            }
+            Action::New(_) | Action::Open(_) | Action::Quit => self.guarded(action),
+            Action::Save => match self.path.clone() {
+                Some(path) => {
+                    self.save_to(&path);
+                }
+                None => self.apply(Action::SaveAs(None)),
+            },
+            Action::SaveAs(Some(path)) => {
+                self.save_to(&path);
+            }
+            Action::SaveAs(None) => match pick_save_path(&self.project) {
+                Some(path) => {
+                    self.save_to(&path);
+                }
+                None => self.no_dialog(),
+            },
+            Action::Undo => {
+                if let Some(p) = self.history.undo(self.project.clone()) {
+                    self.project = p;
+                    self.changed();
+                }
+            }
+            Action::Redo => {
+                if let Some(p) = self.history.redo(self.project.clone()) {
+                    self.project = p;
+                    self.changed();
+                }
+            }
+            Action::FitView => self.view.request_fit(),
+            Action::Focus(index) => {
+                self.view.selected = Some(index);
+                self.view.request_focus(&self.project, &self.derived, index);
+            }
+            Action::DeleteSelected => {
+                if let Some(index) = self.view.selected {
+                    self.apply_edit(Edit::Delete { index });
+                }
+            }
+            Action::InsertAfterSelected => self.insert_after_selected(),
+            Action::SelectPrevious => {
+                self.view.selected = Some(self.view.selected.map_or(0, |i| i.saturating_sub(1)));
+            }
+            Action::SelectNext => {
+                let last = self.project.pvis.len().saturating_sub(1);
+                self.view.selected = Some(self.view.selected.map_or(0, |i| (i + 1).min(last)));
+            }
+            Action::ToggleAbout => self.view.show_about = !self.view.show_about,
+        }
+    }
+
+    /// Inserts a PVI at `station` on the profile (refused on a curve).
+    pub fn insert_at(&mut self, station: f64) {
+        let Some(alignment) = self.derived.alignment.clone() else {
+            self.notice = Some(Notice {
+                error: true,
+                text: "Fix the profile's problems before inserting PVIs".to_owned(),
+            });
+            return;
+        };
+        let (station, _) = self.view.snap(station, 0.0);
+        match alignment.insertion(station) {
+            Ok((index, pvi)) => {
+                self.apply_edit(Edit::Insert { index, pvi });
+            }
+            Err(e) => self.notice = Some(Notice { error: true, text: format!("Cannot insert: {e}") }),
+        }
+    }
+
+    fn insert_after_selected(&mut self) {
+        let index = self.view.selected.unwrap_or(0);
+        let (Some(a), Some(b)) = (self.project.pvis.get(index), self.project.pvis.get(index + 1)) else {
+            return;
+        };
+        // The middle of the tangent between the two curves' ends.
+        let start = a.station.0 + a.curve.length_out();
+        let end = b.station.0 - b.curve.length_in();
+        self.insert_at(0.5 * (start + end));
+    }
+
+    /// Applies every action queued during the frame.
+    pub fn apply_queued(&mut self) {
+        let actions = std::mem::take(&mut self.actions);
+        for action in actions {
+            self.apply(action);
+        }
+    }
+
+    /// Reads the keyboard shortcuts of `ctx` into actions.
+    pub fn read_shortcuts(&mut self, ctx: &egui::Context) {
+        let typing = ctx.egui_wants_keyboard_input();
+        for command in UiCommand::ALL {
+            let Some(shortcut) = command.shortcut() else { continue };
+            if typing && command.is_plain_key() {
+                continue;
+            }
+            if ctx.input_mut(|i| i.consume_shortcut(&shortcut)) {
+                self.push(command.action());
+            }
+        }
+        if ctx.input_mut(|i| i.consume_shortcut(&REDO_ALT)) {
+            self.push(Action::Redo);
+        }
+    }
+}
+
+fn pick_save_path(project: &Project) -> Option<PathBuf> {
+    let name = if project.name.is_empty() { "profile".to_owned() } else { slug(&project.name) };
+    rfd::FileDialog::new()
+        .add_filter("Gradewright project", &["ron"])
+        .set_file_name(format!("{name}.ron"))
+        .save_file()
+}
+
+fn slug(name: &str) -> String {
+    let s: String =
+        name.chars().map(|c| if c.is_ascii_alphanumeric() { c.to_ascii_lowercase() } else { '-' }).collect();
+    let s = s.split('-').filter(|p| !p.is_empty()).collect::<Vec<_>>().join("-");
+    if s.is_empty() { "profile".to_owned() } else { s }
+}

@@ -1,0 +1,203 @@
+//! Everything the user can do, as values: collected during the UI pass and
+//! applied in one place afterwards. One list of commands feeds the menus and
+//! the keyboard shortcuts.
+
+use std::path::PathBuf;
+
+use egui::{Key, KeyboardShortcut, Modifiers};
+use gradewright_geometry::{Criteria, Project, Pvi, Units};
+
+/// A change to the project. Every edit is one undo step.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Edit {
+    /// Replace PVI `index`.
+    SetPvi {
+        /// Which PVI.
+        index: usize,
+        /// Its new value.
+        pvi: Pvi,
+    },
+    /// Insert a PVI before position `index`.
+    Insert {
+        /// Where it goes.
+        index: usize,
+        /// The new PVI.
+        pvi: Pvi,
+    },
+    /// Delete PVI `index` (refused when only two are left).
+    Delete {
+        /// Which PVI.
+        index: usize,
+    },
+    /// Replace the criteria.
+    SetCriteria(Criteria),
+    /// Rename the project.
+    SetName(String),
+    /// Replace the whole project (keeps undo).
+    Replace(Box<Project>),
+}
+
+impl Action {
+    /// An edit as an action.
+    pub fn edit(edit: Edit) -> Self {
+        Self::Edit(Box::new(edit))
+    }
+}
+
+/// An action of the application.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Action {
+    /// Apply an edit.
+    Edit(Box<Edit>),
+    /// Start a new empty project.
+    New(Units),
+    /// Open a file (`None`: ask with a dialog).
+    Open(Option<PathBuf>),
+    /// Save to the current file (asks for one if there is none).
+    Save,
+    /// Save to another file (`None`: ask with a dialog).
+    SaveAs(Option<PathBuf>),
+    /// Undo the last edit.
+    Undo,
+    /// Redo.
+    Redo,
+    /// Fit the view to the whole profile.
+    FitView,
+    /// Select a PVI and bring its curve into view.
+    Focus(usize),
+    /// Delete the selected PVI.
+    DeleteSelected,
+    /// Insert a PVI in the middle of the tangent after the selected PVI.
+    InsertAfterSelected,
+    /// Select the previous PVI.
+    SelectPrevious,
+    /// Select the next PVI.
+    SelectNext,
+    /// Show or hide the About & cautions window.
+    ToggleAbout,
+    /// Close the window.
+    Quit,
+}
+
+/// A command that has a menu entry and a shortcut.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum UiCommand {
+    /// New metric project.
+    NewMetric,
+    /// New US customary project.
+    NewUs,
+    /// Open…
+    Open,
+    /// Save.
+    Save,
+    /// Save As…
+    SaveAs,
+    /// Undo.
+    Undo,
+    /// Redo.
+    Redo,
+    /// Delete PVI.
+    Delete,
+    /// Insert PVI.
+    Insert,
+    /// Previous PVI.
+    Previous,
+    /// Next PVI.
+    Next,
+    /// Fit to profile.
+    Fit,
+    /// About & cautions.
+    About,
+    /// Quit.
+    Quit,
+}
+
+impl UiCommand {
+    /// Every command, in menu order.
+    pub const ALL: [Self; 14] = [
+        Self::NewMetric,
+        Self::NewUs,
+        Self::Open,
+        Self::Save,
+        Self::SaveAs,
+        Self::Undo,
+        Self::Redo,
+        Self::Delete,
+        Self::Insert,
+        Self::Previous,
+        Self::Next,
+        Self::Fit,
+        Self::About,
+        Self::Quit,
+    ];
+
+    /// Menu text.
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::NewMetric => "New metric project",
+            Self::NewUs => "New US customary project",
+            Self::Open => "Open…",
+            Self::Save => "Save",
+            Self::SaveAs => "Save As…",
+            Self::Undo => "Undo",
+            Self::Redo => "Redo",
+            Self::Delete => "Delete selected PVI",
+            Self::Insert => "Insert PVI after selected",
+            Self::Previous => "Select previous PVI",
+            Self::Next => "Select next PVI",
+            Self::Fit => "Fit to profile",
+            Self::About => "About & cautions",
+            Self::Quit => "Quit",
+        }
+    }
+
+    /// Keyboard shortcut, if any.
+    pub fn shortcut(self) -> Option<KeyboardShortcut> {
+        let cmd = Modifiers::COMMAND;
+        let shortcut = |m, k| Some(KeyboardShortcut::new(m, k));
+        match self {
+            Self::NewMetric => shortcut(cmd, Key::N),
+            Self::NewUs => None,
+            Self::Open => shortcut(cmd, Key::O),
+            Self::Save => shortcut(cmd, Key::S),
+            Self::SaveAs => shortcut(cmd | Modifiers::SHIFT, Key::S),
+            Self::Undo => shortcut(cmd, Key::Z),
+            Self::Redo => shortcut(cmd | Modifiers::SHIFT, Key::Z),
+            Self::Delete => shortcut(Modifiers::NONE, Key::Delete),
+            Self::Insert => shortcut(Modifiers::NONE, Key::Insert),
+            Self::Previous => shortcut(Modifiers::NONE, Key::PageUp),
+            Self::Next => shortcut(Modifiers::NONE, Key::PageDown),
+            Self::Fit => shortcut(Modifiers::NONE, Key::F),
+            Self::About => shortcut(Modifiers::NONE, Key::F1),
+            Self::Quit => shortcut(cmd, Key::Q),
+        }
+    }
+
+    /// Whether the shortcut needs the keyboard free of text fields (plain keys).
+    pub fn is_plain_key(self) -> bool {
+        self.shortcut().is_some_and(|s| s.modifiers.is_none())
+    }
+
+    /// The action it stands for.
+    pub fn action(self) -> Action {
+        match self {
+            Self::NewMetric => Action::New(Units::Metric),
+            Self::NewUs => Action::New(Units::UsCustomary),
+            Self::Open => Action::Open(None),
+            Self::Save => Action::Save,
+            Self::SaveAs => Action::SaveAs(None),
+            Self::Undo => Action::Undo,
+            Self::Redo => Action::Redo,
+            Self::Delete => Action::DeleteSelected,
+            Self::Insert => Action::InsertAfterSelected,
+            Self::Previous => Action::SelectPrevious,
+            Self::Next => Action::SelectNext,
+            Self::Fit => Action::FitView,
+            Self::About => Action::ToggleAbout,
+            Self::Quit => Action::Quit,
+        }
+    }
+}
+
+/// Ctrl+Y also redoes (a second shortcut for the same command).
+pub const REDO_ALT: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Y);

@@ -1,0 +1,118 @@
+//! The design criteria: each value computed from the design speed or the
+//! user's own, with a reset to the computed value.
+
+use egui::RichText;
+use gradewright_geometry::{CriterionId, Setting, Terrain};
+
+use super::app::GradewrightApp;
+use super::cell::{edit_cell, parse_number, settle};
+use super::command::{Action, Edit};
+use super::theme::Palette;
+use super::view::CellId;
+
+/// The criteria panel.
+pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
+    let palette = Palette::of(ui);
+    let units = app.project().units;
+    let criteria = app.project().criteria.clone();
+    egui::Grid::new("criteria").num_columns(4).spacing([8.0, 4.0]).striped(true).show(ui, |ui| {
+        ui.label("Units");
+        ui.label(units.to_string()).on_hover_text("Set when the project is created; never mixed");
+        ui.label("");
+        ui.label("");
+        ui.end_row();
+
+        ui.label("Design speed");
+        let current = criteria.design_speed.map_or_else(String::new, |v| format!("{v}"));
+        let id = CellId::DesignSpeed;
+        if let Some(text) = edit_cell(ui, &mut app.view, id, &current, 60.0, "Design speed") {
+            let parsed = parse_number(&text).and_then(|v| {
+                if v > 0.0 && v <= 400.0 { Ok(v) } else { Err(format!("{v} is not a design speed")) }
+            });
+            if let Some(v) = settle(&mut app.view, id, &text, parsed) {
+                let mut c = criteria.clone();
+                c.design_speed = Some(v);
+                app.push(Action::edit(Edit::SetCriteria(c)));
+            }
+        }
+        ui.label(units.speed_symbol());
+        ui.label("");
+        ui.end_row();
+
+        ui.label("Terrain");
+        let mut terrain = criteria.terrain;
+        egui::ComboBox::from_id_salt("terrain").selected_text(terrain.label()).show_ui(ui, |ui| {
+            for t in Terrain::ALL {
+                ui.selectable_value(&mut terrain, t, t.label());
+            }
+        });
+        if terrain != criteria.terrain {
+            let mut c = criteria.clone();
+            c.terrain = terrain;
+            app.push(Action::edit(Edit::SetCriteria(c)));
+        }
+        ui.label("");
+        ui.label("");
+        ui.end_row();
+
+        ui.label("Sag comfort check");
+        let mut comfort = criteria.sag_comfort;
+        if ui.checkbox(&mut comfort, "on").changed() {
+            let mut c = criteria.clone();
+            c.sag_comfort = comfort;
+            app.push(Action::edit(Edit::SetCriteria(c)));
+        }
+        ui.label("");
+        ui.label("");
+        ui.end_row();
+
+        let resolved = app.derived().criteria.clone();
+        for id in CriterionId::ALL {
+            let entry = resolved.as_ref().ok().and_then(|r| r.entry(id).cloned());
+            let setting = criteria.setting(id);
+            ui.label(id.label()).on_hover_text(entry.as_ref().map_or("", |e| e.rule.as_str()).to_owned());
+            let shown = match (setting, &entry) {
+                (Setting::Override(v), _) => format!("{v}"),
+                (Setting::Computed, Some(e)) => trim(e.value),
+                (Setting::Computed, None) => String::new(),
+            };
+            let cell = CellId::Criterion(id);
+            if let Some(text) = edit_cell(ui, &mut app.view, cell, &shown, 60.0, id.label()) {
+                let parsed = parse_number(&text)
+                    .and_then(|v| if v < 0.0 { Err(format!("{v} is negative")) } else { Ok(v) });
+                if let Some(v) = settle(&mut app.view, cell, &text, parsed) {
+                    let mut c = criteria.clone();
+                    *c.setting_mut(id) = Setting::Override(v);
+                    app.push(Action::edit(Edit::SetCriteria(c)));
+                }
+            }
+            ui.label(id.quantity().symbol(units));
+            ui.horizontal(|ui| match setting {
+                Setting::Override(_) => {
+                    ui.label(RichText::new("override").color(palette.warn));
+                    if ui.small_button("↺ computed").on_hover_text("Reset to the computed value").clicked()
+                    {
+                        let mut c = criteria.clone();
+                        *c.setting_mut(id) = Setting::Computed;
+                        app.view.cells.remove(&cell);
+                        app.push(Action::edit(Edit::SetCriteria(c)));
+                    }
+                }
+                Setting::Computed => {
+                    ui.label(RichText::new("computed").weak());
+                }
+            });
+            ui.end_row();
+        }
+    });
+    if let Err(e) = &app.derived().criteria {
+        ui.label(RichText::new(format!("⚠ Checks are off: {e}")).color(palette.warn));
+    }
+}
+
+/// A value without trailing zeros (for showing computed criteria).
+fn trim(v: f64) -> String {
+    let text = format!("{v:.4}");
+    let text = text.trim_end_matches('0').trim_end_matches('.');
+    text.to_owned()
+}

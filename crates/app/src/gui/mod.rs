@@ -1,0 +1,249 @@
+//! The interactive profile editor (eframe + egui + egui_plot).
+//!
+//! [`GradewrightApp::show`] builds the whole UI into any `egui::Ui`, so tests
+//! and benchmarks drive it without a window; [`run`] puts it in one.
+
+mod about_ui;
+mod app;
+mod cell;
+mod command;
+mod criteria_ui;
+mod derived;
+mod files;
+mod findings_ui;
+mod history;
+mod plot_ui;
+mod table_ui;
+mod theme;
+mod view;
+
+use std::path::{Path, PathBuf};
+
+pub use about_ui::CAUTION_SHORT;
+pub use app::{DEMO_PROJECT, GradewrightApp, Notice, Pending};
+pub use command::{Action, Edit, UiCommand};
+pub use derived::Derived;
+pub use files::{AppFiles, default_config_dir};
+pub use view::{CellId, PviColumn, ViewState};
+
+use egui::RichText;
+
+impl GradewrightApp {
+    /// Builds the whole editor into `ui` for one frame, then applies what the
+    /// user did.
+    pub fn show(&mut self, ui: &mut egui::Ui) {
+        let ctx = ui.ctx().clone();
+        self.read_shortcuts(&ctx);
+        egui::Panel::top("menu").show(ui, |ui| self.menu_ui(ui));
+        egui::Panel::bottom("status").show(ui, |ui| self.status_ui(ui));
+        egui::Panel::bottom("pvi-table").resizable(true).default_size(250.0).min_size(120.0).show(ui, |ui| {
+            table_ui::table_ui(self, ui);
+        });
+        egui::Panel::right("side").resizable(true).default_size(430.0).min_size(300.0).show(ui, |ui| {
+            egui::ScrollArea::vertical().id_salt("side-scroll").show(ui, |ui| {
+                egui::CollapsingHeader::new(RichText::new("Design criteria").heading())
+                    .default_open(true)
+                    .show(ui, |ui| criteria_ui::criteria_ui(self, ui));
+                ui.separator();
+                ui.heading("Findings");
+                findings_ui::findings_ui(self, ui);
+            });
+        });
+        egui::CentralPanel::default().show(ui, |ui| {
+            plot_ui::plot_toolbar_ui(self, ui);
+            plot_ui::plot_ui(self, ui);
+        });
+        about_ui::about_ui(self, &ctx);
+        self.dialogs_ui(&ctx);
+        self.apply_queued();
+        self.autosave(ctx.input(|i| i.time));
+    }
+
+    fn command_button(&mut self, ui: &mut egui::Ui, command: UiCommand, enabled: bool) {
+        let mut button = egui::Button::new(command.label());
+        if let Some(s) = command.shortcut() {
+            button = button.shortcut_text(ui.ctx().format_shortcut(&s));
+        }
+        if ui.add_enabled(enabled, button).clicked() {
+            self.push(command.action());
+            ui.close();
+        }
+    }
+
+    fn menu_ui(&mut self, ui: &mut egui::Ui) {
+        egui::MenuBar::new().ui(ui, |ui| {
+            ui.menu_button("File", |ui| {
+                for c in [
+                    UiCommand::NewMetric,
+                    UiCommand::NewUs,
+                    UiCommand::Open,
+                    UiCommand::Save,
+                    UiCommand::SaveAs,
+                ] {
+                    self.command_button(ui, c, true);
+                }
+                ui.menu_button("Recent files", |ui| {
+                    if self.recent().is_empty() {
+                        ui.label("None yet");
+                    }
+                    for path in self.recent().to_vec() {
+                        if ui.button(path.display().to_string()).clicked() {
+                            self.push(Action::Open(Some(path)));
+                            ui.close();
+                        }
+                    }
+                });
+                ui.separator();
+                ui.label("Path (when no file dialog is available):");
+                ui.add(
+                    egui::TextEdit::singleline(&mut self.view.path_text).hint_text("/path/to/project.ron"),
+                );
+                ui.horizontal(|ui| {
+                    let path = PathBuf::from(self.view.path_text.trim());
+                    let ok = !self.view.path_text.trim().is_empty();
+                    if ui.add_enabled(ok, egui::Button::new("Open path")).clicked() {
+                        self.push(Action::Open(Some(path.clone())));
+                        ui.close();
+                    }
+                    if ui.add_enabled(ok, egui::Button::new("Save to path")).clicked() {
+                        self.push(Action::SaveAs(Some(path)));
+                        ui.close();
+                    }
+                });
+                ui.separator();
+                self.command_button(ui, UiCommand::Quit, true);
+            });
+            ui.menu_button("Edit", |ui| {
+                let (undo, redo) = self.can_undo_redo();
+                self.command_button(ui, UiCommand::Undo, undo);
+                self.command_button(ui, UiCommand::Redo, redo);
+                ui.separator();
+                let selected = self.view.selected.is_some();
+                self.command_button(ui, UiCommand::Insert, true);
+                self.command_button(ui, UiCommand::Delete, selected && self.project().pvis.len() > 2);
+                self.command_button(ui, UiCommand::Previous, true);
+                self.command_button(ui, UiCommand::Next, true);
+            });
+            ui.menu_button("View", |ui| {
+                self.command_button(ui, UiCommand::Fit, true);
+                ui.separator();
+                egui::widgets::global_theme_preference_buttons(ui);
+            });
+            ui.menu_button("Help", |ui| self.command_button(ui, UiCommand::About, true));
+            ui.separator();
+            let mut name = self.project().name.clone();
+            let response =
+                ui.add(egui::TextEdit::singleline(&mut name).desired_width(320.0).hint_text("Project name"));
+            if response.changed() {
+                self.push(Action::edit(Edit::SetName(name)));
+            }
+        });
+    }
+
+    fn status_ui(&mut self, ui: &mut egui::Ui) {
+        ui.horizontal(|ui| {
+            ui.label(RichText::new(format!("⚠ {CAUTION_SHORT}")).color(ui.visuals().warn_fg_color))
+                .on_hover_text("Help ▸ About & cautions");
+            ui.separator();
+            if let Some(notice) = &self.notice {
+                let text = RichText::new(&notice.text);
+                ui.label(if notice.error { text.color(ui.visuals().error_fg_color) } else { text });
+            }
+        });
+    }
+
+    fn dialogs_ui(&mut self, ctx: &egui::Context) {
+        let Some(pending) = self.pending.clone() else { return };
+        let mut answer = None;
+        egui::Modal::new(egui::Id::unique("pending-dialog")).show(ctx, |ui| match &pending {
+            Pending::UnsavedChanges(_) => {
+                ui.heading("Unsaved changes");
+                ui.label(format!("“{}” has changes that are not saved.", self.project().name));
+                ui.horizontal(|ui| {
+                    if ui.button("Save first").clicked() {
+                        answer = Some(1);
+                    }
+                    if ui.button("Discard changes").clicked() {
+                        answer = Some(2);
+                    }
+                    if ui.button("Cancel").clicked() {
+                        answer = Some(0);
+                    }
+                });
+            }
+            Pending::Recovery(p) => {
+                ui.heading("Recover unsaved work?");
+                ui.label(format!(
+                    "Gradewright found unsaved work from an earlier session: “{}”, {} PVIs.",
+                    p.name,
+                    p.pvis.len()
+                ));
+                ui.horizontal(|ui| {
+                    if ui.button("Recover it").clicked() {
+                        answer = Some(1);
+                    }
+                    if ui.button("Discard it").clicked() {
+                        answer = Some(2);
+                    }
+                });
+            }
+        });
+        let Some(answer) = answer else { return };
+        self.pending = None;
+        match (pending, answer) {
+            (Pending::UnsavedChanges(action), 1) => self.resolve_unsaved(true, *action),
+            (Pending::UnsavedChanges(action), 2) => self.resolve_unsaved(false, *action),
+            (Pending::Recovery(project), 1) => self.accept_recovery(*project),
+            (Pending::Recovery(_), 2) => self.discard_recovery(),
+            _ => {}
+        }
+    }
+}
+
+/// The eframe shell around [`GradewrightApp`]: window title, close guard.
+struct Shell {
+    app: GradewrightApp,
+    title: String,
+}
+
+impl eframe::App for Shell {
+    fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
+        let ctx = ui.ctx().clone();
+        if ctx.input(|i| i.viewport().close_requested()) && !self.app.may_close() {
+            ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
+            self.app.push(Action::Quit);
+        }
+        self.app.show(ui);
+        if self.app.close_requested {
+            self.app.close_requested = false;
+            self.app.discard_recovery();
+            ctx.send_viewport_cmd(egui::ViewportCommand::Close);
+        }
+        let title = self.app.title();
+        if title != self.title {
+            ctx.send_viewport_cmd(egui::ViewportCommand::Title(title.clone()));
+            self.title = title;
+        }
+        // Autosave runs on a timer even when nothing moves.
+        ctx.request_repaint_after(std::time::Duration::from_secs(5));
+    }
+}
+
+/// Opens the editor window on `path`, or on the demo project.
+///
+/// # Errors
+/// When no window can be opened (no display).
+pub fn run(path: Option<&Path>) -> anyhow::Result<()> {
+    let files = AppFiles::new(default_config_dir());
+    let app = match path {
+        Some(p) => GradewrightApp::with_file(p, files),
+        None => GradewrightApp::with_demo(files),
+    };
+    let title = app.title();
+    let options = eframe::NativeOptions {
+        viewport: egui::ViewportBuilder::default().with_title(title.clone()).with_inner_size([1500.0, 950.0]),
+        ..Default::default()
+    };
+    eframe::run_native("Gradewright", options, Box::new(move |_cc| Ok(Box::new(Shell { app, title }))))
+        .map_err(|e| anyhow::anyhow!("could not open the window: {e}"))
+}

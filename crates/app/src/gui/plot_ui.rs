@@ -1,0 +1,336 @@
+//! The profile plot: tangents and true parabolas, PVI handles that drag,
+//! PVC/PVT and high/low marks, grade labels, failing curves flagged.
+
+use egui::{Align2, Pos2, RichText};
+use egui_plot::{
+    Legend, Line, LineStyle, MarkerShape, Plot, PlotBounds, PlotPoint, PlotPoints, Points, Text,
+};
+use gradewright_geometry::{CurveKind, Station, format_station};
+
+use super::app::GradewrightApp;
+use super::command::Action;
+use super::derived::curve_polyline;
+use super::theme::Palette;
+use super::view::ViewRequest;
+
+/// How close (in points) the pointer must be to grab a PVI handle.
+const GRAB_RADIUS: f32 = 12.0;
+
+/// The PVI nearest to `pointer` within the grab radius, by last frame's transform.
+fn hit_test(app: &GradewrightApp, pointer: Option<Pos2>) -> Option<usize> {
+    let transform = app.view.last_transform.as_ref()?;
+    let pointer = pointer?;
+    if !transform.frame().contains(pointer) {
+        return None;
+    }
+    app.project()
+        .pvis
+        .iter()
+        .enumerate()
+        .map(|(i, p)| {
+            let at = transform.position_from_point(&PlotPoint::new(p.station.0, p.elevation));
+            (i, at.distance(pointer))
+        })
+        .filter(|(_, d)| *d <= GRAB_RADIUS)
+        .min_by(|a, b| a.1.total_cmp(&b.1))
+        .map(|(i, _)| i)
+}
+
+/// The controls above the plot.
+pub fn plot_toolbar_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
+    ui.horizontal_wrapped(|ui| {
+        ui.label("Vertical exaggeration");
+        ui.add(egui::DragValue::new(&mut app.view.exaggeration).range(1.0..=50.0).speed(0.2).suffix(" : 1"));
+        ui.separator();
+        ui.checkbox(&mut app.view.snap, "Snap drags to");
+        let len = app.project().units.length_symbol();
+        ui.add(
+            egui::DragValue::new(&mut app.view.snap_station)
+                .range(0.001..=1000.0)
+                .speed(0.1)
+                .suffix(format!(" {len}")),
+        );
+        ui.label("stations,");
+        ui.add(
+            egui::DragValue::new(&mut app.view.snap_elevation)
+                .range(0.001..=100.0)
+                .speed(0.01)
+                .suffix(format!(" {len}")),
+        );
+        ui.label("elevations");
+        ui.separator();
+        if ui.button("Fit to profile").on_hover_text("F").clicked() {
+            app.push(Action::FitView);
+        }
+    });
+    ui.label(
+        RichText::new("Drag a PVI to move it · double-click a tangent to add a PVI · right-click for more · hover for station, elevation and grade")
+            .weak()
+            .small(),
+    );
+}
+
+/// The profile plot.
+#[allow(clippy::too_many_lines)]
+pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
+    let units = app.project().units;
+    let len = units.length_symbol();
+    let palette = Palette::of(ui);
+    let pointer =
+        ui.input(|i| if i.pointer.primary_down() { i.pointer.press_origin() } else { i.pointer.hover_pos() });
+    let hit = hit_test(app, pointer);
+    let hovering_handle = hit.is_some() || app.view.dragging.is_some();
+    if hovering_handle {
+        ui.ctx().set_cursor_icon(egui::CursorIcon::Grab);
+    }
+    let alignment = app.derived().alignment.clone();
+    let station_decimals = units.station_decimals();
+    let plot = Plot::new("profile-plot")
+        .data_aspect(app.view.exaggeration)
+        .allow_drag(!hovering_handle)
+        .allow_double_click_reset(false)
+        .x_axis_label("Station")
+        .y_axis_label(format!("Elevation ({len})"))
+        .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
+        .legend(Legend::default().position(egui_plot::Corner::RightBottom))
+        .label_formatter(move |hover| {
+            let p = match hover {
+                egui_plot::HoverPosition::NearDataPoint { position, .. }
+                | egui_plot::HoverPosition::Elsewhere { position } => *position,
+            };
+            let station = format_station(p.x, units, station_decimals);
+            let on_profile = alignment.as_ref().and_then(|a| a.sample(Station(p.x)).ok());
+            Some(match on_profile {
+                Some(s) => format!(
+                    "{station}\nprofile {:.3} {len}\ngrade {:+.3} %\npointer {:.3} {len}",
+                    s.elevation, s.grade_percent, p.y
+                ),
+                None => format!("{station}\npointer {:.3} {len}", p.y),
+            })
+        });
+    let response = plot.show(ui, |pui| {
+        if let Some(request) = app.view.view_request.take() {
+            let bounds = match request {
+                ViewRequest::Fit => fit_bounds(app),
+                ViewRequest::Range { x, y } => Some(PlotBounds::from_min_max([x.0, y.0], [x.1, y.1])),
+            };
+            if let Some(bounds) = bounds {
+                pui.set_plot_bounds(bounds);
+            }
+        }
+        let resp = pui.response().clone();
+        if resp.drag_started()
+            && let Some(i) = hit
+        {
+            app.begin_drag(i);
+            app.view.dragging = Some(i);
+        }
+        if let Some(i) = app.view.dragging {
+            if let Some(pos) = resp.interact_pointer_pos() {
+                let p = pui.plot_from_screen(pos);
+                app.drag_to(i, p.x, p.y);
+            }
+            if resp.drag_stopped() {
+                app.end_drag();
+                app.view.dragging = None;
+            }
+        }
+        if resp.clicked() {
+            app.view.selected = hit;
+        }
+        if resp.double_clicked()
+            && hit.is_none()
+            && let Some(pos) = resp.interact_pointer_pos()
+        {
+            let station = pui.plot_from_screen(pos).x;
+            app.insert_at(station);
+        }
+        if resp.secondary_clicked() {
+            app.view.context_station = resp.interact_pointer_pos().map(|p| pui.plot_from_screen(p).x);
+            if let Some(i) = hit {
+                app.view.selected = Some(i);
+            }
+        }
+        draw_items(app, pui, palette);
+    });
+    app.view.last_transform = Some(response.transform);
+    response.response.context_menu(|ui| {
+        if let Some(station) = app.view.context_station
+            && ui
+                .button(format!("Insert PVI at {}", format_station(station, units, station_decimals)))
+                .clicked()
+        {
+            app.insert_at(station);
+            ui.close();
+        }
+        let selected = app.view.selected;
+        if ui.add_enabled(selected.is_some(), egui::Button::new("Delete selected PVI")).clicked() {
+            app.push(Action::DeleteSelected);
+            ui.close();
+        }
+        if let Some(i) = selected
+            && ui.button(format!("Zoom to PVI {}", i + 1)).clicked()
+        {
+            app.push(Action::Focus(i));
+            ui.close();
+        }
+        if ui.button("Fit to profile").clicked() {
+            app.push(Action::FitView);
+            ui.close();
+        }
+    });
+    // A drag whose release was not seen by the plot still ends.
+    if app.view.dragging.is_some() && !ui.input(|i| i.pointer.primary_down()) {
+        app.end_drag();
+        app.view.dragging = None;
+    }
+}
+
+fn fit_bounds(app: &GradewrightApp) -> Option<PlotBounds> {
+    let pvis = &app.project().pvis;
+    let mut xs = pvis.iter().map(|p| p.station.0).chain(app.project().ground.iter().map(|g| g.station));
+    let first = xs.next()?;
+    let (x0, x1) = xs.fold((first, first), |(a, b), x| (a.min(x), b.max(x)));
+    let ys = pvis.iter().map(|p| p.elevation).chain(app.project().ground.iter().map(|g| g.elevation));
+    let (y0, y1) = ys.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), y| (a.min(y), b.max(y)));
+    let dx = (x1 - x0).max(1.0) * 0.04;
+    let dy = (y1 - y0).max(1.0) * 0.15;
+    Some(PlotBounds::from_min_max([x0 - dx, y0 - dy], [x1 + dx, y1 + dy]))
+}
+
+#[allow(clippy::too_many_lines)]
+fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Palette) {
+    let project = app.project();
+    let derived = app.derived();
+    let units = project.units;
+    // Screen offsets in plot units, for labels above and below points.
+    let dy = 1.0 / pui.transform().dpos_dvalue_y().abs().max(1e-12);
+    let up = |points: f64| points * dy;
+
+    if !project.ground.is_empty() {
+        let ground: Vec<[f64; 2]> = project.ground.iter().map(|g| [g.station, g.elevation]).collect();
+        pui.line(Line::new("Existing ground", PlotPoints::from(ground)).color(palette.ground).width(1.5));
+    }
+    pui.line(
+        Line::new("Grade lines", PlotPoints::from(derived.grade_line.clone()))
+            .color(palette.grade_line)
+            .style(LineStyle::dashed_loose())
+            .width(1.0),
+    );
+    if derived.line.is_empty() {
+        // Curves that overlap: draw each on its own so the designer sees them.
+        for c in &derived.curves {
+            pui.line(
+                Line::new("Profile (invalid)", PlotPoints::from(curve_polyline(c)))
+                    .color(palette.fail)
+                    .width(2.0),
+            );
+        }
+    } else {
+        pui.line(
+            Line::new("Profile", PlotPoints::from(derived.line.clone())).color(palette.profile).width(2.0),
+        );
+    }
+    let failing: Vec<usize> = derived.report.curves.iter().filter(|c| !c.ok).map(|c| c.curve.index).collect();
+    for c in derived.curves.iter().filter(|c| failing.contains(&c.index) && c.length() > 0.0) {
+        pui.line(
+            Line::new("Failing curve", PlotPoints::from(curve_polyline(c)))
+                .color(palette.fail)
+                .width(4.0)
+                .style(LineStyle::dashed_dense()),
+        );
+    }
+    // PVC and PVT marks.
+    let ends: Vec<[f64; 2]> = derived
+        .curves
+        .iter()
+        .filter(|c| c.length() > 0.0)
+        .flat_map(|c| [[c.pvc.0, c.pvc_elevation], [c.pvt.0, c.pvt_elevation]])
+        .collect();
+    pui.points(
+        Points::new("PVC / PVT", PlotPoints::from(ends))
+            .shape(MarkerShape::Square)
+            .radius(3.0)
+            .color(palette.marks),
+    );
+    // High and low points.
+    for c in &derived.curves {
+        if let Some((s, e)) = c.turning {
+            let (shape, label, anchor, offset) = match c.kind {
+                CurveKind::Crest => (MarkerShape::Up, "HP", Align2::CENTER_BOTTOM, up(6.0)),
+                _ => (MarkerShape::Down, "LP", Align2::CENTER_TOP, -up(6.0)),
+            };
+            pui.points(
+                Points::new("High / low point", vec![[s.0, e]]).shape(shape).radius(5.0).color(palette.marks),
+            );
+            pui.text(
+                Text::new("", PlotPoint::new(s.0, e + offset), label).anchor(anchor).color(palette.marks),
+            );
+        }
+    }
+    // Grade labels at the middle of each grade line.
+    for pair in project.pvis.windows(2) {
+        let [a, b] = pair else { continue };
+        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
+        if !grade.is_finite() {
+            continue;
+        }
+        let x = 0.5 * (a.station.0 + b.station.0);
+        let y = 0.5 * (a.elevation + b.elevation) - up(10.0);
+        pui.text(
+            Text::new("", PlotPoint::new(x, y), RichText::new(format!("{grade:+.2} %")).size(13.0))
+                .anchor(Align2::CENTER_TOP)
+                .color(palette.text),
+        );
+    }
+    // PVI handles and labels.
+    let handles: Vec<[f64; 2]> = project.pvis.iter().map(|p| [p.station.0, p.elevation]).collect();
+    pui.points(
+        Points::new("PVI", PlotPoints::from(handles))
+            .shape(MarkerShape::Circle)
+            .radius(5.0)
+            .color(palette.handle),
+    );
+    for (i, p) in project.pvis.iter().enumerate() {
+        let (text, color) = if failing.contains(&i) {
+            (format!("✖ PVI {} {}", i + 1, derived.fail_summary(i)), palette.fail)
+        } else {
+            (format!("PVI {}", i + 1), palette.text)
+        };
+        pui.text(
+            Text::new("", PlotPoint::new(p.station.0, p.elevation + up(12.0)), RichText::new(text).strong())
+                .anchor(Align2::CENTER_BOTTOM)
+                .color(color),
+        );
+        if failing.contains(&i) {
+            pui.points(
+                Points::new("Failing curve", vec![[p.station.0, p.elevation]])
+                    .shape(MarkerShape::Cross)
+                    .radius(9.0)
+                    .color(palette.fail),
+            );
+        }
+    }
+    if let Some(i) = app.view.selected
+        && let Some(p) = project.pvis.get(i)
+    {
+        pui.points(
+            Points::new("Selected PVI", vec![[p.station.0, p.elevation]])
+                .shape(MarkerShape::Circle)
+                .filled(false)
+                .radius(10.0)
+                .color(palette.selected),
+        );
+        let label = format!(
+            "{}  el. {:.3} {}",
+            format_station(p.station.0, units, units.station_decimals()),
+            p.elevation,
+            units.length_symbol()
+        );
+        pui.text(
+            Text::new("", PlotPoint::new(p.station.0, p.elevation - up(14.0)), label)
+                .anchor(Align2::CENTER_TOP)
+                .color(palette.selected),
+        );
+    }
+}

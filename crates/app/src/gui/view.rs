@@ -1,0 +1,156 @@
+//! Runtime-only view state: never saved in the project file.
+
+use std::collections::HashMap;
+
+use egui_plot::PlotTransform;
+use gradewright_geometry::Project;
+
+use super::derived::Derived;
+
+/// What the plot should show on the next frame.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ViewRequest {
+    /// The whole profile.
+    Fit,
+    /// A station range and elevation range.
+    Range {
+        /// Stations.
+        x: (f64, f64),
+        /// Elevations.
+        y: (f64, f64),
+    },
+}
+
+/// A text cell being edited: its text, and why it was refused if it was.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct CellBuffer {
+    /// What the user typed.
+    pub text: String,
+    /// Why the text was refused.
+    pub error: Option<String>,
+}
+
+/// Which text cell.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+pub enum CellId {
+    /// A PVI table cell: row and column.
+    Pvi(usize, PviColumn),
+    /// The design speed.
+    DesignSpeed,
+    /// A criterion value.
+    Criterion(gradewright_geometry::CriterionId),
+    /// The station snap increment.
+    SnapStation,
+    /// The elevation snap increment.
+    SnapElevation,
+}
+
+/// Editable columns of the PVI table.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+pub enum PviColumn {
+    /// Station.
+    Station,
+    /// Elevation.
+    Elevation,
+    /// Total curve length.
+    Length,
+    /// Length before the PVI.
+    LengthIn,
+    /// Length after the PVI.
+    LengthOut,
+}
+
+/// View state of the editor.
+#[derive(Clone, Debug)]
+pub struct ViewState {
+    /// Selected PVI.
+    pub selected: Option<usize>,
+    /// Vertical exaggeration of the plot (10 = 10:1).
+    pub exaggeration: f32,
+    /// Whether dragging snaps to the increments.
+    pub snap: bool,
+    /// Station snap increment.
+    pub snap_station: f64,
+    /// Elevation snap increment.
+    pub snap_elevation: f64,
+    /// About & cautions window open.
+    pub show_about: bool,
+    /// Pending change of the plot view.
+    pub view_request: Option<ViewRequest>,
+    /// Cells being edited.
+    pub cells: HashMap<CellId, CellBuffer>,
+    /// Last frame's plot transform (for hit-testing before the plot is shown).
+    pub last_transform: Option<PlotTransform>,
+    /// PVI being dragged in the plot.
+    pub dragging: Option<usize>,
+    /// Plot station where the context menu was opened.
+    pub context_station: Option<f64>,
+    /// Path typed in the File menu (works without a file dialog).
+    pub path_text: String,
+}
+
+impl Default for ViewState {
+    fn default() -> Self {
+        Self {
+            selected: None,
+            exaggeration: 10.0,
+            snap: false,
+            snap_station: 1.0,
+            snap_elevation: 0.01,
+            show_about: false,
+            view_request: None,
+            cells: HashMap::new(),
+            last_transform: None,
+            dragging: None,
+            context_station: None,
+            path_text: String::new(),
+        }
+    }
+}
+
+impl ViewState {
+    /// Shows the whole profile on the next frame.
+    pub fn request_fit(&mut self) {
+        self.view_request = Some(ViewRequest::Fit);
+    }
+
+    /// Brings PVI `index` and its curve into view on the next frame.
+    pub fn request_focus(&mut self, project: &Project, derived: &Derived, index: usize) {
+        let Some(pvi) = project.pvis.get(index) else { return };
+        let curve = derived.curves.iter().find(|c| c.index == index);
+        let (mut x0, mut x1) = match curve {
+            Some(c) if c.length() > 0.0 => (c.pvc.0, c.pvt.0),
+            _ => (pvi.station.0, pvi.station.0),
+        };
+        let span = (x1 - x0).max(project.units.station_length() * 0.1);
+        x0 -= span;
+        x1 += span;
+        let ys: Vec<f64> = project
+            .pvis
+            .iter()
+            .filter(|p| p.station.0 >= x0 && p.station.0 <= x1)
+            .map(|p| p.elevation)
+            .chain(std::iter::once(pvi.elevation))
+            .collect();
+        let y0 = ys.iter().copied().fold(f64::INFINITY, f64::min);
+        let y1 = ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        self.view_request = Some(ViewRequest::Range { x: (x0, x1), y: (y0 - 2.0, y1 + 2.0) });
+    }
+
+    /// Snaps a point to the increments when snapping is on.
+    pub fn snap(&self, station: f64, elevation: f64) -> (f64, f64) {
+        if !self.snap {
+            return (station, elevation);
+        }
+        let round = |v: f64, step: f64| if step > 0.0 { (v / step).round() * step } else { v };
+        (round(station, self.snap_station), round(elevation, self.snap_elevation))
+    }
+
+    /// Forgets everything tied to the old project.
+    pub fn reset_for_new_project(&mut self) {
+        self.selected = None;
+        self.cells.clear();
+        self.dragging = None;
+        self.request_fit();
+    }
+}
