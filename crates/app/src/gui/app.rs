@@ -63,7 +63,8 @@ impl GradewrightApp {
     pub fn new(project: Project, path: Option<PathBuf>, files: AppFiles) -> Self {
         let derived = Derived::compute(&project);
         let recent = files.recent();
-        let saved = path.as_ref().map(|_| project.clone());
+        // The project as given is the clean state: nothing to lose yet.
+        let saved = Some(project.clone());
         let mut app = Self {
             project,
             path,
@@ -174,9 +175,11 @@ impl GradewrightApp {
         }
     }
 
-    fn replace_project(&mut self, project: Project, path: Option<PathBuf>) {
+    /// Shows another project; `clean` says whether it counts as saved
+    /// (opened or new) or holds work that still needs saving (recovered).
+    fn replace_project(&mut self, project: Project, path: Option<PathBuf>, clean: bool) {
         self.project = project;
-        self.saved = path.as_ref().map(|_| self.project.clone());
+        self.saved = clean.then(|| self.project.clone());
         self.path = path;
         self.history.clear();
         self.view.reset_for_new_project();
@@ -265,7 +268,7 @@ impl GradewrightApp {
     pub fn open_path(&mut self, path: &Path) -> bool {
         match Project::load(path) {
             Ok(project) => {
-                self.replace_project(project, Some(path.to_owned()));
+                self.replace_project(project, Some(path.to_owned()), true);
                 self.note_recent(path);
                 self.notice = Some(Notice { error: false, text: format!("Opened {}", path.display()) });
                 true
@@ -321,7 +324,7 @@ impl GradewrightApp {
 
     /// Takes the recovered project offered at start.
     pub fn accept_recovery(&mut self, project: Project) {
-        self.replace_project(project, None);
+        self.replace_project(project, None, false);
         self.notice =
             Some(Notice { error: false, text: "Recovered unsaved work; save it to keep it".to_owned() });
     }
@@ -381,7 +384,7 @@ impl GradewrightApp {
                     Units::UsCustomary => (3000.0, 30.0),
                 };
                 project.pvis = vec![Pvi::new(0.0, 100.0), Pvi::new(length, 100.0 + rise)];
-                self.replace_project(project, None);
+                self.replace_project(project, None, true);
             }
             Action::Open(Some(path)) => {
                 self.open_path(&path);
@@ -492,9 +495,13 @@ impl GradewrightApp {
         self.insert_at(0.5 * (start + end));
     }
 
-    /// Applies every action queued during the frame.
-    pub fn apply_queued(&mut self) {
+    /// Applies every action queued during the frame, and asks for another
+    /// frame to show the result.
+    pub fn apply_queued(&mut self, ctx: &egui::Context) {
         let actions = std::mem::take(&mut self.actions);
+        if !actions.is_empty() {
+            ctx.request_repaint();
+        }
         for action in actions {
             self.apply(action);
         }

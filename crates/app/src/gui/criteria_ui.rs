@@ -25,7 +25,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         ui.label("Design speed");
         let current = criteria.design_speed.map_or_else(String::new, |v| format!("{v}"));
         let id = CellId::DesignSpeed;
-        if let Some(text) = edit_cell(ui, &mut app.view, id, &current, 60.0, "Design speed") {
+        if let Some(text) = edit_cell(ui, &mut app.view, id, &current, 60.0, "Design speed value") {
             let parsed = parse_number(&text).and_then(|v| {
                 if v > 0.0 && v <= 400.0 { Ok(v) } else { Err(format!("{v} is not a design speed")) }
             });
@@ -39,13 +39,15 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         ui.label("");
         ui.end_row();
 
-        ui.label("Terrain");
+        let label = ui.label("Terrain");
         let mut terrain = criteria.terrain;
-        egui::ComboBox::from_id_salt("terrain").selected_text(terrain.label()).show_ui(ui, |ui| {
-            for t in Terrain::ALL {
-                ui.selectable_value(&mut terrain, t, t.label());
-            }
-        });
+        let combo =
+            egui::ComboBox::from_id_salt("terrain").selected_text(terrain.label()).show_ui(ui, |ui| {
+                for t in Terrain::ALL {
+                    ui.selectable_value(&mut terrain, t, t.label());
+                }
+            });
+        let _ = combo.response.labelled_by(label.id);
         if terrain != criteria.terrain {
             let mut c = criteria.clone();
             c.terrain = terrain;
@@ -77,7 +79,9 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                 (Setting::Computed, None) => String::new(),
             };
             let cell = CellId::Criterion(id);
-            if let Some(text) = edit_cell(ui, &mut app.view, cell, &shown, 60.0, id.label()) {
+            if let Some(text) =
+                edit_cell(ui, &mut app.view, cell, &shown, 60.0, &format!("{} value", id.label()))
+            {
                 let parsed = parse_number(&text)
                     .and_then(|v| if v < 0.0 { Err(format!("{v} is negative")) } else { Ok(v) });
                 if let Some(v) = settle(&mut app.view, cell, &text, parsed) {

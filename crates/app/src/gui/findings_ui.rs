@@ -9,11 +9,13 @@ use super::command::Action;
 use super::table_ui::status_text;
 use super::theme::Palette;
 
-/// The findings list.
+/// The findings list. Failures first, then by station; each row shows the
+/// severity, stations, code and message (the full message on hover). Only
+/// the rows in view are built.
 pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let palette = Palette::of(ui);
     let units = app.project().units;
-    let findings = app.derived().report.findings.clone();
+    let findings = &app.derived().report.findings;
     let count = |s| findings.iter().filter(|f| f.severity == s).count();
     ui.label(format!(
         "{} fail · {} warn · {} note",
@@ -25,38 +27,51 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         ui.label(RichText::new("✔ No findings: every check passes").color(palette.ok));
         return;
     }
-    let mut sorted = findings;
-    sorted.sort_by(|a, b| b.severity.cmp(&a.severity).then(a.station_start.total_cmp(&b.station_start)));
-    egui::ScrollArea::vertical().id_salt("findings").auto_shrink([false, false]).show(ui, |ui| {
-        for f in &sorted {
-            let range = if f.station_start == f.station_end {
-                format_station(f.station_start.0, units, 1)
-            } else {
-                format!(
-                    "{} – {}",
-                    format_station(f.station_start.0, units, 1),
-                    format_station(f.station_end.0, units, 1)
-                )
-            };
-            let frame = egui::Frame::group(ui.style()).inner_margin(4.0);
-            let response = frame
-                .show(ui, |ui| {
-                    ui.set_width(ui.available_width());
-                    ui.horizontal(|ui| {
-                        ui.label(status_text(Some(f.severity), palette));
-                        ui.label(RichText::new(&range).monospace());
-                        ui.label(RichText::new(f.code).weak());
-                    });
-                    ui.add(egui::Label::new(&f.message).wrap());
-                })
-                .response
-                .interact(egui::Sense::click());
-            if response.clicked()
-                && let Some(i) = f.pvi
-            {
-                app.push(Action::Focus(i));
-            }
-            response.on_hover_text("Click to select and zoom to this PVI");
-        }
+    let mut order: Vec<usize> = (0..findings.len()).collect();
+    order.sort_by(|&a, &b| {
+        let (a, b) = (&findings[a], &findings[b]);
+        b.severity.cmp(&a.severity).then(a.station_start.total_cmp(&b.station_start))
     });
+    let mut clicked = None;
+    let row_height = 2.0 * ui.text_style_height(&egui::TextStyle::Body) + 14.0;
+    egui::ScrollArea::vertical().id_salt("findings").auto_shrink([false, true]).max_height(420.0).show_rows(
+        ui,
+        row_height,
+        order.len(),
+        |ui, rows| {
+            for &k in order.get(rows).unwrap_or(&[]) {
+                let Some(f) = findings.get(k) else { continue };
+                let range = if f.station_start == f.station_end {
+                    format_station(f.station_start.0, units, 1)
+                } else {
+                    format!(
+                        "{} – {}",
+                        format_station(f.station_start.0, units, 1),
+                        format_station(f.station_end.0, units, 1)
+                    )
+                };
+                let response = egui::Frame::group(ui.style())
+                    .inner_margin(3.0)
+                    .show(ui, |ui| {
+                        ui.set_width(ui.available_width());
+                        ui.set_height(row_height - 12.0);
+                        ui.horizontal(|ui| {
+                            ui.label(status_text(Some(f.severity), palette));
+                            ui.label(RichText::new(&range).monospace());
+                            ui.label(RichText::new(f.code).weak());
+                        });
+                        ui.add(egui::Label::new(&f.message).truncate());
+                    })
+                    .response
+                    .interact(egui::Sense::click());
+                if response.clicked() {
+                    clicked = f.pvi;
+                }
+                response.on_hover_text(format!("{}\n\nClick to select and zoom to this PVI", f.message));
+            }
+        },
+    );
+    if let Some(i) = clicked {
+        app.push(Action::Focus(i));
+    }
 }

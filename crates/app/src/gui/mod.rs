@@ -55,7 +55,7 @@ impl GradewrightApp {
         });
         about_ui::about_ui(self, &ctx);
         self.dialogs_ui(&ctx);
-        self.apply_queued();
+        self.apply_queued(&ctx);
         self.autosave(ctx.input(|i| i.time));
     }
 

@@ -206,6 +206,18 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
     // Screen offsets in plot units, for labels above and below points.
     let dy = 1.0 / pui.transform().dpos_dvalue_y().abs().max(1e-12);
     let up = |points: f64| points * dy;
+    // Labels only where they can be read: in view and not crowded.
+    let bounds = pui.plot_bounds();
+    let (x_min, x_max) = (bounds.min()[0], bounds.max()[0]);
+    let points_per_unit = pui.transform().dpos_dvalue_x().abs();
+    let visible = |x: f64| x >= x_min && x <= x_max;
+    let spacing = |i: usize| {
+        let gap = |j: usize, k: usize| match (project.pvis.get(j), project.pvis.get(k)) {
+            (Some(a), Some(b)) => (b.station - a.station) * points_per_unit,
+            _ => f64::INFINITY,
+        };
+        gap(i.wrapping_sub(1), i).min(gap(i, i + 1))
+    };
 
     if !project.ground.is_empty() {
         let ground: Vec<[f64; 2]> = project.ground.iter().map(|g| [g.station, g.elevation]).collect();
@@ -255,7 +267,10 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
     );
     // High and low points.
     for c in &derived.curves {
-        if let Some((s, e)) = c.turning {
+        if let Some((s, e)) = c.turning
+            && visible(s.0)
+            && spacing(c.index) >= 45.0
+        {
             let (shape, label, anchor, offset) = match c.kind {
                 CurveKind::Crest => (MarkerShape::Up, "HP", Align2::CENTER_BOTTOM, up(6.0)),
                 _ => (MarkerShape::Down, "LP", Align2::CENTER_TOP, -up(6.0)),
@@ -276,6 +291,9 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             continue;
         }
         let x = 0.5 * (a.station.0 + b.station.0);
+        if !visible(x) || (b.station - a.station) * points_per_unit < 70.0 {
+            continue;
+        }
         let y = 0.5 * (a.elevation + b.elevation) - up(10.0);
         pui.text(
             Text::new("", PlotPoint::new(x, y), RichText::new(format!("{grade:+.2} %")).size(13.0))
@@ -292,7 +310,11 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             .color(palette.handle),
     );
     for (i, p) in project.pvis.iter().enumerate() {
-        let (text, color) = if failing.contains(&i) {
+        let fails = failing.contains(&i);
+        if !visible(p.station.0) || (!fails && spacing(i) < 45.0) {
+            continue;
+        }
+        let (text, color) = if fails {
             (format!("✖ PVI {} {}", i + 1, derived.fail_summary(i)), palette.fail)
         } else {
             (format!("PVI {}", i + 1), palette.text)

@@ -52,31 +52,45 @@ pub fn table_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             app.push(Action::DeleteSelected);
         }
     });
-    egui::ScrollArea::both().auto_shrink([false, false]).show(ui, |ui| {
-        egui::Grid::new("pvi-table").striped(true).spacing([10.0, 4.0]).show(ui, |ui| {
-            for h in [
-                "PVI".to_owned(),
-                "Station".to_owned(),
-                format!("Elevation ({len})"),
-                format!("Curve L ({len})"),
-                "L in".to_owned(),
-                "L out".to_owned(),
-                "Grade in".to_owned(),
-                "Grade out".to_owned(),
-                "A".to_owned(),
-                format!("K ({ks})"),
-                "K min".to_owned(),
-                format!("L req ({len})"),
-                "Status".to_owned(),
-            ] {
-                ui.label(RichText::new(h).strong());
-            }
-            ui.end_row();
-            for i in 0..n {
-                row_ui(app, ui, i, palette);
+    // Only the rows in view are built (a long profile has hundreds of PVIs).
+    let row_height = ui.spacing().interact_size.y + 4.0;
+    let headers = [
+        "PVI".to_owned(),
+        "Station".to_owned(),
+        format!("Elevation ({len})"),
+        format!("Curve L ({len})"),
+        "L in".to_owned(),
+        "L out".to_owned(),
+        "Grade in".to_owned(),
+        "Grade out".to_owned(),
+        "A".to_owned(),
+        format!("K ({ks})"),
+        "K min".to_owned(),
+        format!("L req ({len})"),
+        "Status".to_owned(),
+    ];
+    if let Some(i) = app.view.scroll_to_row.take() {
+        app.view.table_scroll = Some(row_height * i.saturating_sub(2) as f32);
+    }
+    let mut area = egui::ScrollArea::both().id_salt("pvi-rows").auto_shrink([false, false]);
+    if let Some(offset) = app.view.table_scroll.take() {
+        area = area.vertical_scroll_offset(offset);
+    }
+    area.show_rows(ui, row_height, n + 1, |ui, rows| {
+        egui::Grid::new("pvi-table")
+            .striped(true)
+            .spacing([10.0, 4.0])
+            .min_row_height(row_height - 4.0)
+            .show(ui, |ui| {
+                for h in &headers {
+                    ui.label(RichText::new(h).strong());
+                }
                 ui.end_row();
-            }
-        });
+                for i in rows.start.saturating_sub(1)..rows.end.saturating_sub(1).min(n) {
+                    row_ui(app, ui, i, palette);
+                    ui.end_row();
+                }
+            });
     });
 }
 

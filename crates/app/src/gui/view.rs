@@ -87,6 +87,10 @@ pub struct ViewState {
     pub context_station: Option<f64>,
     /// Path typed in the File menu (works without a file dialog).
     pub path_text: String,
+    /// A table row to scroll into view on the next frame.
+    pub scroll_to_row: Option<usize>,
+    /// A table scroll offset to apply on the next frame.
+    pub table_scroll: Option<f32>,
 }
 
 impl Default for ViewState {
@@ -104,6 +108,8 @@ impl Default for ViewState {
             dragging: None,
             context_station: None,
             path_text: String::new(),
+            scroll_to_row: None,
+            table_scroll: None,
         }
     }
 }
@@ -117,6 +123,7 @@ impl ViewState {
     /// Brings PVI `index` and its curve into view on the next frame.
     pub fn request_focus(&mut self, project: &Project, derived: &Derived, index: usize) {
         let Some(pvi) = project.pvis.get(index) else { return };
+        self.scroll_to_row = Some(index);
         let curve = derived.curves.iter().find(|c| c.index == index);
         let (mut x0, mut x1) = match curve {
             Some(c) if c.length() > 0.0 => (c.pvc.0, c.pvt.0),

@@ -1,0 +1,228 @@
+//! The editor driven through its real widgets with egui_kittest (no window,
+//! no GPU): type into cells, change criteria, drag a PVI, undo, open files.
+
+use egui::accesskit::Role;
+use egui_kittest::Harness;
+use egui_kittest::kittest::Queryable as _;
+use egui_plot::PlotPoint;
+use gradewright::gui::{Action, AppFiles, GradewrightApp};
+use gradewright_geometry::{CurveKind, Severity};
+
+fn harness(app: GradewrightApp) -> Harness<'static, GradewrightApp> {
+    let mut h = Harness::builder()
+        .with_size([1500.0, 950.0])
+        .build_ui_state(|ui, app: &mut GradewrightApp| app.show(ui), app);
+    h.run();
+    h
+}
+
+fn demo() -> Harness<'static, GradewrightApp> {
+    harness(GradewrightApp::with_demo(AppFiles::new(None)))
+}
+
+/// The demo's crest at PVI 4 (index 3): K = 90/5 = 18 < 26, the AASHTO metric
+/// minimum at 80 km/h (Table 3-34, from memory).
+fn crest_check(h: &Harness<'_, GradewrightApp>) -> gradewright_geometry::CurveCheck {
+    h.state()
+        .derived()
+        .report
+        .curves
+        .iter()
+        .find(|c| c.curve.index == 3)
+        .cloned()
+        .unwrap_or_else(|| panic!("no curve"))
+}
+
+fn replace_text(h: &mut Harness<'_, GradewrightApp>, label: &str, text: &str) {
+    h.get_by_label(label).click();
+    h.run();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::A);
+    h.get_by_label(label).type_text(text);
+    h.run();
+    h.key_press(egui::Key::Enter);
+    h.run();
+}
+
+#[test]
+fn typing_a_longer_length_fixes_the_failing_crest() {
+    let mut h = demo();
+    let before = crest_check(&h);
+    assert!(!before.ok);
+    assert_eq!(before.curve.kind, CurveKind::Crest);
+    assert_eq!(h.query_all_by_label("✖ fail").count(), 1 + 2, "one status cell and two findings");
+    replace_text(&mut h, "PVI 4 curve length", "140");
+    let after = crest_check(&h);
+    assert!((after.curve.length() - 140.0).abs() < 1e-9, "{}", after.curve.length());
+    // K = 140/5 = 28 ≥ 26: the status turns to ok.
+    assert!((after.curve.k().unwrap_or(0.0) - 28.0).abs() < 1e-9);
+    assert!(after.ok);
+    assert!(!h.state().derived().report.has_failures());
+    assert_eq!(h.query_all_by_label("✖ fail").count(), 0);
+    // One undo step brings back the failing length.
+    h.state_mut().push(Action::Undo);
+    h.run();
+    assert!((crest_check(&h).curve.length() - 90.0).abs() < 1e-9);
+}
+
+#[test]
+fn a_bad_entry_is_refused_in_place_and_never_reaches_the_model() {
+    let mut h = demo();
+    let project = h.state().project().clone();
+    replace_text(&mut h, "PVI 4 curve length", "-20");
+    assert_eq!(h.state().project(), &project);
+    assert!(h.query_by_label_contains("invalid").is_some(), "invalid mark shown");
+    replace_text(&mut h, "PVI 3 station", "abc");
+    assert_eq!(h.state().project(), &project);
+    // A station past its neighbour is refused too (it would reorder PVIs).
+    replace_text(&mut h, "PVI 3 station", "1+200");
+    assert_eq!(h.state().project(), &project);
+}
+
+#[test]
+fn raising_the_design_speed_flags_a_curve() {
+    let mut h = demo();
+    let sag_at_pvi_3 = |h: &Harness<'_, GradewrightApp>| {
+        h.state().derived().report.curves.iter().find(|c| c.curve.index == 2).map(|c| c.ok)
+    };
+    assert_eq!(sag_at_pvi_3(&h), Some(true));
+    replace_text(&mut h, "Design speed value", "100");
+    assert_eq!(h.state().project().criteria.design_speed, Some(100.0));
+    // 100 km/h: sag K 45 (AASHTO metric Table 3-36, from memory); 160/4 = 40 < 45.
+    assert_eq!(sag_at_pvi_3(&h), Some(false));
+    let flagged =
+        h.state().derived().report.findings.iter().any(|f| f.code == "sag.k-min" && f.pvi == Some(2));
+    assert!(flagged);
+}
+
+#[test]
+fn dragging_a_pvi_moves_it_and_one_undo_restores_it_exactly() {
+    let mut h = demo();
+    let original = h.state().project().clone();
+    let pvi = original.pvis[2];
+    let transform = h.state().view.last_transform.unwrap_or_else(|| panic!("plot not shown"));
+    let from = transform.position_from_point(&PlotPoint::new(pvi.station.0, pvi.elevation));
+    let to = from + egui::vec2(25.0, -40.0);
+    h.hover_at(from);
+    h.run();
+    h.drag_at(from);
+    h.run();
+    for step in 1..=5u8 {
+        let t = f32::from(step) / 5.0;
+        h.hover_at(from + (to - from) * t);
+        h.step();
+    }
+    // Live: the model follows the pointer during the drag.
+    let moving = h.state().project().pvis[2];
+    assert!(moving.elevation > pvi.elevation + 0.5, "{} vs {}", moving.elevation, pvi.elevation);
+    h.drop_at(to);
+    h.run();
+    let moved = h.state().project().pvis[2];
+    assert!(moved.elevation > pvi.elevation + 0.5);
+    assert!(moved.station.0 > pvi.station.0, "station follows the pointer too");
+    // The plot did not pan: the same point maps to the same place.
+    let after = h.state().view.last_transform.unwrap_or_else(|| panic!("plot not shown"));
+    let same = after.position_from_point(&PlotPoint::new(pvi.station.0, pvi.elevation));
+    assert!((same - from).length() < 0.5, "plot panned by {:?}", same - from);
+    // The whole drag is one undo step.
+    h.state_mut().push(Action::Undo);
+    h.run();
+    assert_eq!(h.state().project(), &original);
+    h.state_mut().push(Action::Redo);
+    h.run();
+    assert_eq!(h.state().project().pvis[2], moved);
+}
+
+#[test]
+fn a_dragged_pvi_stops_at_its_neighbours() {
+    let mut h = demo();
+    let app = h.state_mut();
+    app.begin_drag(2);
+    app.drag_to(2, 5000.0, 216.6);
+    app.end_drag();
+    let p = app.project();
+    let next = p.pvis[3];
+    // PVI 3's curve (160 m) and PVI 4's (90 m) may touch but not overlap.
+    let pvt = p.pvis[2].station.0 + p.pvis[2].curve.length_out();
+    assert!(pvt <= next.station.0 - next.curve.length_in() + 1e-6);
+    assert!(p.profile().problems().is_empty());
+}
+
+#[test]
+fn opening_a_malformed_file_shows_the_error_and_keeps_the_work() {
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let bad = dir.join("broken.ron");
+    std::fs::write(&bad, "Project(\n  format_version: 1,\n  units: Metric\n  pvis: [],\n)\n")
+        .unwrap_or_else(|e| panic!("{e}"));
+    let mut h = demo();
+    replace_text(&mut h, "PVI 4 curve length", "150");
+    let work = h.state().project().clone();
+    h.state_mut().push(Action::Open(Some(bad.clone())));
+    h.run();
+    // Unsaved changes are asked about first; discard to go ahead.
+    h.get_by_label("Discard changes").click();
+    h.run();
+    assert_eq!(h.state().project(), &work, "the current work is untouched");
+    let notice = h.state().notice.clone().unwrap_or_else(|| panic!("no message"));
+    assert!(notice.error);
+    assert!(notice.text.contains("broken.ron:4:"), "{}", notice.text);
+    assert!(h.query_by_label_contains("broken.ron:4:").is_some(), "the error is on screen");
+}
+
+#[test]
+fn save_reopen_and_title_mark() {
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-save-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let path = dir.join("alder.ron");
+    let mut h = demo();
+    replace_text(&mut h, "PVI 4 curve length", "140");
+    assert!(h.state().title().contains('●'), "{}", h.state().title());
+    h.state_mut().push(Action::SaveAs(Some(path.clone())));
+    h.run();
+    assert!(!h.state().is_dirty());
+    assert!(h.state().title().starts_with("alder.ron"), "{}", h.state().title());
+    let saved = h.state().project().clone();
+    let mut other = harness(GradewrightApp::new(
+        gradewright_geometry::Project::new("x", gradewright_geometry::Units::Metric),
+        None,
+        AppFiles::new(Some(dir.clone())),
+    ));
+    other.state_mut().push(Action::Open(Some(path.clone())));
+    other.run();
+    assert_eq!(other.state().project(), &saved);
+    assert_eq!(other.state().recent().first().and_then(|p| p.file_name()), path.file_name());
+}
+
+#[test]
+fn delete_and_insert_keep_at_least_two_pvis() {
+    let mut h = demo();
+    let n = h.state().project().pvis.len();
+    h.state_mut().view.selected = Some(1);
+    h.state_mut().push(Action::DeleteSelected);
+    h.run();
+    assert_eq!(h.state().project().pvis.len(), n - 1);
+    for _ in 0..10 {
+        h.state_mut().view.selected = Some(0);
+        h.state_mut().push(Action::DeleteSelected);
+        h.run();
+    }
+    assert_eq!(h.state().project().pvis.len(), 2);
+    h.state_mut().view.selected = Some(0);
+    h.state_mut().push(Action::InsertAfterSelected);
+    h.run();
+    assert_eq!(h.state().project().pvis.len(), 3);
+    assert!(h.state().project().profile().problems().is_empty());
+}
+
+#[test]
+fn findings_list_and_cautions_are_shown() {
+    let mut h = demo();
+    let fails = h.state().derived().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    assert_eq!(fails, 2);
+    assert!(h.query_by_label_contains("crest.k-min").is_some());
+    assert!(h.query_by_label_contains("licensed engineer").is_some());
+    h.state_mut().push(Action::ToggleAbout);
+    h.run();
+    assert!(h.query_by_label_contains("licensed professional engineer").is_some());
+    let _ = h.get_all_by_role(Role::TextInput).count();
+}
