@@ -229,14 +229,16 @@ impl eframe::App for Shell {
     }
 }
 
-/// Opens the editor window on `path`, or on the demo project.
+/// Opens the editor window on `path`; without one, on the most recent file
+/// that still exists, or (on first start) on the demo project.
 ///
 /// # Errors
 /// When no window can be opened (no display).
 pub fn run(path: Option<&Path>) -> anyhow::Result<()> {
     let files = AppFiles::new(default_config_dir());
-    let app = match path {
-        Some(p) => GradewrightApp::with_file(p, files),
+    let last = files.recent().into_iter().find(|p| p.is_file());
+    let app = match path.map(Path::to_owned).or(last) {
+        Some(p) => GradewrightApp::with_file(&p, files),
         None => GradewrightApp::with_demo(files),
     };
     let title = app.title();
