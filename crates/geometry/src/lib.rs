@@ -23,6 +23,7 @@ pub mod sight;
 mod station;
 pub mod synthetic;
 mod units;
+pub mod visibility;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
 pub use checks::{CheckReport, CurveCheck, Finding, Severity, check_profile, structural_findings};

@@ -6,3 +6,4 @@ mod curve_relations;
 mod files;
 mod lengths;
 mod properties;
+mod visibility;

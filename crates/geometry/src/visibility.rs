@@ -1,0 +1,392 @@
+//! Available sight distance along the whole profile, in both directions.
+//!
+//! * Daylight (crest) sight distance: the longest distance ahead over which an
+//!   object of height h2 on the road stays visible from an eye h1 above the
+//!   road, over the actual profile. The object at distance t is visible when
+//!   the line eye→object clears the road everywhere between: with
+//!   φ(u) = (y(u) − E)/u the road's angle from the eye and
+//!   ψ(t) = φ(t) + h2/t the object's, it is visible while ψ(t) ≥ max φ(u), u < t.
+//! * Headlight (sag, night) sight distance: the distance ahead at which the
+//!   beam, H above the road and tilted up by β from the grade the vehicle is
+//!   on, meets the road surface.
+//!
+//! Both are solved exactly on each piece of constant y″ (on a piece y is a
+//! quadratic, so each condition is a quadratic in t): no sampling, so the
+//! results match the closed-form AASHTO length formulas. Beyond the ends the
+//! end tangents are taken to continue (common practice for tie-ins).
+
+use crate::{Alignment, Segment, Station, Units, sight};
+
+/// Which way the vehicle travels.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Direction {
+    /// Towards increasing stations.
+    Forward,
+    /// Towards decreasing stations.
+    Backward,
+}
+
+/// Heights and angle for sight distance, in the project's units.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SightSetup {
+    /// Driver eye height h1.
+    pub eye_height: f64,
+    /// Object height h2.
+    pub object_height: f64,
+    /// Headlight height H.
+    pub headlight_height: f64,
+    /// Upward divergence of the beam β, degrees.
+    pub headlight_angle_deg: f64,
+    /// Whether headlight sight distance counts (off for lit roads).
+    pub headlights: bool,
+    /// Distances are not looked for beyond this.
+    pub cap: f64,
+}
+
+/// The road seen by a vehicle travelling one way: pieces in travel order,
+/// with the last one running on without end.
+#[derive(Clone, Debug)]
+pub struct Road {
+    pieces: Vec<Segment>,
+}
+
+impl Road {
+    /// The road for `direction`. Backward, stations are negated (s → −s).
+    pub fn new(alignment: &Alignment, direction: Direction) -> Self {
+        let segments = alignment.segments();
+        let mut pieces: Vec<Segment> = match direction {
+            Direction::Forward => segments.to_vec(),
+            Direction::Backward => segments
+                .iter()
+                .rev()
+                .map(|seg| Segment {
+                    start: -seg.end,
+                    end: -seg.start,
+                    elevation: seg.elevation_at(seg.end),
+                    grade: -seg.grade_at(seg.end),
+                    rate: seg.rate,
+                })
+                .collect(),
+        };
+        if let Some(last) = pieces.last().copied() {
+            pieces.push(Segment {
+                start: last.end,
+                end: f64::INFINITY,
+                elevation: last.elevation_at(last.end),
+                grade: last.grade_at(last.end),
+                rate: 0.0,
+            });
+        }
+        Self { pieces }
+    }
+
+    /// The index of the piece holding road station `s` (the first when before).
+    fn piece_index(&self, s: f64) -> usize {
+        let i = self.pieces.partition_point(|p| p.end <= s);
+        i.min(self.pieces.len().saturating_sub(1))
+    }
+
+    /// Road elevation at road station `s`, end tangents extended (for tests
+    /// and reference methods).
+    pub fn elevation(&self, s: f64) -> f64 {
+        let first = self.pieces.first();
+        match first {
+            Some(p) if s < p.start => p.elevation + p.grade * (s - p.start),
+            _ => self.pieces.get(self.piece_index(s)).map_or(f64::NAN, |p| p.elevation_at(s)),
+        }
+    }
+
+    /// Daylight sight distance from road station `s`, up to `setup.cap`.
+    pub fn daylight(&self, s: f64, setup: &SightSetup) -> f64 {
+        let start = self.piece_index(s);
+        let Some(here) = self.pieces.get(start) else { return 0.0 };
+        let eye = here.elevation_at(s) + setup.eye_height;
+        let h2 = setup.object_height;
+        let mut running = f64::NEG_INFINITY;
+        for piece in self.pieces.iter().skip(start) {
+            let p = (piece.start - s).max(0.0);
+            let q = (piece.end - s).min(setup.cap);
+            if q <= p {
+                if piece.end - s >= setup.cap {
+                    break;
+                }
+                continue;
+            }
+            // On this piece, road − eye = a + g·t + c·t² with t = distance ahead.
+            let a = piece.elevation_at(s) - eye;
+            let g = piece.grade_at(s);
+            let c = 0.5 * piece.rate;
+            let phi = |t: f64| if t > 0.0 { a / t + g + c * t } else { f64::NEG_INFINITY };
+            // Split where φ turns (φ′ = −a/t² + c = 0), so φ is monotone on each part.
+            let turn = if a * c > 0.0 { (a / c).sqrt() } else { f64::NAN };
+            let cuts = if turn > p && turn < q { [p, turn, q] } else { [p, q, q] };
+            for w in cuts.windows(2) {
+                let [lo, hi] = [w[0], w[1]];
+                if hi <= lo {
+                    continue;
+                }
+                let mid = 0.5 * (lo + hi);
+                let rising = -a / (mid * mid) + c > 0.0;
+                let level = if rising { running } else { running.max(phi(lo)) };
+                if level > f64::NEG_INFINITY
+                    && let Some(t) = first_negative(a + h2, g - level, c, lo, hi)
+                {
+                    return t;
+                }
+                running = running.max(phi(lo)).max(phi(hi));
+            }
+            if piece.end - s >= setup.cap {
+                break;
+            }
+        }
+        setup.cap
+    }
+
+    /// Headlight sight distance from road station `s`, up to `setup.cap`.
+    pub fn headlight(&self, s: f64, setup: &SightSetup) -> f64 {
+        let start = self.piece_index(s);
+        let Some(here) = self.pieces.get(start) else { return 0.0 };
+        let base = here.elevation_at(s) + setup.headlight_height;
+        let slope = here.grade_at(s) + setup.headlight_angle_deg.to_radians().tan();
+        for piece in self.pieces.iter().skip(start) {
+            let p = (piece.start - s).max(0.0);
+            let q = (piece.end - s).min(setup.cap);
+            if q > p {
+                // beam − road = −(a + b·t + c·t²); it meets the road where that reaches 0.
+                let a = piece.elevation_at(s) - base;
+                let b = piece.grade_at(s) - slope;
+                let c = 0.5 * piece.rate;
+                if let Some(t) = first_negative(-a, -b, -c, p.max(1e-9), q) {
+                    return t;
+                }
+            }
+            if piece.end - s >= setup.cap {
+                break;
+            }
+        }
+        setup.cap
+    }
+}
+
+/// Reference method, slow: ray marching on a grid of step `h`, tracking the
+/// highest road angle seen from the eye; the object is hidden once its angle
+/// falls below it. For tests and benchmarks of [`Road::daylight`].
+pub fn reference_daylight(road: &Road, s: f64, setup: &SightSetup, h: f64) -> f64 {
+    let eye = road.elevation(s) + setup.eye_height;
+    let mut highest = f64::NEG_INFINITY;
+    let mut k = 1.0;
+    while k * h <= setup.cap {
+        let t = k * h;
+        let y = road.elevation(s + t);
+        if (y + setup.object_height - eye) / t < highest {
+            return t;
+        }
+        highest = highest.max((y - eye) / t);
+        k += 1.0;
+    }
+    setup.cap
+}
+
+/// Reference method, slow: marches the beam on a grid of step `h` until the
+/// road reaches it. For tests and benchmarks of [`Road::headlight`].
+pub fn reference_headlight(road: &Road, s: f64, setup: &SightSetup, h: f64) -> f64 {
+    let base = road.elevation(s) + setup.headlight_height;
+    let grade = (road.elevation(s + 1e-4) - road.elevation(s - 1e-4)) / 2e-4;
+    let slope = grade + setup.headlight_angle_deg.to_radians().tan();
+    let mut k = 1.0;
+    while k * h <= setup.cap {
+        let t = k * h;
+        if road.elevation(s + t) >= base + slope * t {
+            return t;
+        }
+        k += 1.0;
+    }
+    setup.cap
+}
+
+/// The smallest t in [lo, hi] with c0 + c1·t + c2·t² < 0, if any.
+fn first_negative(c0: f64, c1: f64, c2: f64, lo: f64, hi: f64) -> Option<f64> {
+    let f = |t: f64| c0 + t * (c1 + c2 * t);
+    if f(lo) < 0.0 {
+        return Some(lo);
+    }
+    let scale = c0.abs() + (c1 * hi).abs() + (c2 * hi * hi).abs();
+    let mut roots = [f64::NAN; 2];
+    if c2.abs() * hi * hi <= 1e-14 * scale.max(1e-300) {
+        if c1 != 0.0 {
+            roots[0] = -c0 / c1;
+        }
+    } else {
+        let disc = c1 * c1 - 4.0 * c2 * c0;
+        if disc < 0.0 {
+            return None;
+        }
+        let q = -0.5 * (c1 + c1.signum() * disc.sqrt());
+        roots = [q / c2, if q == 0.0 { f64::NAN } else { c0 / q }];
+        if roots[0] > roots[1] {
+            roots.swap(0, 1);
+        }
+    }
+    roots.into_iter().filter(|r| r.is_finite() && *r > lo && *r <= hi).find(|&r| c1 + 2.0 * c2 * r < 0.0)
+}
+
+/// Available and required sight distance at one station.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SightSample {
+    /// The station.
+    pub station: f64,
+    /// Available distance travelling forward (governing: daylight and headlight).
+    pub forward: f64,
+    /// Available distance travelling backward.
+    pub backward: f64,
+    /// Required stopping sight distance travelling forward.
+    pub required_forward: f64,
+    /// Required stopping sight distance travelling backward.
+    pub required_backward: f64,
+}
+
+/// What the required stopping sight distance is at each station.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Requirement {
+    /// The design SSD everywhere.
+    Design(f64),
+    /// The SSD for the grade the vehicle is on (downgrades need more), from
+    /// speed, reaction time and deceleration (AASHTO grade formula).
+    GradeAdjusted {
+        /// Units of the formula.
+        units: Units,
+        /// Design speed.
+        speed: f64,
+        /// Perception–reaction time, s.
+        reaction_s: f64,
+        /// Deceleration.
+        decel: f64,
+    },
+}
+
+impl Requirement {
+    fn at(self, grade_decimal: f64) -> f64 {
+        match self {
+            Self::Design(d) => d,
+            Self::GradeAdjusted { units, speed, reaction_s, decel } => {
+                sight::stopping_sight_distance_on_grade(units, speed, reaction_s, decel, grade_decimal)
+            }
+        }
+    }
+}
+
+/// Sight distance along a whole profile.
+#[derive(Clone, Debug)]
+pub struct SightProfile {
+    /// One sample per station, in station order.
+    pub samples: Vec<SightSample>,
+}
+
+/// Stations every `step` from the start, plus the end.
+pub fn stations_every(alignment: &Alignment, step: f64) -> Vec<f64> {
+    let (start, end) = (alignment.start().0, alignment.end().0);
+    if step.is_nan() || step <= 0.0 || step.is_infinite() {
+        return vec![start, end];
+    }
+    let n = ((end - start) / step).floor().clamp(0.0, 5.0e7);
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let n = n as u64;
+    #[allow(clippy::cast_precision_loss)]
+    let mut stations: Vec<f64> = (0..=n).map(|k| start + k as f64 * step).filter(|s| *s <= end).collect();
+    if stations.last().is_none_or(|s| end - s > 1e-9 * step) {
+        stations.push(end);
+    }
+    stations
+}
+
+/// Computes available and required sight distance at `stations` (sorted).
+pub fn sight_profile(
+    alignment: &Alignment,
+    setup: &SightSetup,
+    requirement: Requirement,
+    stations: &[f64],
+) -> SightProfile {
+    let forward = Road::new(alignment, Direction::Forward);
+    let backward = Road::new(alignment, Direction::Backward);
+    let mut cursor = alignment.cursor();
+    let samples = stations
+        .iter()
+        .map(|&s| {
+            let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
+            let governing = |road: &Road, at: f64| {
+                let day = road.daylight(at, setup);
+                if setup.headlights { day.min(road.headlight(at, setup)) } else { day }
+            };
+            SightSample {
+                station: s,
+                forward: governing(&forward, s),
+                backward: governing(&backward, -s),
+                required_forward: requirement.at(grade),
+                required_backward: requirement.at(-grade),
+            }
+        })
+        .collect();
+    SightProfile { samples }
+}
+
+/// A stretch where available sight distance falls short, one direction.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Shortfall {
+    /// Direction of travel.
+    pub direction: Direction,
+    /// First failing station.
+    pub start: f64,
+    /// Last failing station.
+    pub end: f64,
+    /// Station with the largest shortfall.
+    pub worst: f64,
+    /// Available distance there.
+    pub available: f64,
+    /// Required distance there.
+    pub required: f64,
+}
+
+impl SightProfile {
+    /// Every run of consecutive stations where available < required, per
+    /// direction, with the worst station of each. `tolerance` is a relative
+    /// allowance (a distance within it of the requirement passes).
+    pub fn shortfalls(&self, tolerance: f64) -> Vec<Shortfall> {
+        let mut out = Vec::new();
+        for direction in [Direction::Forward, Direction::Backward] {
+            let mut current: Option<Shortfall> = None;
+            for s in &self.samples {
+                let (available, required) = match direction {
+                    Direction::Forward => (s.forward, s.required_forward),
+                    Direction::Backward => (s.backward, s.required_backward),
+                };
+                if available < required * (1.0 - tolerance) {
+                    let short = required - available;
+                    match &mut current {
+                        Some(run) => {
+                            run.end = s.station;
+                            if short > run.required - run.available {
+                                run.worst = s.station;
+                                run.available = available;
+                                run.required = required;
+                            }
+                        }
+                        None => {
+                            current = Some(Shortfall {
+                                direction,
+                                start: s.station,
+                                end: s.station,
+                                worst: s.station,
+                                available,
+                                required,
+                            });
+                        }
+                    }
+                } else if let Some(run) = current.take() {
+                    out.push(run);
+                }
+            }
+            out.extend(current);
+        }
+        out
+    }
+}
