@@ -73,6 +73,37 @@ pub enum Command {
         #[arg(long, value_name = "N")]
         decimals: Option<usize>,
     },
+    /// Available and required sight distance along the profile, as CSV
+    Sight {
+        /// Project file (.ron) or PVI table (.csv)
+        input: PathBuf,
+        /// Units of a CSV input
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+        /// Design speed (km/h or mph); overrides the project's
+        #[arg(long)]
+        design_speed: Option<f64>,
+        /// Station step (default 1 m or 5 ft)
+        #[arg(long)]
+        step: Option<f64>,
+    },
+    /// Lengthen every failing curve to the shortest length that clears it
+    Fit {
+        /// Project file (.ron) or PVI table (.csv)
+        input: PathBuf,
+        /// Where to write the fitted profile (same format as INPUT)
+        #[arg(short, long)]
+        output: PathBuf,
+        /// Units of a CSV input
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+        /// Round lengths up to this increment (default 5 m or 10 ft)
+        #[arg(long)]
+        increment: Option<f64>,
+        /// Design speed (km/h or mph); overrides the project's
+        #[arg(long)]
+        design_speed: Option<f64>,
+    },
     /// Check curves and grades against the design criteria
     Check {
         /// Project file (.ron) or PVI table (.csv)
@@ -154,18 +185,66 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             std::io::stdout().lock().write_all(&buffer).context("writing the table")?;
             Ok(ExitCode::SUCCESS)
         }
+        Some(Command::Sight { input, units, design_speed, step }) => {
+            let mut loaded = load_input(&input, units.map(Into::into))?;
+            if let Some(step) = step {
+                if !step.is_finite() || step <= 0.0 {
+                    bail!("--step: {step} is not a positive length");
+                }
+                loaded.project.criteria.sight_step = gradewright_geometry::Setting::Override(step);
+            }
+            let criteria = resolve(&mut loaded.project, design_speed, &input)?;
+            let alignment = build(&loaded)?;
+            let Some(sight) = gradewright_geometry::compute_sight(&alignment, &criteria) else {
+                bail!(
+                    "--step: more than {} stations for a profile {} long",
+                    gradewright_geometry::MAX_SIGHT_STATIONS,
+                    alignment.end() - alignment.start()
+                );
+            };
+            let mut buffer = Vec::new();
+            gradewright_sheet::write_sight_table(&mut buffer, &sight)?;
+            std::io::stdout().lock().write_all(&buffer).context("writing the table")?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Some(Command::Fit { input, output, units, increment, design_speed }) => {
+            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let criteria = resolve(&mut loaded.project, design_speed, &input)?;
+            build(&loaded)?;
+            let project = &loaded.project;
+            let increment = increment.unwrap_or(match project.units {
+                Units::Metric => 5.0,
+                Units::UsCustomary => 10.0,
+            });
+            if !increment.is_finite() || increment <= 0.0 {
+                bail!("--increment: {increment} is not a positive length");
+            }
+            let profile = project.profile();
+            let report = check_profile(&profile, &criteria);
+            let targets = report.failing_curves();
+            let (fitted, outcomes) =
+                gradewright_geometry::lengthen_to_clear(&profile, &criteria, &targets, increment);
+            let mut out = project.clone();
+            out.pvis = fitted.pvis;
+            let after = check_profile(&out.profile(), &criteria);
+            write_like_input(&out, &input, &output)?;
+            let mut text = String::new();
+            if outcomes.is_empty() {
+                text.push_str("No curve fails; nothing to lengthen.\n");
+            }
+            for o in &outcomes {
+                text.push_str(&o.message);
+                text.push('\n');
+            }
+            let remaining =
+                after.findings.iter().filter(|f| f.severity == gradewright_geometry::Severity::Fail).count();
+            text.push_str(&format!("Wrote {} ({remaining} failing finding(s) remain).\n", output.display()));
+            std::io::stdout().lock().write_all(text.as_bytes())?;
+            Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
+        }
         Some(Command::Check { input, units, design_speed, format }) => {
             let mut project = load_input(&input, units.map(Into::into))?.project;
-            if let Some(v) = design_speed {
-                project.criteria.design_speed = Some(v);
-            }
-            let criteria = project.criteria.resolve(project.units).map_err(|e| match e {
-                gradewright_geometry::CriteriaError::NoDesignSpeed => anyhow!(
-                    "{}: no design speed: give --design-speed or set criteria.design_speed in the project",
-                    input.display()
-                ),
-                other => anyhow!("{}: criteria: {other}", input.display()),
-            })?;
+            let criteria = resolve(&mut project, design_speed, &input)?;
             let checks = check_profile(&project.profile(), &criteria);
             let text = match format {
                 Format::Text => report::text(&project, &criteria, &checks),
@@ -175,6 +254,41 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
     }
+}
+
+/// Resolves the criteria, with `--design-speed` taking precedence.
+fn resolve(
+    project: &mut gradewright_geometry::Project,
+    design_speed: Option<f64>,
+    input: &std::path::Path,
+) -> anyhow::Result<gradewright_geometry::ResolvedCriteria> {
+    if let Some(v) = design_speed {
+        project.criteria.design_speed = Some(v);
+    }
+    project.criteria.resolve(project.units).map_err(|e| match e {
+        gradewright_geometry::CriteriaError::NoDesignSpeed => anyhow!(
+            "{}: no design speed: give --design-speed or set criteria.design_speed in the project",
+            input.display()
+        ),
+        other => anyhow!("{}: criteria: {other}", input.display()),
+    })
+}
+
+/// Writes `project` in the format of `input`: a project file, or a PVI table.
+fn write_like_input(
+    project: &gradewright_geometry::Project,
+    input: &std::path::Path,
+    output: &std::path::Path,
+) -> anyhow::Result<()> {
+    let is_csv = input.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv"));
+    if is_csv {
+        let mut buffer = Vec::new();
+        gradewright_sheet::write_pvi_csv(&mut buffer, &project.pvis, project.units)?;
+        gradewright_geometry::write_atomic(output, &buffer, true)?;
+    } else {
+        project.save(output)?;
+    }
+    Ok(())
 }
 
 /// Builds the alignment, or one line naming file, line and field of the first

@@ -183,3 +183,44 @@ fn never_panics_on_odd_files() {
         }
     }
 }
+
+#[test]
+fn sight_writes_the_documented_csv() {
+    let o = run(&["sight", &asset("alder-brook-road.ron").to_string_lossy(), "--step", "10"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    let mut lines = text.lines();
+    assert_eq!(
+        lines.next(),
+        Some("station,available_forward,available_backward,required_forward,required_backward")
+    );
+    let rows: Vec<Vec<f64>> =
+        lines.map(|l| l.split(',').map(|v| v.parse().unwrap_or(f64::NAN)).collect()).collect();
+    assert_eq!(rows.len(), 201, "0 to 2000 every 10 m");
+    // The short crest at PVI 4 (L 90 m, A 5 %) leaves (L + C/A)/2 = 110.8 m at
+    // worst (S > L, C = 100(√2.16 + √1.2)², U. Idaho NIATT; derived) < 130 m.
+    let worst = rows.iter().map(|r| r[1]).fold(f64::INFINITY, f64::min);
+    assert!((worst - 110.8).abs() < 0.5, "{worst}");
+    assert!(rows.iter().all(|r| (r[3] - 130.0).abs() < 1e-9), "design SSD 130 m at 80 km/h");
+}
+
+#[test]
+fn fit_writes_the_same_format_and_reports() {
+    let dir = std::env::temp_dir().join(format!("gradewright-cli-fit-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let out = dir.join("fitted.ron");
+    let o = run(&["fit", &asset("alder-brook-road.ron").to_string_lossy(), "-o", &out.to_string_lossy()]);
+    assert_eq!(o.status.code(), Some(0), "{}{}", stdout(&o), stderr(&o));
+    assert!(stdout(&o).contains("PVI 4: lengthened from 90.00 m to 130.00 m"), "{}", stdout(&o));
+    let o = run(&["check", &out.to_string_lossy()]);
+    assert_eq!(o.status.code(), Some(0), "{}", stdout(&o));
+    // A CSV input gives a CSV output; at 70 mph one crest cannot fit.
+    let out = dir.join("fitted.csv");
+    let csv = asset("cedar-hollow-lane.csv").to_string_lossy().into_owned();
+    let o = run(&["fit", &csv, "--units", "us", "--design-speed", "70", "-o", &out.to_string_lossy()]);
+    assert_eq!(o.status.code(), Some(1));
+    assert!(stdout(&o).contains("only 500 ft fits"), "{}", stdout(&o));
+    let written = std::fs::read_to_string(&out).unwrap_or_default();
+    assert!(written.starts_with("station,elevation,curve_length\n"), "{written}");
+    assert!(written.contains("19+00.00,846.1,570"), "{written}");
+}

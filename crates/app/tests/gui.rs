@@ -49,7 +49,11 @@ fn typing_a_longer_length_fixes_the_failing_crest() {
     let before = crest_check(&h);
     assert!(!before.ok);
     assert_eq!(before.curve.kind, CurveKind::Crest);
-    assert_eq!(h.query_all_by_label("✖ fail").count(), 1 + 2, "one status cell and two findings");
+    // K, exact SSD length, and sight distance both ways: four failing findings,
+    // shown in the findings list, plus the status cell of PVI 4.
+    let fails = h.state().derived().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    assert_eq!(fails, 4);
+    assert_eq!(h.query_all_by_label("✖ fail").count(), 1 + fails, "one status cell and the findings");
     replace_text(&mut h, "PVI 4 curve length", "140");
     let after = crest_check(&h);
     assert!((after.curve.length() - 140.0).abs() < 1e-9, "{}", after.curve.length());
@@ -218,8 +222,10 @@ fn delete_and_insert_keep_at_least_two_pvis() {
 fn findings_list_and_cautions_are_shown() {
     let mut h = demo();
     let fails = h.state().derived().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
-    assert_eq!(fails, 2);
-    assert!(h.query_by_label_contains("crest.k-min").is_some());
+    assert_eq!(fails, 4);
+    for code in ["crest.k-min", "crest.ssd-length", "sight.forward", "sight.backward"] {
+        assert!(h.query_by_label_contains(code).is_some(), "{code}");
+    }
     assert!(h.query_by_label_contains("licensed engineer").is_some());
     h.state_mut().push(Action::ToggleAbout);
     h.run();

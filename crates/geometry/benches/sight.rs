@@ -17,6 +17,7 @@ fn setup() -> SightSetup {
         object_height: 0.6,
         headlight_height: 0.6,
         headlight_angle_deg: 1.0,
+        daylight: true,
         headlights: true,
         cap: 3.0 * 160.0,
     }

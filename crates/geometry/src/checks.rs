@@ -1,8 +1,9 @@
 //! Checks of a profile against resolved criteria: a list of structured findings.
 
+use crate::visibility::{Direction, Road, SightProfile, sight_profile, stations_every};
 use crate::{
-    CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, Station, Units,
-    interior_curves, sight,
+    Alignment, CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, Station,
+    Units, interior_curves, sight,
 };
 
 /// How serious a finding is.
@@ -71,12 +72,25 @@ pub struct CheckReport {
     pub findings: Vec<Finding>,
     /// One entry per interior PVI, in order (empty when stations are unusable).
     pub curves: Vec<CurveCheck>,
+    /// Available and required sight distance along the profile (when the
+    /// profile can be evaluated).
+    pub sight: Option<SightProfile>,
 }
 
 impl CheckReport {
     /// Whether any finding is a failure.
     pub fn has_failures(&self) -> bool {
         self.findings.iter().any(|f| f.severity == Severity::Fail)
+    }
+
+    /// The PVIs whose curves fail a criterion (curve checks or sight
+    /// distance), for "lengthen to clear".
+    pub fn failing_curves(&self) -> Vec<usize> {
+        self.curves
+            .iter()
+            .filter(|c| !c.ok && c.curve.kind != CurveKind::None)
+            .map(|c| c.curve.index)
+            .collect()
     }
 
     /// The worst severity on PVI `index`, if any finding names it.
@@ -99,9 +113,38 @@ pub fn structural_findings(profile: &Profile) -> Vec<Finding> {
     profile.problems().iter().map(|p| problem_finding(profile, p)).collect()
 }
 
+/// The most stations the sight distance is computed at (a 500 km profile at
+/// 1 m, or a step too small for the profile, is refused rather than run for
+/// minutes).
+pub const MAX_SIGHT_STATIONS: f64 = 5.0e6;
+
+/// Available and required sight distance of `alignment` at the criteria's
+/// step; `None` when that would take more than [`MAX_SIGHT_STATIONS`].
+pub fn compute_sight(alignment: &Alignment, criteria: &ResolvedCriteria) -> Option<SightProfile> {
+    let step = criteria.get(CriterionId::SightStep);
+    let count = (alignment.end() - alignment.start()) / step;
+    if count.is_nan() || count > MAX_SIGHT_STATIONS {
+        return None;
+    }
+    let stations = stations_every(alignment, step);
+    Some(sight_profile(alignment, &criteria.sight_setup(), criteria.sight_requirement(), &stations))
+}
+
 /// Checks `profile` against `criteria`: structural problems (as failures), then
-/// every curve and every tangent grade.
+/// every curve, every tangent grade, and the available sight distance at every
+/// station in both directions.
 pub fn check_profile(profile: &Profile, criteria: &ResolvedCriteria) -> CheckReport {
+    let sight = Alignment::new(profile).ok().and_then(|a| compute_sight(&a, criteria));
+    check_profile_with_sight(profile, criteria, sight)
+}
+
+/// As [`check_profile`], with the sight distance already computed (the editor
+/// recomputes only the stretch a change can affect).
+pub fn check_profile_with_sight(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    sight: Option<SightProfile>,
+) -> CheckReport {
     let mut report = CheckReport::default();
     let problems = profile.problems();
     let mut usable = true;
@@ -124,6 +167,26 @@ pub fn check_profile(profile: &Profile, criteria: &ResolvedCriteria) -> CheckRep
         report.curves.push(check);
     }
     check_grades(profile, criteria, &mut report.findings);
+    if problems.is_empty()
+        && let Ok(alignment) = Alignment::new(profile)
+    {
+        match &sight {
+            Some(sight) => check_sight(&alignment, criteria, sight, &mut report.findings),
+            None => report.findings.push(Finding {
+                severity: Severity::Warn,
+                code: "sight.not-computed",
+                station_start: alignment.start(),
+                station_end: alignment.end(),
+                pvi: None,
+                message: format!(
+                    "Sight distance was not checked: more than {MAX_SIGHT_STATIONS} stations at a step of {} {}",
+                    criteria.get(CriterionId::SightStep),
+                    criteria.units.length_symbol()
+                ),
+            }),
+        }
+    }
+    report.sight = sight;
     for check in &mut report.curves {
         let index = check.curve.index;
         check.ok = !report.findings.iter().any(|f| f.pvi == Some(index) && f.severity == Severity::Fail);
@@ -158,7 +221,21 @@ fn problem_finding(profile: &Profile, problem: &ProfileProblem) -> Finding {
     }
 }
 
-fn check_curve(
+/// Checks one curve against the curve criteria (K, sight-distance length,
+/// comfort, minimum length, drainage), adding its findings to `findings`.
+/// The `ok` of the result reflects these findings only.
+pub fn check_curve(
+    curve: &CurveGeometry,
+    criteria: &ResolvedCriteria,
+    findings: &mut Vec<Finding>,
+) -> CurveCheck {
+    let before = findings.len();
+    let mut check = check_curve_inner(curve, criteria, findings);
+    check.ok = !findings.iter().skip(before).any(|f| f.severity == Severity::Fail);
+    check
+}
+
+fn check_curve_inner(
     curve: &CurveGeometry,
     criteria: &ResolvedCriteria,
     findings: &mut Vec<Finding>,
@@ -298,6 +375,58 @@ fn check_curve(
     check.length_required =
         [k_min * a, sight, check.comfort_length.unwrap_or(0.0), min_length].into_iter().fold(0.0, f64::max);
     check
+}
+
+fn check_sight(
+    alignment: &Alignment,
+    criteria: &ResolvedCriteria,
+    sight: &SightProfile,
+    findings: &mut Vec<Finding>,
+) {
+    let units = criteria.units;
+    let len = units.length_symbol();
+    let setup = criteria.sight_setup();
+    let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
+    for short in sight.shortfalls(TOLERANCE) {
+        let (road, at, way) = match short.direction {
+            Direction::Forward => (&roads[0], short.worst, "forward (increasing stations)"),
+            Direction::Backward => (&roads[1], -short.worst, "backward (decreasing stations)"),
+        };
+        let day = road.daylight(at, &setup);
+        let governs = if setup.headlights && road.headlight(at, &setup) < day {
+            "headlight sight distance (sag, at night)"
+        } else {
+            "daylight sight distance over the crest"
+        };
+        // The PVI nearest the worst station names the curve to look at.
+        let pvi = alignment
+            .pvis()
+            .iter()
+            .enumerate()
+            .min_by(|a, b| {
+                (a.1.station.0 - short.worst).abs().total_cmp(&(b.1.station.0 - short.worst).abs())
+            })
+            .map(|(i, _)| i);
+        findings.push(Finding {
+            severity: Severity::Fail,
+            code: match short.direction {
+                Direction::Forward => "sight.forward",
+                Direction::Backward => "sight.backward",
+            },
+            station_start: Station(short.start),
+            station_end: Station(short.end),
+            pvi,
+            message: format!(
+                "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
+                 worst at {}: {:.1} {len} available",
+                label(units, Station(short.start)),
+                label(units, Station(short.end)),
+                short.required,
+                label(units, Station(short.worst)),
+                short.available
+            ),
+        });
+    }
 }
 
 fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut Vec<Finding>) {

@@ -52,6 +52,11 @@ pub struct Criteria {
     /// Whether the sag comfort length is checked (off by default: headlight
     /// sight distance normally governs).
     pub sag_comfort: bool,
+    /// Whether headlight sight distance is checked (off for lit roads).
+    pub headlight_check: bool,
+    /// Whether the required SSD at each station uses the grade the vehicle is
+    /// on (downgrades need more) instead of the level design SSD.
+    pub grade_adjusted_ssd: bool,
     /// Perception–reaction time, s.
     pub reaction_time: Setting,
     /// Braking deceleration.
@@ -80,6 +85,10 @@ pub struct Criteria {
     pub min_grade: Setting,
     /// K above which a curve's level point needs a drainage review.
     pub drainage_k: Setting,
+    /// Station step of the sight-distance computation.
+    pub sight_step: Setting,
+    /// Longest sight distance looked for.
+    pub sight_cap: Setting,
 }
 
 impl Default for Criteria {
@@ -88,6 +97,8 @@ impl Default for Criteria {
             design_speed: None,
             terrain: Terrain::default(),
             sag_comfort: false,
+            headlight_check: true,
+            grade_adjusted_ssd: false,
             reaction_time: Setting::Computed,
             deceleration: Setting::Computed,
             eye_height: Setting::Computed,
@@ -102,6 +113,8 @@ impl Default for Criteria {
             max_grade: Setting::Computed,
             min_grade: Setting::Computed,
             drainage_k: Setting::Computed,
+            sight_step: Setting::Computed,
+            sight_cap: Setting::Computed,
         }
     }
 }
@@ -124,6 +137,8 @@ pub enum CriterionId {
     MaxGrade,
     MinGrade,
     DrainageK,
+    SightStep,
+    SightCap,
 }
 
 /// What a criterion is measured in.
@@ -159,7 +174,7 @@ impl Quantity {
 
 impl CriterionId {
     /// Every criterion, in the order they are resolved and shown.
-    pub const ALL: [Self; 14] = [
+    pub const ALL: [Self; 16] = [
         Self::ReactionTime,
         Self::Deceleration,
         Self::EyeHeight,
@@ -174,6 +189,8 @@ impl CriterionId {
         Self::MaxGrade,
         Self::MinGrade,
         Self::DrainageK,
+        Self::SightStep,
+        Self::SightCap,
     ];
 
     /// Short label for tables and forms.
@@ -193,6 +210,8 @@ impl CriterionId {
             Self::MaxGrade => "Maximum grade",
             Self::MinGrade => "Minimum grade",
             Self::DrainageK => "Drainage review K",
+            Self::SightStep => "Sight-distance step",
+            Self::SightCap => "Sight-distance cap",
         }
     }
 
@@ -205,7 +224,9 @@ impl CriterionId {
             | Self::ObjectHeight
             | Self::HeadlightHeight
             | Self::StoppingSightDistance
-            | Self::MinCurveLength => Quantity::Length,
+            | Self::MinCurveLength
+            | Self::SightStep
+            | Self::SightCap => Quantity::Length,
             Self::HeadlightAngle => Quantity::Degrees,
             Self::CrestK | Self::SagK | Self::DrainageK => Quantity::K,
             Self::MaxGrade | Self::MinGrade => Quantity::Percent,
@@ -235,6 +256,8 @@ impl Criteria {
             CriterionId::MaxGrade => self.max_grade,
             CriterionId::MinGrade => self.min_grade,
             CriterionId::DrainageK => self.drainage_k,
+            CriterionId::SightStep => self.sight_step,
+            CriterionId::SightCap => self.sight_cap,
         }
     }
 
@@ -255,6 +278,8 @@ impl Criteria {
             CriterionId::MaxGrade => &mut self.max_grade,
             CriterionId::MinGrade => &mut self.min_grade,
             CriterionId::DrainageK => &mut self.drainage_k,
+            CriterionId::SightStep => &mut self.sight_step,
+            CriterionId::SightCap => &mut self.sight_cap,
         }
     }
 
@@ -275,6 +300,8 @@ impl Criteria {
             design_speed: speed,
             terrain: self.terrain,
             sag_comfort: self.sag_comfort,
+            headlight_check: self.headlight_check,
+            grade_adjusted_ssd: self.grade_adjusted_ssd,
             values: Vec::with_capacity(CriterionId::ALL.len()),
         };
         for id in CriterionId::ALL {
@@ -336,6 +363,10 @@ pub struct ResolvedCriteria {
     pub terrain: Terrain,
     /// Whether the sag comfort length is checked.
     pub sag_comfort: bool,
+    /// Whether headlight sight distance is checked.
+    pub headlight_check: bool,
+    /// Whether the required SSD follows the grade.
+    pub grade_adjusted_ssd: bool,
     values: Vec<Resolved>,
 }
 
@@ -366,6 +397,33 @@ impl ResolvedCriteria {
             self.get(CriterionId::HeadlightHeight),
             self.get(CriterionId::HeadlightAngle),
         )
+    }
+
+    /// Heights, beam angle and cap for the sight-distance computation.
+    pub fn sight_setup(&self) -> crate::visibility::SightSetup {
+        crate::visibility::SightSetup {
+            eye_height: self.get(CriterionId::EyeHeight),
+            object_height: self.get(CriterionId::ObjectHeight),
+            headlight_height: self.get(CriterionId::HeadlightHeight),
+            headlight_angle_deg: self.get(CriterionId::HeadlightAngle),
+            daylight: true,
+            headlights: self.headlight_check,
+            cap: self.get(CriterionId::SightCap),
+        }
+    }
+
+    /// What stopping sight distance each station needs.
+    pub fn sight_requirement(&self) -> crate::visibility::Requirement {
+        if self.grade_adjusted_ssd {
+            crate::visibility::Requirement::GradeAdjusted {
+                units: self.units,
+                speed: self.design_speed,
+                reaction_s: self.get(CriterionId::ReactionTime),
+                decel: self.get(CriterionId::Deceleration),
+            }
+        } else {
+            crate::visibility::Requirement::Design(self.get(CriterionId::StoppingSightDistance))
+        }
     }
 
     /// The computed (published-method) value of `id`, given the criteria resolved
@@ -457,6 +515,20 @@ impl ResolvedCriteria {
                 sight::drainage_k(units),
                 "curbed-road drainage review threshold (state design manuals; TxDOT)".to_owned(),
             ),
+            CriterionId::SightStep => (
+                match units {
+                    Units::Metric => 1.0,
+                    Units::UsCustomary => 5.0,
+                },
+                "one sample every 1 m or 5 ft (common practice)".to_owned(),
+            ),
+            CriterionId::SightCap => {
+                let ssd = self.get(CriterionId::StoppingSightDistance);
+                (
+                    3.0 * ssd,
+                    format!("3 × the design SSD ({ssd:.0} {len}); longer distances are not looked for"),
+                )
+            }
         }
     }
 }

@@ -17,6 +17,7 @@ mod checks;
 mod criteria;
 mod curve;
 mod edit;
+mod fit;
 mod profile;
 mod project;
 pub mod sight;
@@ -26,13 +27,17 @@ mod units;
 pub mod visibility;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
-pub use checks::{CheckReport, CurveCheck, Finding, Severity, check_profile, structural_findings};
+pub use checks::{
+    CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, Severity, check_curve, check_profile,
+    check_profile_with_sight, compute_sight, structural_findings,
+};
 pub use criteria::{
     Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, Setting, Terrain,
     max_grade_percent,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
 pub use edit::InsertError;
+pub use fit::{FitOutcome, lengthen_to_clear};
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, write_atomic};
 pub use station::{Station, StationError, format_station, parse_station};

@@ -37,6 +37,8 @@ pub struct SightSetup {
     pub headlight_height: f64,
     /// Upward divergence of the beam β, degrees.
     pub headlight_angle_deg: f64,
+    /// Whether daylight (crest) sight distance counts.
+    pub daylight: bool,
     /// Whether headlight sight distance counts (off for lit roads).
     pub headlights: bool,
     /// Distances are not looked for beyond this.
@@ -276,7 +278,7 @@ impl Requirement {
 }
 
 /// Sight distance along a whole profile.
-#[derive(Clone, Debug)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct SightProfile {
     /// One sample per station, in station order.
     pub samples: Vec<SightSample>,
@@ -314,7 +316,7 @@ pub fn sight_profile(
         .map(|&s| {
             let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
             let governing = |road: &Road, at: f64| {
-                let day = road.daylight(at, setup);
+                let day = if setup.daylight { road.daylight(at, setup) } else { setup.cap };
                 if setup.headlights { day.min(road.headlight(at, setup)) } else { day }
             };
             SightSample {
@@ -347,6 +349,24 @@ pub struct Shortfall {
 }
 
 impl SightProfile {
+    /// Recomputes the samples whose station lies in [`lo`, `hi`] (after a
+    /// change that cannot affect the others), keeping the rest.
+    pub fn update_range(
+        &mut self,
+        alignment: &Alignment,
+        setup: &SightSetup,
+        requirement: Requirement,
+        lo: f64,
+        hi: f64,
+    ) {
+        let start = self.samples.partition_point(|s| s.station < lo);
+        let end = self.samples.partition_point(|s| s.station <= hi);
+        let Some(slice) = self.samples.get(start..end) else { return };
+        let stations: Vec<f64> = slice.iter().map(|s| s.station).collect();
+        let fresh = sight_profile(alignment, setup, requirement, &stations);
+        self.samples.splice(start..end, fresh.samples);
+    }
+
     /// Every run of consecutive stations where available < required, per
     /// direction, with the worst station of each. `tolerance` is a relative
     /// allowance (a distance within it of the requirement passes).

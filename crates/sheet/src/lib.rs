@@ -5,4 +5,6 @@ mod pvi_csv;
 mod table;
 
 pub use pvi_csv::{CsvError, PviTable, read_pvi_csv, write_pvi_csv};
-pub use table::{TABLE_HEADER, TableError, interval_stations, write_station_table};
+pub use table::{
+    SIGHT_HEADER, TABLE_HEADER, TableError, interval_stations, write_sight_table, write_station_table,
+};

@@ -142,7 +142,10 @@ pub fn write_pvi_csv(out: impl Write, pvis: &[Pvi], units: Units) -> std::io::Re
         csv.write_record(["station", "elevation", "length_in", "length_out"]).map_err(map)?;
     }
     for p in pvis {
-        let station = format_station(p.station.0, units, 6);
+        // Station notation when it reads back exactly, else the plain number.
+        let label = format_station(p.station.0, units, units.station_decimals());
+        let exact = parse_station(&label, units).is_ok_and(|v| v.to_bits() == p.station.0.to_bits());
+        let station = if exact { label } else { format!("{}", p.station.0) };
         let mut row = vec![station, format!("{}", p.elevation)];
         if symmetric {
             row.push(format!("{}", p.curve.length()));

@@ -97,3 +97,31 @@ impl From<csv::Error> for TableError {
         Self::Io(e.to_string())
     }
 }
+
+/// The header of a sight-distance table.
+pub const SIGHT_HEADER: [&str; 5] =
+    ["station", "available_forward", "available_backward", "required_forward", "required_backward"];
+
+/// Writes available and required sight distance, one row per station
+/// (forward = towards increasing stations), numbers unrounded.
+///
+/// # Errors
+/// An I/O error of `out`.
+pub fn write_sight_table(
+    out: impl Write,
+    sight: &gradewright_geometry::visibility::SightProfile,
+) -> Result<(), TableError> {
+    let mut csv = csv::Writer::from_writer(out);
+    csv.write_record(SIGHT_HEADER)?;
+    for s in &sight.samples {
+        csv.write_record([
+            number(s.station, None),
+            number(s.forward, None),
+            number(s.backward, None),
+            number(s.required_forward, None),
+            number(s.required_backward, None),
+        ])?;
+    }
+    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    Ok(())
+}

@@ -176,3 +176,43 @@ fn overlap_is_a_failure_finding() {
     assert!(report.findings.iter().any(|f| f.code == "curve.overlap" && f.severity == Severity::Fail));
     assert_eq!(report.curves.len(), 2);
 }
+
+/// "Lengthen to clear" on a crest that fails at 80 km/h (A = 5 %, L = 90 m):
+/// the shortest multiple of 5 m meeting K ≥ 26 (AASHTO metric Table 3-34, from
+/// memory) is 130 m, and the available sight distance then clears 130 m.
+#[test]
+fn lengthen_to_clear_finds_the_shortest_clearing_length() {
+    let criteria = Criteria { design_speed: Some(80.0), ..Criteria::default() };
+    let resolved = criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+    let profile = Profile::new(
+        Units::Metric,
+        vec![Pvi::new(0.0, 100.0), Pvi::with_curve(400.0, 112.0, 90.0), Pvi::new(800.0, 104.0)],
+    );
+    let report = check_profile(&profile, &resolved);
+    assert_eq!(report.failing_curves(), vec![1]);
+    assert!(report.findings.iter().any(|f| f.code == "sight.forward"), "{:?}", report.findings);
+    let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[1], 5.0);
+    assert_close(fitted.pvis[1].curve.length(), 130.0, 1e-9, "K·A = 26 · 5");
+    assert!(outcomes[0].cleared, "{outcomes:?}");
+    assert!(!check_profile(&fitted, &resolved).has_failures());
+    // With a 20 m increment the answer rounds up to the next multiple, 140 m.
+    let (fitted, _) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[1], 20.0);
+    assert_close(fitted.pvis[1].curve.length(), 140.0, 1e-9, "rounded up to 20 m");
+}
+
+/// Where no length fits between the neighbours, nothing changes and the
+/// outcome says by how much it falls short (common practice).
+#[test]
+fn lengthen_to_clear_reports_what_does_not_fit() {
+    let criteria = Criteria { design_speed: Some(100.0), ..Criteria::default() };
+    let resolved = criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+    // Crest +4 % → −4 %, A = 8: needs K 52 · 8 = 416 m; the tangents leave 300 m.
+    let profile = Profile::new(
+        Units::Metric,
+        vec![Pvi::new(0.0, 100.0), Pvi::with_curve(150.0, 106.0, 100.0), Pvi::new(300.0, 100.0)],
+    );
+    let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[1], 5.0);
+    assert_eq!(fitted, profile);
+    assert!(!outcomes[0].cleared);
+    assert!(outcomes[0].message.contains("needs 420 m, only 300 m fits"), "{}", outcomes[0].message);
+}

@@ -17,6 +17,7 @@ fn setup(cap: f64, headlights: bool) -> SightSetup {
         object_height: 0.60,
         headlight_height: 0.60,
         headlight_angle_deg: 1.0,
+        daylight: true,
         headlights,
         cap,
     }

@@ -167,7 +167,7 @@ impl GradewrightApp {
 
     fn changed(&mut self) {
         self.revision += 1;
-        self.derived = Derived::compute(&self.project);
+        self.derived = Derived::compute_after(&self.project, Some(&self.derived));
         if let Some(sel) = self.view.selected
             && sel >= self.project.pvis.len()
         {
@@ -218,7 +218,7 @@ impl GradewrightApp {
                 }
                 self.view.selected = Some(index.min(last));
             }
-            Edit::SetCriteria(criteria) => self.project.criteria = criteria,
+            Edit::SetCriteria(criteria) => self.project.criteria = *criteria,
             Edit::SetName(name) => self.project.name = name,
             Edit::Replace(project) => self.project = *project,
         }

@@ -30,7 +30,7 @@ pub enum Edit {
         index: usize,
     },
     /// Replace the criteria.
-    SetCriteria(Criteria),
+    SetCriteria(Box<Criteria>),
     /// Rename the project.
     SetName(String),
     /// Replace the whole project (keeps undo).

@@ -32,7 +32,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             if let Some(v) = settle(&mut app.view, id, &text, parsed) {
                 let mut c = criteria.clone();
                 c.design_speed = Some(v);
-                app.push(Action::edit(Edit::SetCriteria(c)));
+                app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
             }
         }
         ui.label(units.speed_symbol());
@@ -51,7 +51,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         if terrain != criteria.terrain {
             let mut c = criteria.clone();
             c.terrain = terrain;
-            app.push(Action::edit(Edit::SetCriteria(c)));
+            app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
         }
         ui.label("");
         ui.label("");
@@ -62,7 +62,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         if ui.checkbox(&mut comfort, "on").changed() {
             let mut c = criteria.clone();
             c.sag_comfort = comfort;
-            app.push(Action::edit(Edit::SetCriteria(c)));
+            app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
         }
         ui.label("");
         ui.label("");
@@ -87,7 +87,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                 if let Some(v) = settle(&mut app.view, cell, &text, parsed) {
                     let mut c = criteria.clone();
                     *c.setting_mut(id) = Setting::Override(v);
-                    app.push(Action::edit(Edit::SetCriteria(c)));
+                    app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
                 }
             }
             ui.label(id.quantity().symbol(units));
@@ -99,7 +99,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                         let mut c = criteria.clone();
                         *c.setting_mut(id) = Setting::Computed;
                         app.view.cells.remove(&cell);
-                        app.push(Action::edit(Edit::SetCriteria(c)));
+                        app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
                     }
                 }
                 Setting::Computed => {

@@ -3,9 +3,11 @@
 
 use std::sync::Arc;
 
+use gradewright_geometry::visibility::SightProfile;
 use gradewright_geometry::{
-    Alignment, CheckReport, CriteriaError, CurveGeometry, Finding, Profile, ProfileProblem, Project,
-    ResolvedCriteria, Segment, Severity, check_profile, interior_curves, structural_findings,
+    Alignment, CheckReport, CriteriaError, CriterionId, CurveGeometry, Finding, Profile, ProfileProblem,
+    Project, ResolvedCriteria, Segment, Severity, check_profile_with_sight, compute_sight, interior_curves,
+    structural_findings,
 };
 
 /// Largest chord error allowed when a parabola is drawn as a polyline, in the
@@ -29,11 +31,22 @@ pub struct Derived {
     pub line: Vec<[f64; 2]>,
     /// The grade lines through the PVIs.
     pub grade_line: Vec<[f64; 2]>,
+    /// The project these were computed from.
+    source: Project,
 }
 
 impl Derived {
-    /// Computes everything for `project`.
+    /// Computes everything for `project` from scratch.
     pub fn compute(project: &Project) -> Self {
+        Self::compute_after(project, None)
+    }
+
+    /// Computes everything for `project`, reusing the sight distance of
+    /// `previous` outside the stretch the change can affect: moving PVIs
+    /// i..=j changes the profile between PVI i − 2 and PVI j + 2 (the curves of
+    /// the neighbours change with their grades), so only eye stations within
+    /// the sight cap of that stretch are recomputed.
+    pub fn compute_after(project: &Project, previous: Option<&Self>) -> Self {
         let profile: Profile = project.profile();
         let problems = profile.problems();
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
@@ -47,8 +60,12 @@ impl Derived {
         });
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
         let criteria = project.criteria.resolve(project.units);
+        let sight = match (&alignment, &criteria) {
+            (Some(a), Ok(c)) => sight_after(project, previous, a, c),
+            _ => None,
+        };
         let report = match &criteria {
-            Ok(c) => check_profile(&profile, c),
+            Ok(c) => check_profile_with_sight(&profile, c, sight),
             Err(e) => {
                 let mut findings = structural_findings(&profile);
                 findings.push(Finding {
@@ -59,7 +76,7 @@ impl Derived {
                     pvi: None,
                     message: format!("Design checks are off: {e}"),
                 });
-                CheckReport { findings, curves: Vec::new() }
+                CheckReport { findings, curves: Vec::new(), sight: None }
             }
         };
         let grade_line = profile.pvis.iter().map(|p| [p.station.0, p.elevation]).collect();
@@ -67,7 +84,12 @@ impl Derived {
             Some(a) => polyline(a.segments()),
             None => Vec::new(),
         };
-        Self { problems, alignment, curves, criteria, report, line, grade_line }
+        Self { problems, alignment, curves, criteria, report, line, grade_line, source: project.clone() }
+    }
+
+    /// The sight distance along the profile, when it could be computed.
+    pub fn sight(&self) -> Option<&SightProfile> {
+        self.report.sight.as_ref()
     }
 
     /// A short reason a curve fails, for labels: `K 18.0 < 26` or the first
@@ -89,6 +111,32 @@ impl Derived {
     pub fn findings_at(&self, index: usize) -> impl Iterator<Item = &Finding> {
         self.report.findings.iter().filter(move |f| f.pvi == Some(index))
     }
+}
+
+fn sight_after(
+    project: &Project,
+    previous: Option<&Derived>,
+    alignment: &Alignment,
+    criteria: &ResolvedCriteria,
+) -> Option<SightProfile> {
+    let full = || compute_sight(alignment, criteria);
+    let Some(prev) = previous else { return full() };
+    let (old, new) = (&prev.source, project);
+    let same_frame = old.units == new.units
+        && old.criteria == new.criteria
+        && old.pvis.len() == new.pvis.len()
+        && old.pvis.first().map(|p| p.station) == new.pvis.first().map(|p| p.station)
+        && old.pvis.last().map(|p| p.station) == new.pvis.last().map(|p| p.station);
+    let Some(mut sight) = prev.report.sight.clone().filter(|_| same_frame) else { return full() };
+    let changed: Vec<usize> = (0..new.pvis.len()).filter(|&i| old.pvis.get(i) != new.pvis.get(i)).collect();
+    let (Some(&first), Some(&last)) = (changed.first(), changed.last()) else { return Some(sight) };
+    let station = |i: usize| new.pvis.get(i.min(new.pvis.len() - 1)).map_or(0.0, |p| p.station.0);
+    let old_station = |i: usize| old.pvis.get(i.min(old.pvis.len() - 1)).map_or(0.0, |p| p.station.0);
+    let cap = criteria.get(CriterionId::SightCap);
+    let lo = station(first.saturating_sub(2)).min(old_station(first.saturating_sub(2))) - cap;
+    let hi = station(last + 2).max(old_station(last + 2)) + cap;
+    sight.update_range(alignment, &criteria.sight_setup(), criteria.sight_requirement(), lo, hi);
+    Some(sight)
 }
 
 /// Samples pieces so that no chord strays more than [`DRAW_TOLERANCE`] from

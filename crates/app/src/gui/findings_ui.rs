@@ -34,7 +34,7 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     });
     let mut clicked = None;
     let row_height = 2.0 * ui.text_style_height(&egui::TextStyle::Body) + 14.0;
-    egui::ScrollArea::vertical().id_salt("findings").auto_shrink([false, true]).max_height(420.0).show_rows(
+    egui::ScrollArea::vertical().id_salt("findings").auto_shrink([false, true]).max_height(300.0).show_rows(
         ui,
         row_height,
         order.len(),

@@ -40,13 +40,13 @@ impl GradewrightApp {
             table_ui::table_ui(self, ui);
         });
         egui::Panel::right("side").resizable(true).default_size(430.0).min_size(300.0).show(ui, |ui| {
+            ui.heading("Findings");
+            findings_ui::findings_ui(self, ui);
+            ui.separator();
             egui::ScrollArea::vertical().id_salt("side-scroll").show(ui, |ui| {
                 egui::CollapsingHeader::new(RichText::new("Design criteria").heading())
                     .default_open(true)
                     .show(ui, |ui| criteria_ui::criteria_ui(self, ui));
-                ui.separator();
-                ui.heading("Findings");
-                findings_ui::findings_ui(self, ui);
             });
         });
         egui::CentralPanel::default().show(ui, |ui| {

@@ -1,0 +1,192 @@
+//! "Lengthen to clear": the shortest curve length, rounded up to an
+//! increment, that meets every criterion that applies to a curve — minimum
+//! K, the exact sight-distance length, sag comfort when on, the minimum
+//! length, and the sight distance actually available over the profile —
+//! without overlapping its neighbours.
+
+use crate::visibility::{Direction, SightProfile, sight_profile, stations_every};
+use crate::{
+    Alignment, CriterionId, CurveGeometry, CurveKind, Profile, ResolvedCriteria, Units, check_curve,
+    format_station,
+};
+
+/// What happened to one curve.
+#[derive(Clone, Debug, PartialEq)]
+pub struct FitOutcome {
+    /// The PVI (0-based).
+    pub index: usize,
+    /// Length before.
+    pub old_length: f64,
+    /// Length after (equal to `old_length` when nothing changed).
+    pub new_length: f64,
+    /// Whether the curve now meets every criterion.
+    pub cleared: bool,
+    /// What was done or why not, with the numbers.
+    pub message: String,
+}
+
+/// Lengthens each curve at `targets` (PVI indices) to the shortest length, a
+/// multiple of `increment`, that clears it; curves are taken in station order
+/// and each fit sees the ones before it. A curve that cannot clear without
+/// overlapping a neighbour is left as it was, and the outcome says by how much
+/// it falls short. Returns the new profile and one outcome per target.
+pub fn lengthen_to_clear(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    targets: &[usize],
+    increment: f64,
+) -> (Profile, Vec<FitOutcome>) {
+    let mut profile = profile.clone();
+    let mut targets: Vec<usize> = targets.to_vec();
+    targets.sort_unstable();
+    targets.dedup();
+    let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
+    let mut outcomes = Vec::new();
+    for index in targets {
+        let outcome = fit_one(&mut profile, criteria, index, increment);
+        outcomes.push(outcome);
+    }
+    (profile, outcomes)
+}
+
+fn label(units: Units, s: f64) -> String {
+    format_station(s, units, units.station_decimals())
+}
+
+/// The longest total length the curve at `index` can have without passing
+/// its neighbours' curves (keeping an unequal curve's in/out ratio).
+fn room(profile: &Profile, index: usize) -> Option<f64> {
+    let (prev, pvi, next) =
+        (profile.pvis.get(index.checked_sub(1)?)?, profile.pvis.get(index)?, profile.pvis.get(index + 1)?);
+    let back = pvi.station - prev.station - prev.curve.length_out();
+    let ahead = next.station - pvi.station - next.curve.length_in();
+    let total = pvi.curve.length();
+    let (share_in, share_out) = if total > 0.0 {
+        (pvi.curve.length_in() / total, pvi.curve.length_out() / total)
+    } else {
+        (0.5, 0.5)
+    };
+    Some((back / share_in).min(ahead / share_out).max(0.0))
+}
+
+fn fit_one(profile: &mut Profile, criteria: &ResolvedCriteria, index: usize, increment: f64) -> FitOutcome {
+    let units = profile.units;
+    let len = units.length_symbol();
+    let old_length = profile.pvis.get(index).map_or(0.0, |p| p.curve.length());
+    let mut outcome =
+        FitOutcome { index, old_length, new_length: old_length, cleared: false, message: String::new() };
+    let name = format!("PVI {}", index + 1);
+    let (Some(max_length), Some(original)) = (room(profile, index), profile.pvis.get(index).copied()) else {
+        outcome.message = format!("{name}: the first and last PVI carry no curve");
+        return outcome;
+    };
+    let Some(curve) = geometry_at(profile, index) else {
+        outcome.message = format!("{name}: the profile has problems to fix first");
+        return outcome;
+    };
+    if curve.kind == CurveKind::None {
+        outcome.cleared = true;
+        outcome.message = format!("{name}: no grade change, no curve needed");
+        return outcome;
+    }
+    if clears(profile, criteria, index) {
+        outcome.cleared = true;
+        outcome.message = format!("{name}: already clears every criterion at {old_length:.2} {len}");
+        return outcome;
+    }
+    // The curve criteria give a first length; the sight distance over the
+    // actual profile may ask for more (neighbouring curves).
+    let mut scratch = Vec::new();
+    let check = check_curve(&curve, criteria, &mut scratch);
+    let k_ratio = match (curve.k(), curve.length()) {
+        (Some(k), l) if l > 0.0 && k > 0.0 => l / (k * curve.a_percent()), // 1 when symmetric
+        _ => 1.0,
+    };
+    let needed = (check.length_required * k_ratio).max(old_length);
+    let mut length = (needed / increment - 1e-9).ceil() * increment;
+    let steps_limit = 400;
+    for _ in 0..steps_limit {
+        if length > max_length * (1.0 + 1e-12) {
+            break;
+        }
+        set_length(profile, index, length);
+        if clears(profile, criteria, index) {
+            outcome.new_length = length;
+            outcome.cleared = true;
+            outcome.message = format!("{name}: lengthened from {old_length:.2} {len} to {length:.2} {len}");
+            return outcome;
+        }
+        length += increment;
+    }
+    if let Some(p) = profile.pvis.get_mut(index) {
+        *p = original;
+    }
+    let needs = (needed / increment - 1e-9).ceil() * increment;
+    outcome.message = if needs > max_length {
+        format!(
+            "{name} ({}): needs {needs:.0} {len}, only {max_length:.0} {len} fits between its neighbours; unchanged",
+            label(units, original.station.0)
+        )
+    } else {
+        format!(
+            "{name} ({}): no length up to the {max_length:.0} {len} that fits clears the sight distance \
+             (neighbouring curves limit it); unchanged",
+            label(units, original.station.0)
+        )
+    };
+    outcome
+}
+
+fn set_length(profile: &mut Profile, index: usize, length: f64) {
+    if let Some(p) = profile.pvis.get_mut(index) {
+        p.curve = p.curve.with_length(length);
+    }
+}
+
+fn geometry_at(profile: &Profile, index: usize) -> Option<CurveGeometry> {
+    let (a, b, c) =
+        (profile.pvis.get(index.checked_sub(1)?)?, profile.pvis.get(index)?, profile.pvis.get(index + 1)?);
+    Some(CurveGeometry::new(index, a, b, c))
+}
+
+/// Whether the curve at `index` meets the curve criteria (minimum length
+/// included) and the available sight distance around it.
+fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool {
+    if !profile.problems().is_empty() {
+        return false;
+    }
+    let Some(curve) = geometry_at(profile, index) else { return false };
+    let mut findings = Vec::new();
+    let check = check_curve(&curve, criteria, &mut findings);
+    let below_min = curve.length() < check.min_length * (1.0 - 1e-9);
+    if !check.ok || below_min {
+        return false;
+    }
+    let Ok(alignment) = Alignment::new(profile) else { return false };
+    let ssd = criteria.get(CriterionId::StoppingSightDistance);
+    let step = criteria.get(CriterionId::SightStep);
+    // Eyes that can see onto the curve: up to the SSD before it travelling
+    // forward, and after it travelling backward.
+    let (lo, hi) = (curve.pvc.0 - ssd.max(0.0), curve.pvt.0 + ssd.max(0.0));
+    let stations: Vec<f64> =
+        stations_every(&alignment, step).into_iter().filter(|s| *s >= lo && *s <= hi).collect();
+    // A crest limits daylight sight distance and a sag headlight sight
+    // distance; only the kind this curve can cause counts against it.
+    let mut setup = criteria.sight_setup();
+    match curve.kind {
+        CurveKind::Crest => setup.headlights = false,
+        CurveKind::Sag => setup.daylight = false,
+        CurveKind::None => return true,
+    }
+    if !setup.daylight && !setup.headlights {
+        return true;
+    }
+    let sight: SightProfile = sight_profile(&alignment, &setup, criteria.sight_requirement(), &stations);
+    sight.shortfalls(1e-9).iter().all(|s| {
+        // Only shortfalls looking onto this curve count against it.
+        match s.direction {
+            Direction::Forward => s.worst > curve.pvt.0,
+            Direction::Backward => s.worst < curve.pvc.0,
+        }
+    })
+}
