@@ -35,6 +35,14 @@ fn frame(c: &mut Criterion) {
             black_box(output.shapes.len())
         });
     });
+    c.bench_function("drag step alone (derived data, no UI), 200 PVIs / 20 km", |b| {
+        b.iter(|| {
+            step = step.wrapping_add(1);
+            let wiggle = f64::from(step % 20) * 0.05;
+            app.drag_to(index, base.station.0 + wiggle, base.elevation + wiggle);
+            black_box(app.derived().report.findings.len())
+        });
+    });
     app.end_drag();
 }
 

@@ -232,3 +232,40 @@ fn findings_list_and_cautions_are_shown() {
     assert!(h.query_by_label_contains("licensed professional engineer").is_some());
     let _ = h.get_all_by_role(Role::TextInput).count();
 }
+
+#[test]
+fn lengthen_all_failing_clears_the_demo_in_one_undo_step() {
+    let mut h = demo();
+    let original = h.state().project().clone();
+    h.get_by_label("All failing").click();
+    h.run();
+    // K 26 · A 5 = 130 m (AASHTO metric Table 3-34 at 80 km/h, from memory).
+    assert!((crest_check(&h).curve.length() - 130.0).abs() < 1e-9);
+    assert!(!h.state().derived().report.has_failures(), "{:?}", h.state().derived().report.findings);
+    let notice = h.state().notice.clone().map(|n| n.text).unwrap_or_default();
+    assert!(notice.contains("lengthened from 90.00 m to 130.00 m"), "{notice}");
+    h.state_mut().push(Action::Undo);
+    h.run();
+    assert_eq!(h.state().project(), &original);
+}
+
+/// While a PVI is dragged only the stretch it can affect is recomputed; the
+/// result must equal a full computation.
+#[test]
+fn incremental_sight_distance_equals_a_full_computation() {
+    for index in 0..6 {
+        let mut h = demo();
+        let app = h.state_mut();
+        let pvi = app.project().pvis[index];
+        app.begin_drag(index);
+        for k in 0..5 {
+            let k = f64::from(k);
+            app.drag_to(index, pvi.station.0 + 7.0 * k, pvi.elevation + 0.9 * k);
+        }
+        app.end_drag();
+        let full = gradewright::gui::Derived::compute(app.project());
+        assert!(app.derived().sight().is_some());
+        assert_eq!(app.derived().sight(), full.sight(), "PVI {}", index + 1);
+        assert_eq!(app.derived().report.findings, full.report.findings, "PVI {}", index + 1);
+    }
+}

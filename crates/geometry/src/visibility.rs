@@ -367,6 +367,42 @@ impl SightProfile {
         self.samples.splice(start..end, fresh.samples);
     }
 
+    /// After the road changed only between stations `lo` and `hi`: an eye
+    /// travelling forward sees that stretch only from [lo − cap, hi], one
+    /// travelling backward only from [lo, hi + cap]; only those are
+    /// recomputed, each in its own direction (required distances follow).
+    pub fn update_after_change(
+        &mut self,
+        alignment: &Alignment,
+        setup: &SightSetup,
+        requirement: Requirement,
+        lo: f64,
+        hi: f64,
+    ) {
+        let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
+        let governing = |road: &Road, at: f64| {
+            let day = if setup.daylight { road.daylight(at, setup) } else { setup.cap };
+            if setup.headlights { day.min(road.headlight(at, setup)) } else { day }
+        };
+        let from = self.samples.partition_point(|s| s.station < lo - setup.cap);
+        let to = self.samples.partition_point(|s| s.station <= hi + setup.cap);
+        let mut cursor = alignment.cursor();
+        for sample in self.samples.get_mut(from..to).unwrap_or(&mut []) {
+            let s = sample.station;
+            let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
+            if s <= hi {
+                sample.forward = governing(&roads[0], s);
+            }
+            if s >= lo {
+                sample.backward = governing(&roads[1], -s);
+            }
+            if s >= lo && s <= hi {
+                sample.required_forward = requirement.at(grade);
+                sample.required_backward = requirement.at(-grade);
+            }
+        }
+    }
+
     /// Every run of consecutive stations where available < required, per
     /// direction, with the worst station of each. `tolerance` is a relative
     /// allowance (a distance within it of the requirement passes).

@@ -84,6 +84,7 @@ impl GradewrightApp {
             close_requested: false,
         };
         app.view.request_fit();
+        app.view.lengthen_increment = default_increment(app.project.units);
         if let Some(recovered) = app.files.read_recovery() {
             app.pending = Some(Pending::Recovery(Box::new(recovered)));
         }
@@ -167,7 +168,7 @@ impl GradewrightApp {
 
     fn changed(&mut self) {
         self.revision += 1;
-        self.derived = Derived::compute_after(&self.project, Some(&self.derived));
+        self.derived.refresh(&self.project);
         if let Some(sel) = self.view.selected
             && sel >= self.project.pvis.len()
         {
@@ -268,6 +269,7 @@ impl GradewrightApp {
     pub fn open_path(&mut self, path: &Path) -> bool {
         match Project::load(path) {
             Ok(project) => {
+                self.view.lengthen_increment = default_increment(project.units);
                 self.replace_project(project, Some(path.to_owned()), true);
                 self.note_recent(path);
                 self.notice = Some(Notice { error: false, text: format!("Opened {}", path.display()) });
@@ -385,6 +387,7 @@ impl GradewrightApp {
                 };
                 project.pvis = vec![Pvi::new(0.0, 100.0), Pvi::new(length, 100.0 + rise)];
                 self.replace_project(project, None, true);
+                self.view.lengthen_increment = default_increment(units);
             }
             Action::Open(Some(path)) => {
                 self.open_path(&path);
@@ -463,7 +466,40 @@ impl GradewrightApp {
                 self.view.selected = Some(self.view.selected.map_or(0, |i| (i + 1).min(last)));
             }
             Action::ToggleAbout => self.view.show_about = !self.view.show_about,
+            Action::LengthenSelected => match self.view.selected {
+                Some(i) => self.lengthen(&[i]),
+                None => {
+                    self.notice = Some(Notice { error: true, text: "Select a curve's PVI first".to_owned() });
+                }
+            },
+            Action::LengthenAll => {
+                let targets = self.derived.report.failing_curves();
+                if targets.is_empty() {
+                    self.notice =
+                        Some(Notice { error: false, text: "No curve fails; nothing to lengthen".to_owned() });
+                } else {
+                    self.lengthen(&targets);
+                }
+            }
         }
+    }
+
+    /// "Lengthen to clear" on the curves at `targets`, as one undo step; the
+    /// outcome of each curve is shown.
+    pub fn lengthen(&mut self, targets: &[usize]) {
+        let Ok(criteria) = self.derived.criteria.clone() else {
+            self.notice = Some(Notice { error: true, text: "Set a design speed first".to_owned() });
+            return;
+        };
+        let increment = self.view.lengthen_increment;
+        let (fitted, outcomes) =
+            gradewright_geometry::lengthen_to_clear(&self.project.profile(), &criteria, targets, increment);
+        let mut project = self.project.clone();
+        project.pvis = fitted.pvis;
+        let text = outcomes.iter().map(|o| o.message.as_str()).collect::<Vec<_>>().join(" · ");
+        let all_cleared = outcomes.iter().all(|o| o.cleared);
+        self.apply_edit(Edit::Replace(Box::new(project)));
+        self.notice = Some(Notice { error: !all_cleared, text });
     }
 
     /// Inserts a PVI at `station` on the profile (refused on a curve).
@@ -522,6 +558,14 @@ impl GradewrightApp {
         if ctx.input_mut(|i| i.consume_shortcut(&REDO_ALT)) {
             self.push(Action::Redo);
         }
+    }
+}
+
+/// The default "lengthen to clear" increment: 5 m or 10 ft.
+pub fn default_increment(units: Units) -> f64 {
+    match units {
+        Units::Metric => 5.0,
+        Units::UsCustomary => 10.0,
     }
 }
 

@@ -73,6 +73,10 @@ pub enum Action {
     SelectPrevious,
     /// Select the next PVI.
     SelectNext,
+    /// Lengthen the selected curve to clear every criterion.
+    LengthenSelected,
+    /// Lengthen every failing curve to clear every criterion.
+    LengthenAll,
     /// Show or hide the About & cautions window.
     ToggleAbout,
     /// Close the window.
@@ -106,6 +110,10 @@ pub enum UiCommand {
     Next,
     /// Fit to profile.
     Fit,
+    /// Lengthen selected curve to clear.
+    LengthenSelected,
+    /// Lengthen all failing curves.
+    LengthenAll,
     /// About & cautions.
     About,
     /// Quit.
@@ -114,7 +122,7 @@ pub enum UiCommand {
 
 impl UiCommand {
     /// Every command, in menu order.
-    pub const ALL: [Self; 14] = [
+    pub const ALL: [Self; 16] = [
         Self::NewMetric,
         Self::NewUs,
         Self::Open,
@@ -127,6 +135,8 @@ impl UiCommand {
         Self::Previous,
         Self::Next,
         Self::Fit,
+        Self::LengthenSelected,
+        Self::LengthenAll,
         Self::About,
         Self::Quit,
     ];
@@ -146,6 +156,8 @@ impl UiCommand {
             Self::Previous => "Select previous PVI",
             Self::Next => "Select next PVI",
             Self::Fit => "Fit to profile",
+            Self::LengthenSelected => "Lengthen selected curve to clear",
+            Self::LengthenAll => "Lengthen all failing curves to clear",
             Self::About => "About & cautions",
             Self::Quit => "Quit",
         }
@@ -168,14 +180,17 @@ impl UiCommand {
             Self::Previous => shortcut(Modifiers::NONE, Key::PageUp),
             Self::Next => shortcut(Modifiers::NONE, Key::PageDown),
             Self::Fit => shortcut(Modifiers::NONE, Key::F),
+            Self::LengthenSelected => shortcut(Modifiers::NONE, Key::L),
+            Self::LengthenAll => shortcut(Modifiers::SHIFT, Key::L),
             Self::About => shortcut(Modifiers::NONE, Key::F1),
             Self::Quit => shortcut(cmd, Key::Q),
         }
     }
 
-    /// Whether the shortcut needs the keyboard free of text fields (plain keys).
+    /// Whether the shortcut needs the keyboard free of text fields (keys
+    /// without Ctrl, which typing would trigger).
     pub fn is_plain_key(self) -> bool {
-        self.shortcut().is_some_and(|s| s.modifiers.is_none())
+        self.shortcut().is_some_and(|s| !s.modifiers.command && !s.modifiers.ctrl)
     }
 
     /// The action it stands for.
@@ -193,6 +208,8 @@ impl UiCommand {
             Self::Previous => Action::SelectPrevious,
             Self::Next => Action::SelectNext,
             Self::Fit => Action::FitView,
+            Self::LengthenSelected => Action::LengthenSelected,
+            Self::LengthenAll => Action::LengthenAll,
             Self::About => Action::ToggleAbout,
             Self::Quit => Action::Quit,
         }

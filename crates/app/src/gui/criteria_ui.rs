@@ -68,6 +68,30 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         ui.label("");
         ui.end_row();
 
+        for (label, value, set) in [
+            ("Headlight check", criteria.headlight_check, 0),
+            ("Grade-adjusted SSD", criteria.grade_adjusted_ssd, 1),
+        ] {
+            ui.label(label).on_hover_text(if set == 0 {
+                "Headlight sight distance on sags (switch off for lit roads)"
+            } else {
+                "Required SSD at each station from the grade the vehicle is on (downgrades need more)"
+            });
+            let mut on = value;
+            if ui.checkbox(&mut on, "on").changed() {
+                let mut c = criteria.clone();
+                if set == 0 {
+                    c.headlight_check = on;
+                } else {
+                    c.grade_adjusted_ssd = on;
+                }
+                app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
+            }
+            ui.label("");
+            ui.label("");
+            ui.end_row();
+        }
+
         let resolved = app.derived().criteria.clone();
         for id in CriterionId::ALL {
             let entry = resolved.as_ref().ok().and_then(|r| r.entry(id).cloned());

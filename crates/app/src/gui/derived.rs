@@ -5,8 +5,8 @@ use std::sync::Arc;
 
 use gradewright_geometry::visibility::SightProfile;
 use gradewright_geometry::{
-    Alignment, CheckReport, CriteriaError, CriterionId, CurveGeometry, Finding, Profile, ProfileProblem,
-    Project, ResolvedCriteria, Segment, Severity, check_profile_with_sight, compute_sight, interior_curves,
+    Alignment, CheckReport, CriteriaError, CurveGeometry, Finding, Profile, ProfileProblem, Project,
+    ResolvedCriteria, Segment, Severity, check_profile_with_sight, compute_sight, interior_curves,
     structural_findings,
 };
 
@@ -27,10 +27,10 @@ pub struct Derived {
     pub criteria: Result<ResolvedCriteria, CriteriaError>,
     /// Findings and per-curve requirements.
     pub report: CheckReport,
-    /// The profile as a polyline (tangents and finely sampled curves).
-    pub line: Vec<[f64; 2]>,
     /// The grade lines through the PVIs.
     pub grade_line: Vec<[f64; 2]>,
+    /// Available and required sight distance along the profile.
+    pub sight: Option<Arc<SightProfile>>,
     /// The project these were computed from.
     source: Project,
 }
@@ -41,12 +41,32 @@ impl Derived {
         Self::compute_after(project, None)
     }
 
+    /// An empty placeholder (while the real one is being recomputed).
+    fn placeholder(project: &Project) -> Self {
+        Self {
+            problems: Vec::new(),
+            alignment: None,
+            curves: Vec::new(),
+            criteria: Err(CriteriaError::NoDesignSpeed),
+            report: CheckReport::default(),
+            grade_line: Vec::new(),
+            sight: None,
+            source: Project::new("", project.units),
+        }
+    }
+
+    /// Replaces `self` by the data for `project`, reusing what it can.
+    pub fn refresh(&mut self, project: &Project) {
+        let previous = std::mem::replace(self, Self::placeholder(project));
+        *self = Self::compute_after(project, Some(previous));
+    }
+
     /// Computes everything for `project`, reusing the sight distance of
     /// `previous` outside the stretch the change can affect: moving PVIs
     /// i..=j changes the profile between PVI i − 2 and PVI j + 2 (the curves of
     /// the neighbours change with their grades), so only eye stations within
     /// the sight cap of that stretch are recomputed.
-    pub fn compute_after(project: &Project, previous: Option<&Self>) -> Self {
+    pub fn compute_after(project: &Project, previous: Option<Self>) -> Self {
         let profile: Profile = project.profile();
         let problems = profile.problems();
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
@@ -64,7 +84,7 @@ impl Derived {
             (Some(a), Ok(c)) => sight_after(project, previous, a, c),
             _ => None,
         };
-        let report = match &criteria {
+        let mut report = match &criteria {
             Ok(c) => check_profile_with_sight(&profile, c, sight),
             Err(e) => {
                 let mut findings = structural_findings(&profile);
@@ -80,16 +100,13 @@ impl Derived {
             }
         };
         let grade_line = profile.pvis.iter().map(|p| [p.station.0, p.elevation]).collect();
-        let line = match &alignment {
-            Some(a) => polyline(a.segments()),
-            None => Vec::new(),
-        };
-        Self { problems, alignment, curves, criteria, report, line, grade_line, source: project.clone() }
+        let sight = report.sight.take().map(Arc::new);
+        Self { problems, alignment, curves, criteria, report, grade_line, sight, source: project.clone() }
     }
 
     /// The sight distance along the profile, when it could be computed.
     pub fn sight(&self) -> Option<&SightProfile> {
-        self.report.sight.as_ref()
+        self.sight.as_deref()
     }
 
     /// A short reason a curve fails, for labels: `K 18.0 < 26` or the first
@@ -115,7 +132,7 @@ impl Derived {
 
 fn sight_after(
     project: &Project,
-    previous: Option<&Derived>,
+    previous: Option<Derived>,
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
 ) -> Option<SightProfile> {
@@ -127,15 +144,34 @@ fn sight_after(
         && old.pvis.len() == new.pvis.len()
         && old.pvis.first().map(|p| p.station) == new.pvis.first().map(|p| p.station)
         && old.pvis.last().map(|p| p.station) == new.pvis.last().map(|p| p.station);
-    let Some(mut sight) = prev.report.sight.clone().filter(|_| same_frame) else { return full() };
+    if !same_frame {
+        return full();
+    }
     let changed: Vec<usize> = (0..new.pvis.len()).filter(|&i| old.pvis.get(i) != new.pvis.get(i)).collect();
-    let (Some(&first), Some(&last)) = (changed.first(), changed.last()) else { return Some(sight) };
-    let station = |i: usize| new.pvis.get(i.min(new.pvis.len() - 1)).map_or(0.0, |p| p.station.0);
-    let old_station = |i: usize| old.pvis.get(i.min(old.pvis.len() - 1)).map_or(0.0, |p| p.station.0);
-    let cap = criteria.get(CriterionId::SightCap);
-    let lo = station(first.saturating_sub(2)).min(old_station(first.saturating_sub(2))) - cap;
-    let hi = station(last + 2).max(old_station(last + 2)) + cap;
-    sight.update_range(alignment, &criteria.sight_setup(), criteria.sight_requirement(), lo, hi);
+    let (Some(&first), Some(&last)) = (changed.first(), changed.last()) else {
+        return prev.sight.map(|s| Arc::try_unwrap(s).unwrap_or_else(|shared| (*shared).clone()));
+    };
+    // Moving PVIs first..=last changes the road from the start of the curve at
+    // PVI first − 1 to the end of the curve at PVI last + 1, in the old and the
+    // new profile alike.
+    let extent = |pvis: &[gradewright_geometry::Pvi]| {
+        let lo = first
+            .checked_sub(1)
+            .and_then(|i| pvis.get(i))
+            .map_or(f64::NEG_INFINITY, |p| p.station.0 - p.curve.length_in());
+        let hi = pvis.get(last + 1).map_or(f64::INFINITY, |p| p.station.0 + p.curve.length_out());
+        (lo, hi)
+    };
+    let (a, b) = (extent(&old.pvis), extent(&new.pvis));
+    let Some(shared) = prev.sight else { return full() };
+    let mut sight = Arc::try_unwrap(shared).unwrap_or_else(|shared| (*shared).clone());
+    sight.update_after_change(
+        alignment,
+        &criteria.sight_setup(),
+        criteria.sight_requirement(),
+        a.0.min(b.0),
+        a.1.max(b.1),
+    );
     Some(sight)
 }
 
@@ -143,13 +179,26 @@ fn sight_after(
 /// the parabola: n = L·√(|y″|/(8·tol)) chords per piece (chord error of a
 /// parabola is |y″|·h²/8).
 pub fn polyline(segments: &[Segment]) -> Vec<[f64; 2]> {
+    polyline_within(segments, (f64::NEG_INFINITY, f64::INFINITY), DRAW_TOLERANCE)
+}
+
+/// The pieces overlapping the stations `x`, sampled to a chord error of at
+/// most `tolerance` (in elevation units): the plot asks for half a screen
+/// point, so curves look smooth at any zoom without drawing more points than
+/// the screen can show.
+pub fn polyline_within(segments: &[Segment], x: (f64, f64), tolerance: f64) -> Vec<[f64; 2]> {
+    let tolerance = tolerance.max(1e-9);
+    let first = segments.partition_point(|s| s.end < x.0);
     let mut points = Vec::new();
-    for seg in segments {
+    for seg in segments.get(first..).unwrap_or(&[]) {
+        if seg.start > x.1 {
+            break;
+        }
         let length = seg.end - seg.start;
         let chords = if seg.rate == 0.0 {
             1.0
         } else {
-            (length * (seg.rate.abs() / (8.0 * DRAW_TOLERANCE)).sqrt()).ceil().clamp(2.0, 4000.0)
+            (length * (seg.rate.abs() / (8.0 * tolerance)).sqrt()).ceil().clamp(2.0, 4000.0)
         };
         #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
         let n = chords as usize;

@@ -13,6 +13,7 @@ mod files;
 mod findings_ui;
 mod history;
 mod plot_ui;
+mod sight_ui;
 mod table_ui;
 mod theme;
 mod view;
@@ -51,7 +52,15 @@ impl GradewrightApp {
         });
         egui::CentralPanel::default().show(ui, |ui| {
             plot_ui::plot_toolbar_ui(self, ui);
-            plot_ui::plot_ui(self, ui);
+            let strip = if self.view.show_sight_strip {
+                (ui.available_height() * 0.3).clamp(90.0, 260.0)
+            } else {
+                0.0
+            };
+            plot_ui::plot_ui(self, ui, ui.available_height() - strip);
+            if self.view.show_sight_strip {
+                sight_ui::sight_ui(self, ui);
+            }
         });
         about_ui::about_ui(self, &ctx);
         self.dialogs_ui(&ctx);
@@ -123,9 +132,13 @@ impl GradewrightApp {
                 self.command_button(ui, UiCommand::Delete, selected && self.project().pvis.len() > 2);
                 self.command_button(ui, UiCommand::Previous, true);
                 self.command_button(ui, UiCommand::Next, true);
+                ui.separator();
+                self.command_button(ui, UiCommand::LengthenSelected, selected);
+                self.command_button(ui, UiCommand::LengthenAll, true);
             });
             ui.menu_button("View", |ui| {
                 self.command_button(ui, UiCommand::Fit, true);
+                ui.checkbox(&mut self.view.show_sight_strip, "Sight-distance strip");
                 ui.separator();
                 egui::widgets::global_theme_preference_buttons(ui);
             });

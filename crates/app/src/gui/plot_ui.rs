@@ -62,6 +62,26 @@ pub fn plot_toolbar_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         if ui.button("Fit to profile").on_hover_text("F").clicked() {
             app.push(Action::FitView);
         }
+        ui.separator();
+        ui.label("Lengthen to clear:");
+        let selected = app.view.selected.is_some();
+        if ui
+            .add_enabled(selected, egui::Button::new("Selected curve"))
+            .on_hover_text("Shortest length, rounded up to the increment, that meets every criterion (L)")
+            .clicked()
+        {
+            app.push(Action::LengthenSelected);
+        }
+        if ui.button("All failing").on_hover_text("Every failing curve, one undo step (Shift+L)").clicked() {
+            app.push(Action::LengthenAll);
+        }
+        ui.label("in steps of");
+        ui.add(
+            egui::DragValue::new(&mut app.view.lengthen_increment)
+                .range(0.1..=1000.0)
+                .speed(0.5)
+                .suffix(format!(" {len}")),
+        );
     });
     ui.label(
         RichText::new("Drag a PVI to move it · double-click a tangent to add a PVI · right-click for more · hover for station, elevation and grade")
@@ -72,7 +92,7 @@ pub fn plot_toolbar_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
 
 /// The profile plot.
 #[allow(clippy::too_many_lines)]
-pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
+pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
     let units = app.project().units;
     let len = units.length_symbol();
     let palette = Palette::of(ui);
@@ -86,6 +106,8 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let alignment = app.derived().alignment.clone();
     let station_decimals = units.station_decimals();
     let plot = Plot::new("profile-plot")
+        .height(height.max(120.0))
+        .link_axis(egui::Id::unique(super::sight_ui::STATION_AXIS), [true, false])
         .data_aspect(app.view.exaggeration)
         .allow_drag(!hovering_handle)
         .allow_double_click_reset(false)
@@ -229,7 +251,13 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             .style(LineStyle::dashed_loose())
             .width(1.0),
     );
-    if derived.line.is_empty() {
+    // The profile in view, to half a screen point of chord error.
+    let view_line = derived
+        .alignment
+        .as_ref()
+        .map(|a| super::derived::polyline_within(a.segments(), (x_min, x_max), 0.5 * dy))
+        .unwrap_or_default();
+    if derived.alignment.is_none() {
         // Curves that overlap: draw each on its own so the designer sees them.
         for c in &derived.curves {
             pui.line(
@@ -238,13 +266,35 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
                     .width(2.0),
             );
         }
-    } else {
-        pui.line(
-            Line::new("Profile", PlotPoints::from(derived.line.clone())).color(palette.profile).width(2.0),
-        );
+    }
+    // Stretches where the sight distance falls short, along the profile.
+    for f in derived.report.findings.iter().filter(|f| f.code.starts_with("sight.")) {
+        let (a, b) = (f.station_start.0.min(f.station_end.0), f.station_start.0.max(f.station_end.0));
+        if b < x_min || a > x_max {
+            continue;
+        }
+        let Some(alignment) = derived.alignment.as_ref() else { break };
+        let at = |x: f64| alignment.sample(gradewright_geometry::Station(x)).ok().map(|p| [x, p.elevation]);
+        let range = view_line.partition_point(|p| p[0] <= a)..view_line.partition_point(|p| p[0] < b);
+        let inner = view_line.get(range).unwrap_or(&[]);
+        let stretch: Vec<[f64; 2]> = at(a).into_iter().chain(inner.iter().copied()).chain(at(b)).collect();
+        if stretch.len() >= 2 {
+            pui.line(
+                Line::new("Sight falls short", PlotPoints::from(stretch))
+                    .color(palette.warn.gamma_multiply(0.8))
+                    .width(7.0),
+            );
+        }
+    }
+    if !view_line.is_empty() {
+        pui.line(Line::new("Profile", PlotPoints::from(view_line)).color(palette.profile).width(2.0));
     }
     let failing: Vec<usize> = derived.report.curves.iter().filter(|c| !c.ok).map(|c| c.curve.index).collect();
-    for c in derived.curves.iter().filter(|c| failing.contains(&c.index) && c.length() > 0.0) {
+    for c in derived
+        .curves
+        .iter()
+        .filter(|c| failing.contains(&c.index) && c.length() > 0.0 && c.pvt.0 >= x_min && c.pvc.0 <= x_max)
+    {
         pui.line(
             Line::new("Failing curve", PlotPoints::from(curve_polyline(c)))
                 .color(palette.fail)

@@ -87,6 +87,10 @@ pub struct ViewState {
     pub context_station: Option<f64>,
     /// Path typed in the File menu (works without a file dialog).
     pub path_text: String,
+    /// Whether the sight-distance strip is shown under the profile.
+    pub show_sight_strip: bool,
+    /// "Lengthen to clear" rounds lengths up to this increment.
+    pub lengthen_increment: f64,
     /// A table row to scroll into view on the next frame.
     pub scroll_to_row: Option<usize>,
     /// A table scroll offset to apply on the next frame.
@@ -108,6 +112,8 @@ impl Default for ViewState {
             dragging: None,
             context_station: None,
             path_text: String::new(),
+            show_sight_strip: true,
+            lengthen_increment: 5.0,
             scroll_to_row: None,
             table_scroll: None,
         }
