@@ -269,3 +269,41 @@ fn incremental_sight_distance_equals_a_full_computation() {
         assert_eq!(app.derived().report.findings, full.report.findings, "PVI {}", index + 1);
     }
 }
+
+/// Ctrl+Shift+Z redoes (it must not be taken for Ctrl+Z, common practice).
+#[test]
+fn keyboard_undo_and_redo() {
+    let mut h = demo();
+    replace_text(&mut h, "PVI 4 curve length", "150");
+    let edited = h.state().project().clone();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert!((crest_check(&h).curve.length() - 90.0).abs() < 1e-9);
+    h.key_press_modifiers(egui::Modifiers::COMMAND | egui::Modifiers::SHIFT, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().project(), &edited);
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Y);
+    h.run();
+    assert_eq!(h.state().project(), &edited);
+}
+
+/// Unsaved work is written to the recovery file and offered back on the next
+/// start (as after a crash); recovering it restores the edit.
+#[test]
+fn autosave_recovery_is_offered_after_a_crash() {
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-recovery-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let mut h = harness(GradewrightApp::with_demo(AppFiles::new(Some(dir.clone()))));
+    replace_text(&mut h, "PVI 4 curve length", "155");
+    h.state_mut().autosave(1000.0);
+    let edited = h.state().project().clone();
+    drop(h); // no clean exit: the recovery file stays
+    let mut again = harness(GradewrightApp::with_demo(AppFiles::new(Some(dir.clone()))));
+    assert!(matches!(again.state().pending, Some(gradewright::gui::Pending::Recovery(_))));
+    again.get_by_label("Recover it").click();
+    again.run();
+    assert_eq!(again.state().project().pvis, edited.pvis);
+    assert!(again.state().is_dirty(), "recovered work still needs saving");
+}

@@ -399,6 +399,7 @@ impl GradewrightApp {
                     self.open_path(&path);
                 } else {
                     self.no_dialog();
+                    self.view.show_path_dialog = true;
                 }
             }
             Action::Quit => self.confirm_close(),
@@ -409,7 +410,7 @@ impl GradewrightApp {
     fn no_dialog(&mut self) {
         self.notice = Some(Notice {
             error: false,
-            text: "No file chosen (if no dialog appeared, type a path in File ▸ Path)".to_owned(),
+            text: "No file chosen (if no dialog appeared, use File, Open or save by path…)".to_owned(),
         });
     }
 
@@ -433,7 +434,10 @@ impl GradewrightApp {
                 Some(path) => {
                     self.save_to(&path);
                 }
-                None => self.no_dialog(),
+                None => {
+                    self.no_dialog();
+                    self.view.show_path_dialog = true;
+                }
             },
             Action::Undo => {
                 if let Some(p) = self.history.undo(self.project.clone()) {
@@ -546,7 +550,15 @@ impl GradewrightApp {
     /// Reads the keyboard shortcuts of `ctx` into actions.
     pub fn read_shortcuts(&mut self, ctx: &egui::Context) {
         let typing = ctx.egui_wants_keyboard_input();
-        for command in UiCommand::ALL {
+        // Shortcuts match logically (Ctrl+Z also matches Ctrl+Shift+Z), so the
+        // ones with more modifiers go first.
+        let mut commands = UiCommand::ALL;
+        commands.sort_by_key(|c| {
+            std::cmp::Reverse(c.shortcut().map_or(0, |s| {
+                u8::from(s.modifiers.shift) + u8::from(s.modifiers.command) + u8::from(s.modifiers.alt)
+            }))
+        });
+        for command in commands {
             let Some(shortcut) = command.shortcut() else { continue };
             if typing && command.is_plain_key() {
                 continue;

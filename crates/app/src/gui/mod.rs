@@ -63,6 +63,7 @@ impl GradewrightApp {
             }
         });
         about_ui::about_ui(self, &ctx);
+        self.path_dialog_ui(&ctx);
         self.dialogs_ui(&ctx);
         self.apply_queued(&ctx);
         self.autosave(ctx.input(|i| i.time));
@@ -102,23 +103,10 @@ impl GradewrightApp {
                         }
                     }
                 });
-                ui.separator();
-                ui.label("Path (when no file dialog is available):");
-                ui.add(
-                    egui::TextEdit::singleline(&mut self.view.path_text).hint_text("/path/to/project.ron"),
-                );
-                ui.horizontal(|ui| {
-                    let path = PathBuf::from(self.view.path_text.trim());
-                    let ok = !self.view.path_text.trim().is_empty();
-                    if ui.add_enabled(ok, egui::Button::new("Open path")).clicked() {
-                        self.push(Action::Open(Some(path.clone())));
-                        ui.close();
-                    }
-                    if ui.add_enabled(ok, egui::Button::new("Save to path")).clicked() {
-                        self.push(Action::SaveAs(Some(path)));
-                        ui.close();
-                    }
-                });
+                if ui.button("Open or save by path…").clicked() {
+                    self.view.show_path_dialog = true;
+                    ui.close();
+                }
                 ui.separator();
                 self.command_button(ui, UiCommand::Quit, true);
             });
@@ -153,10 +141,37 @@ impl GradewrightApp {
         });
     }
 
+    /// Open or save by typing a path: works where no file dialog is available.
+    fn path_dialog_ui(&mut self, ctx: &egui::Context) {
+        let mut open = self.view.show_path_dialog;
+        let mut close = false;
+        egui::Window::new("Open or save by path").open(&mut open).collapsible(false).show(ctx, |ui| {
+            ui.label("Project file (.ron):");
+            ui.add(
+                egui::TextEdit::singleline(&mut self.view.path_text)
+                    .hint_text("/path/to/project.ron")
+                    .desired_width(380.0),
+            );
+            ui.horizontal(|ui| {
+                let path = PathBuf::from(self.view.path_text.trim());
+                let ok = !self.view.path_text.trim().is_empty();
+                if ui.add_enabled(ok, egui::Button::new("Open")).clicked() {
+                    self.push(Action::Open(Some(path.clone())));
+                    close = true;
+                }
+                if ui.add_enabled(ok, egui::Button::new("Save here")).clicked() {
+                    self.push(Action::SaveAs(Some(path)));
+                    close = true;
+                }
+            });
+        });
+        self.view.show_path_dialog = open && !close;
+    }
+
     fn status_ui(&mut self, ui: &mut egui::Ui) {
         ui.horizontal(|ui| {
             ui.label(RichText::new(format!("⚠ {CAUTION_SHORT}")).color(ui.visuals().warn_fg_color))
-                .on_hover_text("Help ▸ About & cautions");
+                .on_hover_text("Help, About & cautions (F1)");
             ui.separator();
             if let Some(notice) = &self.notice {
                 let text = RichText::new(&notice.text);

@@ -127,20 +127,20 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                     Line::new("Required (SSD)", PlotPoints::from(required_f))
                         .color(palette.fail)
                         .width(1.5)
-                        .style(LineStyle::dashed_dense()),
+                        .style(LineStyle::Solid),
                 );
             } else {
                 pui.line(
                     Line::new("Required forward", PlotPoints::from(required_f))
                         .color(palette.fail)
                         .width(1.5)
-                        .style(LineStyle::dashed_dense()),
+                        .style(LineStyle::Solid),
                 );
                 pui.line(
                     Line::new("Required backward", PlotPoints::from(required_b))
                         .color(palette.warn)
                         .width(1.5)
-                        .style(LineStyle::dashed_dense()),
+                        .style(LineStyle::Solid),
                 );
             }
         });

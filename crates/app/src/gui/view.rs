@@ -85,8 +85,10 @@ pub struct ViewState {
     pub dragging: Option<usize>,
     /// Plot station where the context menu was opened.
     pub context_station: Option<f64>,
-    /// Path typed in the File menu (works without a file dialog).
+    /// Path typed in the path dialog (works without a file dialog).
     pub path_text: String,
+    /// Whether the path dialog is open.
+    pub show_path_dialog: bool,
     /// Whether the sight-distance strip is shown under the profile.
     pub show_sight_strip: bool,
     /// "Lengthen to clear" rounds lengths up to this increment.
@@ -112,6 +114,7 @@ impl Default for ViewState {
             dragging: None,
             context_station: None,
             path_text: String::new(),
+            show_path_dialog: false,
             show_sight_strip: true,
             lengthen_increment: 5.0,
             scroll_to_row: None,
