@@ -168,3 +168,18 @@ proptest! {
         }
     }
 }
+
+/// Grade-adjusted requirement: on a steady −3 % grade at 50 km/h a vehicle
+/// going down needs 65.8 m and one going up 60.9 m (derived from the formula
+/// in expertsmind / CivilPy: 0.278Vt + V²/(254(a/9.81 ± G))).
+#[test]
+fn grade_adjusted_requirement_follows_the_direction_of_travel() {
+    let a = alignment(Units::Metric, &[(0.0, 100.0, 0.0), (1000.0, 70.0, 0.0)]);
+    let requirement =
+        Requirement::GradeAdjusted { units: Units::Metric, speed: 50.0, reaction_s: 2.5, decel: 3.4 };
+    let p = sight_profile(&a, &setup(400.0, true), requirement, &[250.0, 500.0]);
+    for s in &p.samples {
+        assert!((s.required_forward - 65.8).abs() < 0.05, "{s:?}");
+        assert!((s.required_backward - 60.9).abs() < 0.05, "{s:?}");
+    }
+}
