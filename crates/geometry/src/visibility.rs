@@ -144,6 +144,13 @@ impl Road {
         setup.cap
     }
 
+    /// The governing available distance from road station `s`: the smaller of
+    /// the daylight and headlight distances, of those `setup` asks for.
+    pub fn governing(&self, s: f64, setup: &SightSetup) -> f64 {
+        let day = if setup.daylight { self.daylight(s, setup) } else { setup.cap };
+        if setup.headlights { day.min(self.headlight(s, setup)) } else { day }
+    }
+
     /// Headlight sight distance from road station `s`, up to `setup.cap`.
     pub fn headlight(&self, s: f64, setup: &SightSetup) -> f64 {
         let start = self.piece_index(s);
@@ -315,14 +322,10 @@ pub fn sight_profile(
         .iter()
         .map(|&s| {
             let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
-            let governing = |road: &Road, at: f64| {
-                let day = if setup.daylight { road.daylight(at, setup) } else { setup.cap };
-                if setup.headlights { day.min(road.headlight(at, setup)) } else { day }
-            };
             SightSample {
                 station: s,
-                forward: governing(&forward, s),
-                backward: governing(&backward, -s),
+                forward: forward.governing(s, setup),
+                backward: backward.governing(-s, setup),
                 required_forward: requirement.at(grade),
                 required_backward: requirement.at(-grade),
             }
@@ -349,24 +352,6 @@ pub struct Shortfall {
 }
 
 impl SightProfile {
-    /// Recomputes the samples whose station lies in [`lo`, `hi`] (after a
-    /// change that cannot affect the others), keeping the rest.
-    pub fn update_range(
-        &mut self,
-        alignment: &Alignment,
-        setup: &SightSetup,
-        requirement: Requirement,
-        lo: f64,
-        hi: f64,
-    ) {
-        let start = self.samples.partition_point(|s| s.station < lo);
-        let end = self.samples.partition_point(|s| s.station <= hi);
-        let Some(slice) = self.samples.get(start..end) else { return };
-        let stations: Vec<f64> = slice.iter().map(|s| s.station).collect();
-        let fresh = sight_profile(alignment, setup, requirement, &stations);
-        self.samples.splice(start..end, fresh.samples);
-    }
-
     /// After the road changed only between stations `lo` and `hi`: an eye
     /// travelling forward sees that stretch only from [lo − cap, hi], one
     /// travelling backward only from [lo, hi + cap]; only those are
@@ -380,10 +365,6 @@ impl SightProfile {
         hi: f64,
     ) {
         let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
-        let governing = |road: &Road, at: f64| {
-            let day = if setup.daylight { road.daylight(at, setup) } else { setup.cap };
-            if setup.headlights { day.min(road.headlight(at, setup)) } else { day }
-        };
         let from = self.samples.partition_point(|s| s.station < lo - setup.cap);
         let to = self.samples.partition_point(|s| s.station <= hi + setup.cap);
         let mut cursor = alignment.cursor();
@@ -391,10 +372,10 @@ impl SightProfile {
             let s = sample.station;
             let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
             if s <= hi {
-                sample.forward = governing(&roads[0], s);
+                sample.forward = roads[0].governing(s, setup);
             }
             if s >= lo {
-                sample.backward = governing(&roads[1], -s);
+                sample.backward = roads[1].governing(-s, setup);
             }
             if s >= lo && s <= hi {
                 sample.required_forward = requirement.at(grade);
