@@ -307,3 +307,16 @@ fn autosave_recovery_is_offered_after_a_crash() {
     assert_eq!(again.state().project().pvis, edited.pvis);
     assert!(again.state().is_dirty(), "recovered work still needs saving");
 }
+
+/// Typing a project name letter by letter is one undo step.
+#[test]
+fn renaming_is_one_undo_step() {
+    let mut h = demo();
+    let original = h.state().project().name.clone();
+    for name in ["N", "Ne", "New"] {
+        h.state_mut().apply_edit(gradewright::gui::Edit::SetName(name.to_owned()));
+    }
+    h.state_mut().push(Action::Undo);
+    h.run();
+    assert_eq!(h.state().project().name, original);
+}

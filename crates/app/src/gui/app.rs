@@ -54,6 +54,8 @@ pub struct GradewrightApp {
     actions: Vec<Action>,
     last_autosave: Option<f64>,
     close_confirmed: bool,
+    /// Whether the last edit renamed the project (typing a name is one step).
+    renaming: bool,
     /// Set when the window should close (read by the eframe shell).
     pub close_requested: bool,
 }
@@ -81,6 +83,7 @@ impl GradewrightApp {
             actions: Vec::new(),
             last_autosave: None,
             close_confirmed: false,
+            renaming: false,
             close_requested: false,
         };
         app.view.request_fit();
@@ -190,6 +193,7 @@ impl GradewrightApp {
     /// Applies an edit as one undo step. Returns whether anything changed.
     pub fn apply_edit(&mut self, edit: Edit) -> bool {
         let before = self.project.clone();
+        let renaming = matches!(edit, Edit::SetName(_));
         let pvis = &mut self.project.pvis;
         match edit {
             Edit::SetPvi { index, pvi } => match pvis.get_mut(index) {
@@ -226,7 +230,11 @@ impl GradewrightApp {
         if self.project == before {
             return false;
         }
-        self.history.record(before);
+        // Typing a name letter by letter is one undo step.
+        if !(renaming && self.renaming) {
+            self.history.record(before);
+        }
+        self.renaming = renaming;
         self.changed();
         true
     }
@@ -234,6 +242,7 @@ impl GradewrightApp {
     /// Starts dragging PVI `index` (the whole drag becomes one undo step).
     pub fn begin_drag(&mut self, index: usize) {
         self.view.selected = Some(index);
+        self.renaming = false;
         if self.drag_origin.is_none() {
             self.drag_origin = Some(self.project.clone());
         }
@@ -440,12 +449,14 @@ impl GradewrightApp {
                 }
             },
             Action::Undo => {
+                self.renaming = false;
                 if let Some(p) = self.history.undo(self.project.clone()) {
                     self.project = p;
                     self.changed();
                 }
             }
             Action::Redo => {
+                self.renaming = false;
                 if let Some(p) = self.history.redo(self.project.clone()) {
                     self.project = p;
                     self.changed();
