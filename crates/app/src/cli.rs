@@ -8,7 +8,7 @@ use anyhow::{Context as _, anyhow, bail};
 use clap::{Parser, Subcommand, ValueEnum};
 use gradewright_geometry::{Alignment, Units, check_profile, parse_station};
 
-use crate::input::{Input, ProblemRef, load_input};
+use crate::input::{Input, load_input};
 use crate::report;
 
 /// Gradewright: design the vertical profile of a road.
@@ -300,6 +300,6 @@ fn build(input: &Input) -> anyhow::Result<Alignment> {
             1 => String::new(),
             n => format!(" (and {} more problem(s); `gradewright check` lists them all)", n - 1),
         };
-        anyhow!("{}: {first}{more}", input.locate(&ProblemRef(first)))
+        anyhow!("{}: {first}{more}", input.locate(first))
     })
 }

@@ -20,8 +20,7 @@ pub struct Input {
 impl Input {
     /// Where a profile problem sits: `file:line: field` for CSV input,
     /// `file: pvis` for a project file.
-    pub fn locate(&self, problem: &ProblemRef<'_>) -> String {
-        let problem = problem.0;
+    pub fn locate(&self, problem: &ProfileProblem) -> String {
         let line = problem.pvi_index().and_then(|i| self.pvi_lines.as_ref().and_then(|lines| lines.get(i)));
         match line {
             Some(line) => format!("{}:{line}: {}", self.path.display(), problem.field()),
@@ -29,9 +28,6 @@ impl Input {
         }
     }
 }
-
-/// A borrowed profile problem (keeps [`Input::locate`] readable at call sites).
-pub struct ProblemRef<'a>(pub &'a ProfileProblem);
 
 /// Loads `path` as a project. A `.csv` file is read as a PVI table and needs
 /// `units`; a project file already has units, and a `units` that disagrees
