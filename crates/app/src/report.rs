@@ -23,7 +23,10 @@ struct JsonCurve {
     g2: f64,
     a: f64,
     length: f64,
+    length_in: f64,
+    length_out: f64,
     k: Option<f64>,
+    k_overall: Option<f64>,
     k_required: Option<f64>,
     length_required: f64,
     pvc_station: f64,
@@ -63,7 +66,10 @@ pub fn json(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
                     g2: g.grade_out_percent,
                     a: g.a_percent(),
                     length: g.length(),
+                    length_in: g.length_in,
+                    length_out: g.length_out,
                     k: g.k(),
+                    k_overall: g.k_overall(),
                     k_required: c.k_required,
                     length_required: c.length_required,
                     pvc_station: g.pvc.0,
@@ -121,15 +127,15 @@ pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
     let _ = writeln!(out, "\nCurves:");
     let _ = writeln!(
         out,
-        "  {:>4} {:>12} {:<5} {:>8} {:>8} {:>7} {:>9} {:>8} {:>8} {:>9}  status",
-        "PVI", "station", "kind", "g1 %", "g2 %", "A %", "L", "K", "K min", "L req"
+        "  {:>4} {:>12} {:<5} {:>8} {:>8} {:>7} {:>9} {:>8} {:>8} {:>8} {:>9}  status",
+        "PVI", "station", "kind", "g1 %", "g2 %", "A %", "L", "K L/A", "K gov", "K min", "L req"
     );
     for c in &checks.curves {
         let g = &c.curve;
         let opt = |v: Option<f64>| v.map_or("-".to_owned(), |v| format!("{v:.1}"));
         let _ = writeln!(
             out,
-            "  {:>4} {:>12} {:<5} {:>+8.3} {:>+8.3} {:>7.3} {:>9.2} {:>8} {:>8} {:>9.2}  {}",
+            "  {:>4} {:>12} {:<5} {:>+8.3} {:>+8.3} {:>7.3} {:>9.2} {:>8} {:>8} {:>8} {:>9.2}  {}",
             g.index + 1,
             g.pvi.label(units, units.station_decimals()),
             g.kind.key(),
@@ -137,6 +143,7 @@ pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
             g.grade_out_percent,
             g.a_percent(),
             g.length(),
+            opt(g.k_overall()),
             opt(g.k()),
             opt(c.k_required),
             c.length_required,
@@ -150,6 +157,11 @@ pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
     for f in &checks.findings {
         let _ = writeln!(out, "  [{}] {}: {}", f.severity.key().to_uppercase(), f.code, f.message);
     }
+    let _ = writeln!(
+        out,
+        "\nK L/A = length over A; K gov = K of the sharper branch (equal to L/A on an equal-tangent curve), \
+         which the checks use. L req = the total length the criteria ask for at the curve's back:ahead ratio."
+    );
     let _ = writeln!(
         out,
         "\nLengths in {len}. Results need checking by a licensed engineer; local codes and agency standards govern."

@@ -192,13 +192,29 @@ fn sight_writes_the_documented_csv() {
     let mut lines = text.lines();
     assert_eq!(
         lines.next(),
-        Some("station,available_forward,available_backward,required_forward,required_backward")
+        Some("station,available_forward,available_backward,required_forward,required_backward,reaches_cap")
     );
+    let lines: Vec<&str> = lines.collect();
+    let flags: Vec<&str> = lines.iter().filter_map(|l| l.rsplit(',').next()).collect();
+    assert!(flags.iter().all(|f| ["none", "forward", "backward", "both"].contains(f)), "{flags:?}");
     let rows: Vec<Vec<f64>> =
-        lines.map(|l| l.split(',').map(|v| v.parse().unwrap_or(f64::NAN)).collect()).collect();
+        lines.iter().map(|l| l.split(',').take(5).map(|v| v.parse().unwrap_or(f64::NAN)).collect()).collect();
     assert_eq!(rows.len(), 201, "0 to 2000 every 10 m");
+    // Where the flag says the cap, the number is the cap (3 × 130 m), and
+    // where a number is the cap the flag says so.
+    for (row, flag) in rows.iter().zip(&flags) {
+        let capped = (row[1] >= 390.0 - 1e-9, row[2] >= 390.0 - 1e-9);
+        let expected = match capped {
+            (false, false) => "none",
+            (true, false) => "forward",
+            (false, true) => "backward",
+            (true, true) => "both",
+        };
+        assert_eq!(*flag, expected, "{row:?}");
+    }
+    assert!(flags.contains(&"both"), "the demo's long tangents reach the cap");
     // The short crest at PVI 4 (L 90 m, A 5 %) leaves (L + C/A)/2 = 110.8 m at
-    // worst (S > L, C = 100(√2.16 + √1.2)², U. Idaho NIATT; derived) < 130 m.
+    // worst (S > L, C = 100(√2.16 + √1.2)², Green Book 2018 eq. 3-42; derived) < 130 m.
     let worst = rows.iter().map(|r| r[1]).fold(f64::INFINITY, f64::min);
     assert!((worst - 110.8).abs() < 0.5, "{worst}");
     assert!(rows.iter().all(|r| (r[3] - 130.0).abs() < 1e-9), "design SSD 130 m at 80 km/h");

@@ -1,9 +1,10 @@
 //! Checks of a profile against resolved criteria: a list of structured findings.
 
+use crate::tolerance::{PASS_RELATIVE, above, below};
 use crate::visibility::{Direction, Road, SightProfile, sight_profile, stations_every};
 use crate::{
-    Alignment, CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, Station,
-    Units, interior_curves, sight,
+    Alignment, CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, SagRule,
+    Station, Units, interior_curves, sight,
 };
 
 /// How serious a finding is.
@@ -50,16 +51,20 @@ pub struct Finding {
 pub struct CurveCheck {
     /// The curve.
     pub curve: CurveGeometry,
-    /// The minimum K for this kind of curve (`None` when no curve is needed).
+    /// The minimum K for this kind of curve (`None` when no curve is needed,
+    /// and for a grade break allowed to go without one).
     pub k_required: Option<f64>,
-    /// Length for stopping sight distance by the exact formula (S < L or S > L).
+    /// Equal-tangent length for stopping sight distance by the exact formula
+    /// (S < L or S > L); zero when no sight formula applies (a lit sag).
     pub sight_length: f64,
-    /// Sag comfort length, when that check is on and the curve is a sag.
+    /// Equal-tangent sag comfort length, when comfort is checked on a sag.
     pub comfort_length: Option<f64>,
     /// Minimum length rule.
     pub min_length: f64,
-    /// The governing minimum length: the largest of K·A, the sight-distance
-    /// length, the comfort length and the minimum-length rule.
+    /// The governing minimum *total* length at this curve's l1:l2 ratio: the
+    /// largest of K·A, the sight-distance length and the comfort length, each
+    /// times [`CurveGeometry::ratio_factor`], and the minimum-length rule.
+    /// Zero for a grade break allowed to go without a curve.
     pub length_required: f64,
     /// Whether no failure was found on this curve.
     pub ok: bool,
@@ -97,14 +102,6 @@ impl CheckReport {
     pub fn worst_at(&self, index: usize) -> Option<Severity> {
         self.findings.iter().filter(|f| f.pvi == Some(index)).map(|f| f.severity).max()
     }
-}
-
-/// Room for comparisons: a length or K equal to the requirement within this
-/// relative amount passes (values typed to the decimal must not fail by 1e-12).
-const TOLERANCE: f64 = 1e-9;
-
-fn below(value: f64, required: f64) -> bool {
-    value < required * (1.0 - TOLERANCE) - TOLERANCE
 }
 
 /// The structural problems of `profile` as failure findings (what
@@ -186,6 +183,16 @@ pub fn check_profile_with_sight(
             }),
         }
     }
+    for note in criteria.speed_notes() {
+        report.findings.push(Finding {
+            severity: Severity::Warn,
+            code: "criteria.speed-off-table",
+            station_start: profile.start().unwrap_or_default(),
+            station_end: profile.end().unwrap_or_default(),
+            pvi: None,
+            message: note,
+        });
+    }
     report.sight = sight;
     for check in &mut report.curves {
         let index = check.curve.index;
@@ -235,6 +242,41 @@ pub fn check_curve(
     check
 }
 
+/// What the criteria ask of a curve of this kind and A, as equal-tangent
+/// lengths: (minimum K, sight-distance length and its formula, comfort length).
+fn requirements(
+    curve: &CurveGeometry,
+    criteria: &ResolvedCriteria,
+) -> (f64, &'static str, f64, String, Option<f64>) {
+    let a = curve.a_percent();
+    let ssd = criteria.get(CriterionId::StoppingSightDistance);
+    if curve.kind == CurveKind::Crest {
+        let c = criteria.crest_constant();
+        let r = sight::crest_length(a, ssd, c);
+        let formula = match r.case {
+            sight::SightCase::ShorterThanCurve => format!("L = A·S²/{c:.0}"),
+            sight::SightCase::LongerThanCurve => format!("L = 2S − {c:.0}/A"),
+        };
+        return (criteria.get(CriterionId::CrestK), "crest.ssd-length", r.length, formula, None);
+    }
+    let comfort = criteria.checks_sag_comfort().then(|| criteria.sag_comfort_length(a));
+    match criteria.sag_rule() {
+        SagRule::Headlight => {
+            let (base, slope) = criteria.headlight_terms();
+            let r = sight::sag_headlight_length(a, ssd, (base, slope));
+            let formula = match r.case {
+                sight::SightCase::ShorterThanCurve => format!("L = A·S²/({base:.0} + {slope:.2}S)"),
+                sight::SightCase::LongerThanCurve => format!("L = 2S − ({base:.0} + {slope:.2}S)/A"),
+            };
+            (criteria.get(CriterionId::SagK), "sag.headlight-length", r.length, formula, comfort)
+        }
+        SagRule::Comfort => {
+            (criteria.get(CriterionId::SagK), "sag.headlight-length", 0.0, String::new(), comfort)
+        }
+    }
+}
+
+#[allow(clippy::too_many_lines)]
 fn check_curve_inner(
     curve: &CurveGeometry,
     criteria: &ResolvedCriteria,
@@ -245,12 +287,13 @@ fn check_curve_inner(
     let ks = units.k_symbol();
     let a = curve.a_percent();
     let ssd = criteria.get(CriterionId::StoppingSightDistance);
+    let min_length = criteria.get(CriterionId::MinCurveLength);
     let mut check = CurveCheck {
         curve: *curve,
         k_required: None,
         sight_length: 0.0,
         comfort_length: None,
-        min_length: 0.0,
+        min_length,
         length_required: 0.0,
         ok: true,
     };
@@ -265,9 +308,9 @@ fn check_curve_inner(
             message,
         });
     };
-    let (name, k_id) = match curve.kind {
-        CurveKind::Crest => ("Crest", CriterionId::CrestK),
-        CurveKind::Sag => ("Sag", CriterionId::SagK),
+    let name = match curve.kind {
+        CurveKind::Crest => "crest",
+        CurveKind::Sag => "sag",
         CurveKind::None => {
             if curve.length() > 0.0 {
                 push(
@@ -282,99 +325,196 @@ fn check_curve_inner(
             return check;
         }
     };
+    let (k_min, sight_code, sight_length, formula, comfort) = requirements(curve, criteria);
+    let factor = curve.ratio_factor();
+    let total_for = |equivalent: f64| equivalent * factor;
+    let governing = [k_min * a, sight_length, comfort.unwrap_or(0.0)].into_iter().fold(0.0, f64::max);
+    // A grade break with no curve: allowed up to the criterion, judged then
+    // by the sight distance along the profile only.
+    if curve.length() == 0.0 {
+        let limit = criteria.get(CriterionId::MaxBareBreak);
+        if above(a, limit) {
+            check.k_required = Some(k_min);
+            check.sight_length = sight_length;
+            check.comfort_length = comfort;
+            check.length_required = governing.max(min_length);
+            push(
+                Severity::Fail,
+                "break.needs-curve",
+                format!(
+                    "{where_}: a grade break of A = {a:.3} % with no curve is more than the largest break \
+                     left without a curve ({limit:.2} %); a {name} curve needs L ≥ {:.2} {len} \
+                     (K ≥ {k_min:.1} {ks})",
+                    check.length_required
+                ),
+            );
+        } else {
+            push(
+                Severity::Info,
+                "break.no-curve",
+                format!(
+                    "{where_}: grade break of A = {a:.3} % left without a curve (allowed up to {limit:.2} %); \
+                     its sight distance is checked along the profile"
+                ),
+            );
+        }
+        return check;
+    }
     let k = curve.k().unwrap_or(0.0);
-    let k_min = criteria.get(k_id);
+    let k_overall = curve.k_overall().unwrap_or(0.0);
+    let length = curve.length();
     check.k_required = Some(k_min);
-    // Equivalent equal-tangent length: L itself, or K_sharper·A when unequal.
-    let length = k * a;
+    check.sight_length = sight_length;
+    check.comfort_length = comfort;
+    check.length_required = total_for(governing).max(min_length);
+    // How the curve is described: its total length and, when unequal, both K.
+    let (shape, k_text) = if factor > 1.0 {
+        (
+            format!(
+                "unequal-tangent {name} curve, L = {length:.2} {len} ({:.2} back + {:.2} ahead)",
+                curve.length_in, curve.length_out
+            ),
+            format!("K = {k:.1} {ks} on its sharper branch (L/A = {k_overall:.1} {ks})"),
+        )
+    } else {
+        (format!("{name} curve, L = {length:.2} {len}"), format!("K = L/A = {k:.1} {ks}"))
+    };
+    let needs = |equivalent: f64| {
+        if factor > 1.0 {
+            format!(
+                "needs L ≥ {:.2} {len} in all at this {:.2}:{:.2} ratio (or {equivalent:.2} {len} made symmetric)",
+                total_for(equivalent),
+                curve.length_in,
+                curve.length_out
+            )
+        } else {
+            format!("needs L ≥ {equivalent:.2} {len}")
+        }
+    };
     let k_code = if curve.kind == CurveKind::Crest { "crest.k-min" } else { "sag.k-min" };
     if below(k, k_min) {
         push(
             Severity::Fail,
             k_code,
             format!(
-                "{where_}: {} curve K = {k:.1} {ks} is below the minimum {k_min:.1} {ks} \
-                 (K = L/A = {:.2} {len} / {a:.3} %; needs L ≥ {:.2} {len})",
-                name.to_lowercase(),
-                curve.length(),
-                k_min * a
+                "{where_}: {shape}: {k_text} is below the minimum {k_min:.1} {ks} (A = {a:.3} %); {}",
+                needs(k_min * a)
             ),
         );
     }
-    let (sight, sight_code, formula) = if curve.kind == CurveKind::Crest {
-        let c = criteria.crest_constant();
-        let r = sight::crest_length(a, ssd, c);
-        let formula = match r.case {
-            sight::SightCase::ShorterThanCurve => format!("L = A·S²/{c:.0}"),
-            sight::SightCase::LongerThanCurve => format!("L = 2S − {c:.0}/A"),
+    // The curve's equal-tangent equivalent (K·A) against the exact formulas.
+    let equivalent = k * a;
+    if sight_length > 0.0 && below(equivalent, sight_length) {
+        let measured = if factor > 1.0 {
+            format!("its sharper branch is as sharp as an equal-tangent {equivalent:.2} {len} curve")
+        } else {
+            format!("{length:.2} {len} is shorter than {sight_length:.2} {len}")
         };
-        (r.length, "crest.ssd-length", formula)
-    } else {
-        let (base, slope) = criteria.headlight_terms();
-        let r = sight::sag_headlight_length(a, ssd, (base, slope));
-        let formula = match r.case {
-            sight::SightCase::ShorterThanCurve => format!("L = A·S²/({base:.0} + {slope:.2}S)"),
-            sight::SightCase::LongerThanCurve => format!("L = 2S − ({base:.0} + {slope:.2}S)/A"),
-        };
-        (r.length, "sag.headlight-length", formula)
-    };
-    check.sight_length = sight;
-    if below(length, sight) {
         push(
             Severity::Fail,
             sight_code,
             format!(
-                "{where_}: {name} length {length:.2} {len} is shorter than the {sight:.2} {len} \
-                 needed for SSD {ssd:.0} {len} ({formula}, A = {a:.3} %)"
+                "{where_}: {shape}: {measured}, for SSD {ssd:.0} {len} ({formula}, A = {a:.3} %); {}",
+                needs(sight_length)
             ),
         );
     }
-    if curve.kind == CurveKind::Sag && criteria.sag_comfort {
+    if let Some(comfort) = comfort
+        && below(equivalent, comfort)
+    {
         let accel = criteria.get(CriterionId::ComfortAcceleration);
-        let comfort = sight::sag_comfort_length(units, a, criteria.design_speed, accel);
-        check.comfort_length = Some(comfort);
-        if below(length, comfort) {
-            push(
-                Severity::Fail,
-                "sag.comfort-length",
-                format!(
-                    "{where_}: sag length {length:.2} {len} is shorter than the comfort length \
-                     {comfort:.2} {len} (L = A·v²/(100·a), a = {accel} {})",
-                    units.acceleration_symbol()
-                ),
-            );
-        }
+        let why = match criteria.sag_rule() {
+            SagRule::Comfort => "the sag rule of a lit road",
+            SagRule::Headlight => "checked as asked",
+        };
+        push(
+            Severity::Fail,
+            "sag.comfort-length",
+            format!(
+                "{where_}: {shape}: shorter than the comfort length {comfort:.2} {len} ({why}; \
+                 L = A·V²/D, a = {accel} {}); {}",
+                units.acceleration_symbol(),
+                needs(comfort)
+            ),
+        );
     }
-    let min_length = criteria.get(CriterionId::MinCurveLength);
-    check.min_length = min_length;
-    if below(curve.length(), min_length) {
+    if below(length, min_length) {
         push(
             Severity::Warn,
             "curve.min-length",
             format!(
-                "{where_}: curve length {:.2} {len} is below the minimum length {min_length:.2} {len} ({})",
-                curve.length(),
+                "{where_}: curve length {length:.2} {len} is below the minimum length {min_length:.2} {len} ({})",
                 criteria.entry(CriterionId::MinCurveLength).map_or("", |e| e.rule.as_str())
             ),
         );
     }
     let drainage = criteria.get(CriterionId::DrainageK);
     if let Some((station, elevation)) = curve.turning
-        && k > drainage
+        && above(k_overall, drainage)
     {
         push(
             Severity::Warn,
             "drainage.flat-curve",
             format!(
-                "{where_}: K = {k:.1} {ks} is above {drainage:.0} {ks} with a level point at {} \
+                "{where_}: K = {k_overall:.1} {ks} is above {drainage:.0} {ks} with a level point at {} \
                  (elevation {elevation:.3}); check drainage near the level point",
                 label(units, station)
             ),
         );
     }
-    check.length_required =
-        [k_min * a, sight, check.comfort_length.unwrap_or(0.0), min_length].into_iter().fold(0.0, f64::max);
     check
+}
+
+/// The PVI whose curve (or bare grade break) blocks the sight line of an eye
+/// at profile station `eye` looking `direction`: for daylight, the curve the
+/// line of sight touches; for headlights, the last sag between the eye and
+/// where the beam meets the road. Falls back to the nearest PVI.
+fn blocking_pvi(
+    alignment: &Alignment,
+    road: &Road,
+    direction: Direction,
+    eye: f64,
+    setup: &crate::visibility::SightSetup,
+    headlight: bool,
+) -> Option<usize> {
+    let to_profile = |u: f64| match direction {
+        Direction::Forward => u,
+        Direction::Backward => -u,
+    };
+    let at = to_profile(eye);
+    let curves = alignment.curves();
+    let span = |c: &CurveGeometry| {
+        let slack = PASS_RELATIVE * (1.0 + c.pvi.0.abs());
+        (c.pvc.0 - slack, c.pvt.0 + slack)
+    };
+    let found = if headlight {
+        let hit = to_profile(at + road.headlight(at, setup));
+        let (lo, hi) = (eye.min(hit), eye.max(hit));
+        curves
+            .iter()
+            .filter(|c| c.kind == CurveKind::Sag)
+            .filter(|c| {
+                let (a, b) = span(c);
+                b >= lo && a <= hi
+            })
+            .min_by(|x, y| (x.pvi.0 - hit).abs().total_cmp(&(y.pvi.0 - hit).abs()))
+    } else {
+        let (_, horizon) = road.daylight_and_horizon(at, setup);
+        horizon.map(to_profile).and_then(|u| {
+            curves.iter().filter(|c| c.kind == CurveKind::Crest).find(|c| {
+                let (a, b) = span(c);
+                u >= a && u <= b
+            })
+        })
+    };
+    found.map(|c| c.index).or_else(|| {
+        alignment
+            .pvis()
+            .iter()
+            .enumerate()
+            .min_by(|a, b| (a.1.station.0 - eye).abs().total_cmp(&(b.1.station.0 - eye).abs()))
+            .map(|(i, _)| i)
+    })
 }
 
 fn check_sight(
@@ -387,26 +527,30 @@ fn check_sight(
     let len = units.length_symbol();
     let setup = criteria.sight_setup();
     let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
-    for short in sight.shortfalls(TOLERANCE) {
+    for short in sight.shortfalls(PASS_RELATIVE) {
         let (road, at, way) = match short.direction {
             Direction::Forward => (&roads[0], short.worst, "forward (increasing stations)"),
             Direction::Backward => (&roads[1], -short.worst, "backward (decreasing stations)"),
         };
         let day = road.daylight(at, &setup);
-        let governs = if setup.headlights && road.headlight(at, &setup) < day {
+        let headlight = setup.headlights && road.headlight(at, &setup) < day;
+        let governs = if headlight {
             "headlight sight distance (sag, at night)"
         } else {
             "daylight sight distance over the crest"
         };
-        // The PVI nearest the worst station names the curve to look at.
-        let pvi = alignment
-            .pvis()
-            .iter()
-            .enumerate()
-            .min_by(|a, b| {
-                (a.1.station.0 - short.worst).abs().total_cmp(&(b.1.station.0 - short.worst).abs())
+        let pvi = blocking_pvi(alignment, road, short.direction, short.worst, &setup, headlight);
+        let blamed = pvi
+            .and_then(|i| alignment.pvis().get(i).map(|p| (i, p)))
+            .map(|(i, p)| {
+                let what = match alignment.curves().iter().find(|c| c.index == i) {
+                    Some(c) if c.length() > 0.0 => format!("the {} curve", c.kind.key()),
+                    Some(c) if c.kind != CurveKind::None => format!("the {} grade break", c.kind.key()),
+                    _ => "the grade".to_owned(),
+                };
+                format!("; limited by {what} at PVI {} ({})", i + 1, label(units, p.station))
             })
-            .map(|(i, _)| i);
+            .unwrap_or_default();
         findings.push(Finding {
             severity: Severity::Fail,
             code: match short.direction {
@@ -418,7 +562,7 @@ fn check_sight(
             pvi,
             message: format!(
                 "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
-                 worst at {}: {:.1} {len} available",
+                 worst at {}: {:.1} {len} available{blamed}",
                 label(units, Station(short.start)),
                 label(units, Station(short.end)),
                 short.required,
@@ -447,7 +591,7 @@ fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut V
                 message,
             });
         };
-        if grade.abs() > max * (1.0 + TOLERANCE) {
+        if above(grade.abs(), max) {
             push(
                 Severity::Fail,
                 "grade.max",

@@ -3,6 +3,7 @@
 
 use serde::{Deserialize, Serialize};
 
+use crate::grades::{Area, RoadClass, Terrain, max_grade};
 use crate::{Units, sight};
 
 /// A criterion's value: computed by the published method, or the user's own.
@@ -15,32 +16,6 @@ pub enum Setting {
     Override(f64),
 }
 
-/// Terrain class for the default maximum grade.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
-pub enum Terrain {
-    /// Level terrain.
-    Level,
-    /// Rolling terrain.
-    #[default]
-    Rolling,
-    /// Mountainous terrain.
-    Mountainous,
-}
-
-impl Terrain {
-    /// All classes, flattest first.
-    pub const ALL: [Self; 3] = [Self::Level, Self::Rolling, Self::Mountainous];
-
-    /// Display name.
-    pub fn label(self) -> &'static str {
-        match self {
-            Self::Level => "level",
-            Self::Rolling => "rolling",
-            Self::Mountainous => "mountainous",
-        }
-    }
-}
-
 /// The criteria of a project, as saved in its file.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(default, deny_unknown_fields)]
@@ -49,10 +24,16 @@ pub struct Criteria {
     pub design_speed: Option<f64>,
     /// Terrain, for the default maximum grade.
     pub terrain: Terrain,
-    /// Whether the sag comfort length is checked (off by default: headlight
-    /// sight distance normally governs).
+    /// Functional class, for the default maximum grade.
+    pub road_class: RoadClass,
+    /// Rural or urban, for the default maximum grade.
+    pub area: Area,
+    /// Whether the sag comfort length is also checked on an unlit road (off by
+    /// default: headlight sight distance normally governs; on a lit road the
+    /// comfort rule is the sag rule).
     pub sag_comfort: bool,
-    /// Whether headlight sight distance is checked (off for lit roads).
+    /// Whether headlight sight distance is checked; off means the road is
+    /// continuously lit, and sags are then designed for comfort.
     pub headlight_check: bool,
     /// Whether the required SSD at each station uses the grade the vehicle is
     /// on (downgrades need more) instead of the level design SSD.
@@ -79,6 +60,8 @@ pub struct Criteria {
     pub comfort_acceleration: Setting,
     /// Minimum curve length.
     pub min_curve_length: Setting,
+    /// Largest algebraic difference of grades left without a curve, percent.
+    pub max_bare_break: Setting,
     /// Maximum grade, percent.
     pub max_grade: Setting,
     /// Minimum grade for drainage, percent.
@@ -96,6 +79,8 @@ impl Default for Criteria {
         Self {
             design_speed: None,
             terrain: Terrain::default(),
+            road_class: RoadClass::default(),
+            area: Area::default(),
             sag_comfort: false,
             headlight_check: true,
             grade_adjusted_ssd: false,
@@ -110,6 +95,7 @@ impl Default for Criteria {
             sag_k: Setting::Computed,
             comfort_acceleration: Setting::Computed,
             min_curve_length: Setting::Computed,
+            max_bare_break: Setting::Computed,
             max_grade: Setting::Computed,
             min_grade: Setting::Computed,
             drainage_k: Setting::Computed,
@@ -134,6 +120,7 @@ pub enum CriterionId {
     SagK,
     ComfortAcceleration,
     MinCurveLength,
+    MaxBareBreak,
     MaxGrade,
     MinGrade,
     DrainageK,
@@ -174,7 +161,7 @@ impl Quantity {
 
 impl CriterionId {
     /// Every criterion, in the order they are resolved and shown.
-    pub const ALL: [Self; 16] = [
+    pub const ALL: [Self; 17] = [
         Self::ReactionTime,
         Self::Deceleration,
         Self::EyeHeight,
@@ -186,6 +173,7 @@ impl CriterionId {
         Self::SagK,
         Self::ComfortAcceleration,
         Self::MinCurveLength,
+        Self::MaxBareBreak,
         Self::MaxGrade,
         Self::MinGrade,
         Self::DrainageK,
@@ -207,6 +195,7 @@ impl CriterionId {
             Self::SagK => "Minimum sag K",
             Self::ComfortAcceleration => "Comfort acceleration",
             Self::MinCurveLength => "Minimum curve length",
+            Self::MaxBareBreak => "Largest break without a curve",
             Self::MaxGrade => "Maximum grade",
             Self::MinGrade => "Minimum grade",
             Self::DrainageK => "Drainage review K",
@@ -229,7 +218,7 @@ impl CriterionId {
             | Self::SightCap => Quantity::Length,
             Self::HeadlightAngle => Quantity::Degrees,
             Self::CrestK | Self::SagK | Self::DrainageK => Quantity::K,
-            Self::MaxGrade | Self::MinGrade => Quantity::Percent,
+            Self::MaxGrade | Self::MinGrade | Self::MaxBareBreak => Quantity::Percent,
         }
     }
 
@@ -253,6 +242,7 @@ impl Criteria {
             CriterionId::SagK => self.sag_k,
             CriterionId::ComfortAcceleration => self.comfort_acceleration,
             CriterionId::MinCurveLength => self.min_curve_length,
+            CriterionId::MaxBareBreak => self.max_bare_break,
             CriterionId::MaxGrade => self.max_grade,
             CriterionId::MinGrade => self.min_grade,
             CriterionId::DrainageK => self.drainage_k,
@@ -275,6 +265,7 @@ impl Criteria {
             CriterionId::SagK => &mut self.sag_k,
             CriterionId::ComfortAcceleration => &mut self.comfort_acceleration,
             CriterionId::MinCurveLength => &mut self.min_curve_length,
+            CriterionId::MaxBareBreak => &mut self.max_bare_break,
             CriterionId::MaxGrade => &mut self.max_grade,
             CriterionId::MinGrade => &mut self.min_grade,
             CriterionId::DrainageK => &mut self.drainage_k,
@@ -299,6 +290,8 @@ impl Criteria {
             units,
             design_speed: speed,
             terrain: self.terrain,
+            road_class: self.road_class,
+            area: self.area,
             sag_comfort: self.sag_comfort,
             headlight_check: self.headlight_check,
             grade_adjusted_ssd: self.grade_adjusted_ssd,
@@ -309,7 +302,10 @@ impl Criteria {
             let resolved = match self.setting(id) {
                 Setting::Computed => Resolved { value: computed, overridden: false, rule },
                 Setting::Override(value) => {
-                    let zero_ok = matches!(id, CriterionId::MinGrade | CriterionId::MinCurveLength);
+                    let zero_ok = matches!(
+                        id,
+                        CriterionId::MinGrade | CriterionId::MinCurveLength | CriterionId::MaxBareBreak
+                    );
                     if !value.is_finite() || value < 0.0 || (value == 0.0 && !zero_ok) {
                         return Err(CriteriaError::BadOverride { criterion: id.label(), value });
                     }
@@ -361,7 +357,11 @@ pub struct ResolvedCriteria {
     pub design_speed: f64,
     /// Terrain class.
     pub terrain: Terrain,
-    /// Whether the sag comfort length is checked.
+    /// Functional class.
+    pub road_class: RoadClass,
+    /// Rural or urban.
+    pub area: Area,
+    /// Whether the sag comfort length is checked on an unlit road too.
     pub sag_comfort: bool,
     /// Whether headlight sight distance is checked.
     pub headlight_check: bool,
@@ -381,22 +381,90 @@ impl ResolvedCriteria {
         self.entry(id).map_or(f64::NAN, |r| r.value)
     }
 
-    /// Crest constant C for the eye and object heights in force.
-    pub fn crest_constant(&self) -> f64 {
-        sight::crest_constant(
-            self.units,
-            self.get(CriterionId::EyeHeight),
-            self.get(CriterionId::ObjectHeight),
-        )
+    /// Whether the criterion was entered by the user (not computed).
+    pub fn is_overridden(&self, id: CriterionId) -> bool {
+        self.entry(id).is_some_and(|e| e.overridden)
     }
 
-    /// Headlight terms (base, slope) for the headlight height and angle in force.
+    /// Crest constant C for the eye and object heights in force: the
+    /// published rounded constant when neither height is overridden, else the
+    /// general formula.
+    pub fn crest_constant(&self) -> f64 {
+        if self.is_overridden(CriterionId::EyeHeight) || self.is_overridden(CriterionId::ObjectHeight) {
+            sight::crest_constant(self.get(CriterionId::EyeHeight), self.get(CriterionId::ObjectHeight))
+        } else {
+            sight::published_crest_constant(self.units)
+        }
+    }
+
+    /// Headlight terms (base, slope) for the headlight height and angle in
+    /// force: the published rounded terms unless one is overridden.
     pub fn headlight_terms(&self) -> (f64, f64) {
-        sight::headlight_terms(
-            self.units,
-            self.get(CriterionId::HeadlightHeight),
-            self.get(CriterionId::HeadlightAngle),
-        )
+        if self.is_overridden(CriterionId::HeadlightHeight) || self.is_overridden(CriterionId::HeadlightAngle)
+        {
+            sight::headlight_terms(
+                self.get(CriterionId::HeadlightHeight),
+                self.get(CriterionId::HeadlightAngle),
+            )
+        } else {
+            sight::published_headlight_terms(self.units)
+        }
+    }
+
+    /// The sag rule in force: headlight sight distance on an unlit road,
+    /// comfort on a lit one.
+    pub fn sag_rule(&self) -> SagRule {
+        if self.headlight_check { SagRule::Headlight } else { SagRule::Comfort }
+    }
+
+    /// Whether sag curves are checked for comfort (always on a lit road).
+    pub fn checks_sag_comfort(&self) -> bool {
+        self.sag_comfort || self.sag_rule() == SagRule::Comfort
+    }
+
+    /// Sag comfort length for a grade change `a_percent`: L = A·V²/D with the
+    /// published divisor at the default acceleration, else A·v²/(100·a).
+    pub fn sag_comfort_length(&self, a_percent: f64) -> f64 {
+        let v = self.design_speed;
+        if self.is_overridden(CriterionId::ComfortAcceleration) {
+            sight::sag_comfort_length(self.units, a_percent, v, self.get(CriterionId::ComfortAcceleration))
+        } else {
+            a_percent * v * v / sight::published_comfort_divisor(self.units)
+        }
+    }
+
+    /// Warnings about the design speed: outside the published SSD and K
+    /// tables, or between their rows (the values are then computed by
+    /// formula).
+    pub fn speed_notes(&self) -> Vec<String> {
+        let unit = self.units.speed_symbol();
+        let (low, high, step) = match self.units {
+            Units::UsCustomary => (15.0, 80.0, 5.0),
+            Units::Metric => (20.0, 130.0, 10.0),
+        };
+        let v = self.design_speed;
+        let mut notes = Vec::new();
+        if crate::tolerance::below(v, low) || crate::tolerance::above(v, high) {
+            notes.push(format!(
+                "Design speed {v} {unit} is outside the published SSD and K tables ({low}–{high} {unit}, \
+                 Green Book 2018 Tables 3-1, 3-34, 3-36); SSD and K are computed by formula beyond them"
+            ));
+        } else {
+            let row = (v / step).round() * step;
+            if (v - row).abs() > crate::tolerance::PASS_RELATIVE * v {
+                notes.push(format!(
+                    "Design speed {v} {unit} lies between the rows of the published SSD and K tables \
+                     (every {step} {unit}); SSD and K are computed by formula, not read from a row"
+                ));
+            }
+        }
+        notes
+    }
+
+    /// The largest sight distance any station can require on this profile's
+    /// grades (no steeper than `max_grade_percent`).
+    pub fn largest_requirement(&self, max_grade_percent: f64) -> f64 {
+        self.sight_requirement().largest(max_grade_percent)
     }
 
     /// Heights, beam angle and cap for the sight-distance computation.
@@ -420,6 +488,7 @@ impl ResolvedCriteria {
                 speed: self.design_speed,
                 reaction_s: self.get(CriterionId::ReactionTime),
                 decel: self.get(CriterionId::Deceleration),
+                floor: self.get(CriterionId::StoppingSightDistance),
             }
         } else {
             crate::visibility::Requirement::Design(self.get(CriterionId::StoppingSightDistance))
@@ -428,29 +497,38 @@ impl ResolvedCriteria {
 
     /// The computed (published-method) value of `id`, given the criteria resolved
     /// before it, and the rule used.
+    #[allow(clippy::too_many_lines)]
     fn computed(&self, id: CriterionId) -> (f64, String) {
         let units = self.units;
         let v = self.design_speed;
         let len = units.length_symbol();
+        let speed = units.speed_symbol();
         match id {
-            CriterionId::ReactionTime => {
-                (sight::REACTION_TIME_S, "AASHTO default (TxDOT RDM 4.11.1)".to_owned())
-            }
-            CriterionId::Deceleration => {
-                (sight::default_deceleration(units), "AASHTO default (TxDOT RDM 4.11.1)".to_owned())
-            }
-            CriterionId::EyeHeight => {
-                (sight::default_eye_height(units), "AASHTO passenger-car eye height".to_owned())
-            }
-            CriterionId::ObjectHeight => {
-                (sight::default_object_height(units), "AASHTO stopping object height".to_owned())
-            }
-            CriterionId::HeadlightHeight => {
-                (sight::default_headlight_height(units), "AASHTO headlight height".to_owned())
-            }
-            CriterionId::HeadlightAngle => {
-                (sight::HEADLIGHT_ANGLE_DEG, "AASHTO upward beam divergence".to_owned())
-            }
+            CriterionId::ReactionTime => (
+                sight::REACTION_TIME_S,
+                "Green Book 2018 §3.2.2, brake reaction time (TxDOT RDM §4.11.1)".to_owned(),
+            ),
+            CriterionId::Deceleration => (
+                sight::default_deceleration(units),
+                "Green Book 2018 §3.2.2, deceleration rate (TxDOT RDM §4.11.1; metric from memory)"
+                    .to_owned(),
+            ),
+            CriterionId::EyeHeight => (
+                sight::default_eye_height(units),
+                "Green Book 2018 §3.2.6, passenger-car driver eye height (TxDOT RDM §4.11.1)".to_owned(),
+            ),
+            CriterionId::ObjectHeight => (
+                sight::default_object_height(units),
+                "Green Book 2018 §3.2.6, object height for stopping (TxDOT RDM §4.11.1)".to_owned(),
+            ),
+            CriterionId::HeadlightHeight => (
+                sight::default_headlight_height(units),
+                "Green Book 2018 §3.4.6.3, headlight height (from memory)".to_owned(),
+            ),
+            CriterionId::HeadlightAngle => (
+                sight::HEADLIGHT_ANGLE_DEG,
+                "Green Book 2018 §3.4.6.3, upward divergence of the beam (from memory)".to_owned(),
+            ),
             CriterionId::StoppingSightDistance => {
                 let t = self.get(CriterionId::ReactionTime);
                 let a = self.get(CriterionId::Deceleration);
@@ -461,7 +539,10 @@ impl ResolvedCriteria {
                 };
                 (
                     sight::round_design_distance(raw),
-                    format!("SSD = {formula} = {raw:.1} {len}, rounded up to 5 {len} (AASHTO)"),
+                    format!(
+                        "SSD = {formula} = {raw:.1} {len}, rounded up to 5 {len} as Green Book 2018 Table 3-1 is \
+                         (eq. 3-2)"
+                    ),
                 )
             }
             CriterionId::CrestK => {
@@ -470,23 +551,38 @@ impl ResolvedCriteria {
                 let raw = s * s / c;
                 (
                     sight::round_design_k(raw),
-                    format!("K = S²/{c:.0} = {raw:.2}, rounded up as the AASHTO table does"),
+                    format!("K = S²/{c:.0} = {raw:.2}, rounded up as Green Book 2018 Table 3-34 is"),
                 )
             }
-            CriterionId::SagK => {
-                let s = self.get(CriterionId::StoppingSightDistance);
-                let (base, slope) = self.headlight_terms();
-                let raw = s * s / (base + slope * s);
-                (
-                    sight::round_design_k(raw),
-                    format!(
-                        "K = S²/({base:.0} + {slope:.2}·S) = {raw:.2}, rounded up as the AASHTO table does"
-                    ),
-                )
-            }
-            CriterionId::ComfortAcceleration => {
-                (sight::default_comfort_acceleration(units), "AASHTO comfort limit (1 ft/s²)".to_owned())
-            }
+            CriterionId::SagK => match self.sag_rule() {
+                SagRule::Headlight => {
+                    let s = self.get(CriterionId::StoppingSightDistance);
+                    let (base, slope) = self.headlight_terms();
+                    let raw = s * s / (base + slope * s);
+                    (
+                        sight::round_design_k(raw),
+                        format!(
+                            "headlight rule (unlit road): K = S²/({base:.0} + {slope:.2}·S) = {raw:.2}, rounded \
+                             up as Green Book 2018 Table 3-36 is"
+                        ),
+                    )
+                }
+                SagRule::Comfort => {
+                    let raw = self.sag_comfort_length(1.0);
+                    (
+                        sight::round_design_k(raw),
+                        format!(
+                            "comfort rule (lit road, headlight check off): K = L/A for comfort = {raw:.2}, \
+                             rounded up (Green Book 2018 §3.4.6.3, sags with fixed lighting, and eq. 3-50; \
+                             from memory)"
+                        ),
+                    )
+                }
+            },
+            CriterionId::ComfortAcceleration => (
+                sight::default_comfort_acceleration(units),
+                "Green Book 2018 §3.4.6.3, comfortable vertical acceleration 1 ft/s² (0.3 m/s²)".to_owned(),
+            ),
             CriterionId::MinCurveLength => {
                 let rule = match units {
                     Units::UsCustomary => "3·V",
@@ -494,26 +590,32 @@ impl ResolvedCriteria {
                 };
                 (
                     sight::appearance_min_length(units, v),
-                    format!("rule of thumb L ≥ {rule} for appearance (common practice, from memory)"),
-                )
-            }
-            CriterionId::MaxGrade => {
-                let (grade, note) = max_grade_percent(units, v, self.terrain);
-                (
-                    grade,
                     format!(
-                        "AASHTO rural arterial, {} terrain (Green Book Table 7-2, from memory){note}",
-                        self.terrain.label()
+                        "L ≥ {rule}, the Green Book's minimum length for appearance (2018 §3.4.6.2; from memory)"
                     ),
                 )
             }
+            CriterionId::MaxBareBreak => {
+                let (slow, limit) = match units {
+                    Units::UsCustomary => (45.0, if v <= 45.0 { 1.0 } else { 0.5 }),
+                    Units::Metric => (70.0, if v <= 70.0 { 1.0 } else { 0.5 }),
+                };
+                (
+                    limit,
+                    format!(
+                        "a grade break without a curve up to 0.5 % (1.0 % at {slow} {speed} or less): agency \
+                         practice varies (common practice, from memory; no published source confirmed)"
+                    ),
+                )
+            }
+            CriterionId::MaxGrade => max_grade(units, v, self.road_class, self.area, self.terrain),
             CriterionId::MinGrade => (
                 sight::MIN_GUTTER_GRADE_PERCENT,
-                "curbed-road gutter minimum (TxDOT Hydraulic Design Manual ch. 10)".to_owned(),
+                "curbed-road gutter minimum (TxDOT Hydraulic Design Manual (2019) ch. 10)".to_owned(),
             ),
             CriterionId::DrainageK => (
                 sight::drainage_k(units),
-                "curbed-road drainage review threshold (state design manuals; TxDOT)".to_owned(),
+                "curbed-road drainage review above this K (Green Book 2018 §3.4.6.2; from memory)".to_owned(),
             ),
             CriterionId::SightStep => (
                 match units {
@@ -533,45 +635,21 @@ impl ResolvedCriteria {
     }
 }
 
-/// The default maximum grade (percent) for a design speed and terrain, from the
-/// AASHTO rural arterial table (from memory), with a note when the speed lies
-/// outside the table (the nearest tabulated speed is used: the lowest for
-/// slower roads, the highest for faster) or between two entries (the higher,
-/// stricter speed is used).
-pub fn max_grade_percent(units: Units, speed: f64, terrain: Terrain) -> (f64, String) {
-    // Rows: level, rolling, mountainous; columns: speeds below.
-    const US_SPEEDS: [f64; 9] = [40.0, 45.0, 50.0, 55.0, 60.0, 65.0, 70.0, 75.0, 80.0];
-    const US: [[f64; 9]; 3] = [
-        [5.0, 5.0, 4.0, 4.0, 3.0, 3.0, 3.0, 3.0, 3.0],
-        [6.0, 6.0, 5.0, 5.0, 4.0, 4.0, 4.0, 4.0, 4.0],
-        [8.0, 7.0, 7.0, 6.0, 6.0, 5.0, 5.0, 5.0, 5.0],
-    ];
-    const SI_SPEEDS: [f64; 8] = [60.0, 70.0, 80.0, 90.0, 100.0, 110.0, 120.0, 130.0];
-    const SI: [[f64; 8]; 3] = [
-        [5.0, 5.0, 4.0, 4.0, 3.0, 3.0, 3.0, 3.0],
-        [6.0, 6.0, 5.0, 5.0, 4.0, 4.0, 4.0, 4.0],
-        [8.0, 7.0, 7.0, 6.0, 6.0, 5.0, 5.0, 5.0],
-    ];
-    let row = match terrain {
-        Terrain::Level => 0,
-        Terrain::Rolling => 1,
-        Terrain::Mountainous => 2,
-    };
-    let (speeds, grades): (&[f64], &[f64]) = match units {
-        Units::UsCustomary => (&US_SPEEDS, US.get(row).map_or(&[][..], |r| &r[..])),
-        Units::Metric => (&SI_SPEEDS, SI.get(row).map_or(&[][..], |r| &r[..])),
-    };
-    let column = speeds.iter().position(|&s| s >= speed - 1e-9);
-    let (lowest, highest) = (speeds.first().copied(), speeds.last().copied());
-    let note = match (column, lowest) {
-        (Some(0), Some(low)) if speed < low - 1e-9 => {
-            format!("; table starts at {low} {}, its value used", units.speed_symbol())
+/// Which rule sets the sag requirement.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum SagRule {
+    /// Headlight sight distance at night (an unlit road).
+    Headlight,
+    /// Rider comfort (a continuously lit road).
+    Comfort,
+}
+
+impl SagRule {
+    /// Display name.
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Headlight => "headlight sight distance (unlit road)",
+            Self::Comfort => "comfort (lit road)",
         }
-        (None, _) => {
-            format!("; table ends at {} {}, its value used", highest.unwrap_or(0.0), units.speed_symbol())
-        }
-        _ => String::new(),
-    };
-    let column = column.unwrap_or(speeds.len().saturating_sub(1));
-    (grades.get(column).copied().unwrap_or(f64::NAN), note)
+    }
 }

@@ -15,9 +15,17 @@
 //! g_c = (l1·g1 + l2·g2)/L and the offset from the PVI is
 //! e = l1·l2·(g2 − g1)/(2L); r1 = l2(g2 − g1)/(l1·L), r2 = l1(g2 − g1)/(l2·L).
 //!
-//! Source of every relation: the parabola relations in J. Mahun's open-access
-//! surveying notes (vertical curves) and the derivations that follow from them.
+//! Sources: the equal-tangent relations are those of F. L. Mannering and
+//! S. S. Washburn, *Principles of Highway Engineering and Traffic Analysis*,
+//! ch. 3 (vertical curve fundamentals; equation numbers from memory), and of
+//! J. Mahun, *Vertical Curves* (open-access surveying text); the
+//! unequal-tangent relations are derived from them (two parabolas meeting
+//! under the PVI with a common tangent). See `docs/sources.md`.
+//!
+//! A grade change of at most [`crate::tolerance::GRADE_CHANGE_PERCENT`] is no
+//! grade change ([`CurveKind::None`]).
 
+use crate::tolerance::{is_grade_change, same_length};
 use crate::{Pvi, Station};
 
 /// Whether a grade change is a crest, a sag, or none at all.
@@ -127,12 +135,12 @@ impl CurveGeometry {
         let l1 = pvi.curve.length_in();
         let l2 = pvi.curve.length_out();
         let diff = g2 - g1;
-        let kind = if diff < 0.0 {
-            CurveKind::Crest
-        } else if diff > 0.0 {
-            CurveKind::Sag
-        } else {
+        let kind = if !is_grade_change(diff * 100.0) {
             CurveKind::None
+        } else if diff < 0.0 {
+            CurveKind::Crest
+        } else {
+            CurveKind::Sag
         };
         let total = l1 + l2;
         let offset = if total > 0.0 { l1 * l2 * diff / (2.0 * total) } else { 0.0 };
@@ -167,9 +175,9 @@ impl CurveGeometry {
         self.length_in + self.length_out
     }
 
-    /// Whether l1 = l2.
+    /// Whether l1 = l2 (within [`crate::tolerance::LENGTH_RELATIVE`]).
     pub fn is_symmetric(&self) -> bool {
-        self.length_in.to_bits() == self.length_out.to_bits()
+        same_length(self.length_in, self.length_out)
     }
 
     /// Algebraic difference of grades A = |g2 − g1|, percent.
@@ -197,10 +205,11 @@ impl CurveGeometry {
     /// K, horizontal length per percent of grade change: L/A on an equal-tangent
     /// curve. On an unequal-tangent curve, the K of its sharper branch,
     /// 1/max(|r1|, |r2|), which is never larger than L/A (conservative for
-    /// checks). `None` when A = 0; zero for a bare grade break.
+    /// checks; [`Self::k_overall`] gives L/A). `None` when there is no grade
+    /// change; zero for a bare grade break.
     pub fn k(&self) -> Option<f64> {
         let a = self.a_percent();
-        if a == 0.0 {
+        if self.kind == CurveKind::None {
             return None;
         }
         if self.is_symmetric() || self.length() == 0.0 {
@@ -208,6 +217,22 @@ impl CurveGeometry {
         }
         let (r1, r2) = self.rates_percent();
         Some(1.0 / r1.abs().max(r2.abs()))
+    }
+
+    /// K = L/A of the whole curve, whatever its branches; `None` when there is
+    /// no grade change.
+    pub fn k_overall(&self) -> Option<f64> {
+        (self.kind != CurveKind::None).then(|| self.length() / self.a_percent())
+    }
+
+    /// How much longer than an equal-tangent curve of the same sharpness an
+    /// unequal-tangent curve of this l1:l2 ratio must be: max(l1/l2, l2/l1)
+    /// (1 when symmetric or no curve). A requirement on the equal-tangent
+    /// length L_eq = K·A calls for a total length L_eq × this factor at this
+    /// ratio (derived from r1 = l2·(g2 − g1)/(l1·L), r2 = l1·(g2 − g1)/(l2·L)).
+    pub fn ratio_factor(&self) -> f64 {
+        let (l1, l2) = (self.length_in, self.length_out);
+        if l1 <= 0.0 || l2 <= 0.0 || self.is_symmetric() { 1.0 } else { (l1 / l2).max(l2 / l1) }
     }
 
     /// The curve's one or two parabolic pieces (none for a bare grade break).

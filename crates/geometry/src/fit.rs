@@ -4,10 +4,11 @@
 //! length, and the sight distance actually available over the profile —
 //! without overlapping its neighbours.
 
-use crate::visibility::{Direction, SightProfile, sight_profile, stations_every};
+use crate::tolerance::{below, ceil_to};
+use crate::visibility::{Direction, SightProfile, sight_profile, stations_between};
 use crate::{
-    Alignment, CriterionId, CurveGeometry, CurveKind, Profile, ResolvedCriteria, Units, check_curve,
-    format_station,
+    Alignment, CriterionId, CurveGeometry, CurveKind, MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Units,
+    check_curve, format_station,
 };
 
 /// What happened to one curve.
@@ -89,6 +90,10 @@ fn fit_one(profile: &mut Profile, criteria: &ResolvedCriteria, index: usize, inc
         outcome.message = format!("{name}: no grade change, no curve needed");
         return outcome;
     }
+    if let Some(reason) = sight_refused(profile, criteria, index) {
+        outcome.message = format!("{name}: {reason}; unchanged");
+        return outcome;
+    }
     if clears(profile, criteria, index) {
         outcome.cleared = true;
         outcome.message = format!("{name}: already clears every criterion at {old_length:.2} {len}");
@@ -96,14 +101,11 @@ fn fit_one(profile: &mut Profile, criteria: &ResolvedCriteria, index: usize, inc
     }
     // The curve criteria give a first length; the sight distance over the
     // actual profile may ask for more (neighbouring curves).
+    // The required length is already the total for this curve's l1:l2 ratio.
     let mut scratch = Vec::new();
     let check = check_curve(&curve, criteria, &mut scratch);
-    let k_ratio = match (curve.k(), curve.length()) {
-        (Some(k), l) if l > 0.0 && k > 0.0 => l / (k * curve.a_percent()), // 1 when symmetric
-        _ => 1.0,
-    };
-    let needed = (check.length_required * k_ratio).max(old_length);
-    let mut length = (needed / increment - 1e-9).ceil() * increment;
+    let needed = check.length_required.max(check.min_length).max(old_length);
+    let mut length = ceil_to(needed, increment);
     let steps_limit = 400;
     for _ in 0..steps_limit {
         if length > max_length * (1.0 + 1e-12) {
@@ -121,7 +123,7 @@ fn fit_one(profile: &mut Profile, criteria: &ResolvedCriteria, index: usize, inc
     if let Some(p) = profile.pvis.get_mut(index) {
         *p = original;
     }
-    let needs = (needed / increment - 1e-9).ceil() * increment;
+    let needs = ceil_to(needed, increment);
     outcome.message = if needs > max_length {
         format!(
             "{name} ({}): needs {needs:.0} {len}, only {max_length:.0} {len} fits between its neighbours; unchanged",
@@ -149,6 +151,50 @@ fn geometry_at(profile: &Profile, index: usize) -> Option<CurveGeometry> {
     Some(CurveGeometry::new(index, a, b, c))
 }
 
+/// How far from a curve an eye can still be held up by it: the largest
+/// sight distance any station of the profile can require.
+fn reach(profile: &Profile, criteria: &ResolvedCriteria) -> f64 {
+    let steepest = profile
+        .pvis
+        .windows(2)
+        .filter_map(|w| match w {
+            [a, b] => Some(((b.elevation - a.elevation) / (b.station - a.station) * 100.0).abs()),
+            _ => None,
+        })
+        .filter(|g| g.is_finite())
+        .fold(0.0, f64::max);
+    let ssd = criteria.get(CriterionId::StoppingSightDistance);
+    let largest = criteria.largest_requirement(steepest);
+    let cap = criteria.get(CriterionId::SightCap);
+    if largest.is_finite() { largest.max(ssd).min(cap.max(ssd)) } else { cap.max(ssd) }
+}
+
+/// The eye stations around the curve at `index` that can see onto it.
+fn window(profile: &Profile, criteria: &ResolvedCriteria, curve: &CurveGeometry) -> (f64, f64) {
+    let reach = reach(profile, criteria);
+    let length = (profile.pvis.get(curve.index + 1).map_or(curve.pvt.0, |p| p.station.0)
+        - profile.pvis.get(curve.index.wrapping_sub(1)).map_or(curve.pvc.0, |p| p.station.0))
+    .max(0.0);
+    // The curve can grow to the neighbouring PVIs: look that far too.
+    (curve.pvi.0 - length - reach, curve.pvi.0 + length + reach)
+}
+
+/// Why the sight distance around the curve at `index` would not be computed
+/// (too many stations at the step in force), if so.
+fn sight_refused(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> Option<String> {
+    let curve = geometry_at(profile, index)?;
+    let (lo, hi) = window(profile, criteria, &curve);
+    let step = criteria.get(CriterionId::SightStep);
+    let count = (hi - lo) / step;
+    (count.is_nan() || count > MAX_SIGHT_STATIONS).then(|| {
+        format!(
+            "the sight distance was not checked: a step of {step} {} would need more than {MAX_SIGHT_STATIONS} \
+             stations",
+            profile.units.length_symbol()
+        )
+    })
+}
+
 /// Whether the curve at `index` meets the curve criteria (minimum length
 /// included) and the available sight distance around it.
 fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool {
@@ -158,18 +204,15 @@ fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool 
     let Some(curve) = geometry_at(profile, index) else { return false };
     let mut findings = Vec::new();
     let check = check_curve(&curve, criteria, &mut findings);
-    let below_min = curve.length() < check.min_length * (1.0 - 1e-9);
-    if !check.ok || below_min {
+    if !check.ok || below(curve.length(), check.min_length) {
         return false;
     }
     let Ok(alignment) = Alignment::new(profile) else { return false };
-    let ssd = criteria.get(CriterionId::StoppingSightDistance);
     let step = criteria.get(CriterionId::SightStep);
-    // Eyes that can see onto the curve: up to the SSD before it travelling
-    // forward, and after it travelling backward.
-    let (lo, hi) = (curve.pvc.0 - ssd.max(0.0), curve.pvt.0 + ssd.max(0.0));
-    let stations: Vec<f64> =
-        stations_every(&alignment, step).into_iter().filter(|s| *s >= lo && *s <= hi).collect();
+    // Eyes that can see onto the curve: up to the largest requirement before
+    // it travelling forward, and after it travelling backward.
+    let reach = reach(profile, criteria);
+    let stations = stations_between(&alignment, step, curve.pvc.0 - reach, curve.pvt.0 + reach);
     // A crest limits daylight sight distance and a sag headlight sight
     // distance; only the kind this curve can cause counts against it.
     let mut setup = criteria.sight_setup();
@@ -182,7 +225,7 @@ fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool 
         return true;
     }
     let sight: SightProfile = sight_profile(&alignment, &setup, criteria.sight_requirement(), &stations);
-    sight.shortfalls(1e-9).iter().all(|s| {
+    sight.shortfalls(crate::tolerance::PASS_RELATIVE).iter().all(|s| {
         // Only shortfalls looking onto this curve count against it.
         match s.direction {
             Direction::Forward => s.worst > curve.pvt.0,

@@ -18,11 +18,13 @@ mod criteria;
 mod curve;
 mod edit;
 mod fit;
+mod grades;
 mod profile;
 mod project;
 pub mod sight;
 mod station;
 pub mod synthetic;
+pub mod tolerance;
 mod units;
 pub mod visibility;
 
@@ -32,12 +34,12 @@ pub use checks::{
     check_profile_with_sight, compute_sight, structural_findings,
 };
 pub use criteria::{
-    Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, Setting, Terrain,
-    max_grade_percent,
+    Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, SagRule, Setting,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
 pub use edit::InsertError;
 pub use fit::{FitOutcome, lengthen_to_clear};
+pub use grades::{Area, RoadClass, Terrain, max_grade};
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, write_atomic};
 pub use station::{Station, StationError, format_station, parse_station};

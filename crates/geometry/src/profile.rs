@@ -31,7 +31,7 @@ impl VerticalCurve {
     pub fn from_lengths(length_in: f64, length_out: f64) -> Self {
         if length_in == 0.0 && length_out == 0.0 {
             Self::None
-        } else if length_in.to_bits() == length_out.to_bits() {
+        } else if crate::tolerance::same_length(length_in, length_out) {
             Self::Symmetric { length: length_in + length_out }
         } else {
             Self::Unequal { length_in, length_out }

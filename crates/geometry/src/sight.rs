@@ -3,19 +3,23 @@
 //! All grades here are percent (A) or decimal (G, for grade-adjusted SSD), as
 //! noted; S and L in the project's length unit; V in km/h or mph.
 //!
-//! Sources: AASHTO, *A Policy on Geometric Design of Highways and Streets*
-//! (the Green Book), as quoted by TxDOT Roadway Design Manual §4.11.1 (US SSD,
-//! t = 2.5 s, a = 11.2 ft/s², eye 3.5 ft, object 2.0 ft), MoDOT design slides
-//! (crest 2158, sag 400 + 3.5S, comfort 46.5, case selection), U. Idaho NIATT
-//! (general crest formula); metric coefficients (0.278, 0.039, 658, 120 + 3.5S,
-//! 395) are the Green Book's metric edition (from memory).
+//! Sources (full list in `docs/sources.md`): AASHTO, *A Policy on Geometric
+//! Design of Highways and Streets* (the Green Book), 2018, ch. 3: SSD on the
+//! level (eq. 3-2) and on grades (eq. 3-3), crest lengths (eq. 3-41 to 3-44),
+//! sag headlight lengths (eq. 3-46 to 3-49), the comfort length (eq. 3-50),
+//! the undercrossing lengths (eq. 3-51, 3-52) — equation numbers from memory;
+//! US default values as quoted in the TxDOT *Roadway Design Manual* (2020),
+//! §4.11.1 (t = 2.5 s, a = 11.2 ft/s², eye 3.5 ft, object 2.0 ft); the metric
+//! coefficients (0.278, 0.039, 658, 120 + 3.5S, 395) are the Green Book's
+//! metric ones (from memory).
 
 use crate::Units;
 
-/// Default perception–reaction time, s (TxDOT RDM 4.11.1).
+/// Default perception–reaction time, s (Green Book 2018 §3.2.2; TxDOT RDM §4.11.1).
 pub const REACTION_TIME_S: f64 = 2.5;
 
-/// Default deceleration: 3.4 m/s² or 11.2 ft/s² (TxDOT RDM 4.11.1).
+/// Default deceleration: 3.4 m/s² or 11.2 ft/s² (Green Book 2018 §3.2.2,
+/// metric from memory; TxDOT RDM §4.11.1).
 pub fn default_deceleration(units: Units) -> f64 {
     match units {
         Units::Metric => 3.4,
@@ -39,13 +43,14 @@ pub fn default_object_height(units: Units) -> f64 {
     }
 }
 
-/// Default headlight height: 0.60 m or 2.0 ft (AASHTO headlight criterion, via
-/// the Pearson/easycalculation form of the sag formula).
+/// Default headlight height: 0.60 m or 2.0 ft (Green Book 2018 §3.4.6.3,
+/// headlight sight distance; from memory).
 pub fn default_headlight_height(units: Units) -> f64 {
     default_object_height(units)
 }
 
-/// Default upward divergence of the headlight beam, degrees (AASHTO).
+/// Default upward divergence of the headlight beam, degrees (Green Book 2018
+/// §3.4.6.3; from memory).
 pub const HEADLIGHT_ANGLE_DEG: f64 = 1.0;
 
 /// Default vertical acceleration for sag comfort: 1 ft/s² (0.3048 m/s²), the
@@ -66,6 +71,31 @@ pub fn stopping_sight_distance(units: Units, speed: f64, reaction_s: f64, decel:
     }
 }
 
+/// Reaction distance 1.47·V·t (US) or 0.278·V·t (metric).
+pub fn reaction_distance(units: Units, speed: f64, reaction_s: f64) -> f64 {
+    let k = match units {
+        Units::UsCustomary => 1.47,
+        Units::Metric => 0.278,
+    };
+    k * speed * reaction_s
+}
+
+/// Braking distance on a grade `grade` (decimal, + uphill): V²/(30(a/32.2 + G))
+/// (US) or V²/(254(a/9.81 + G)) (metric) (Green Book 2018 eq. 3-3; from
+/// memory). Infinity when the grade is so steep downhill that the vehicle
+/// cannot stop.
+pub fn braking_distance(units: Units, speed: f64, decel: f64, grade: f64) -> f64 {
+    let k = match units {
+        Units::UsCustomary => 30.0,
+        Units::Metric => 254.0,
+    };
+    let friction = decel / units.gravity() + grade;
+    if friction <= 0.0 {
+        return f64::INFINITY;
+    }
+    speed * speed / (k * friction)
+}
+
 /// Stopping sight distance on a grade (`grade` decimal, + uphill), unrounded:
 /// SSD = 1.47Vt + V²/(30(a/32.2 + G)) (US) or 0.278Vt + V²/(254(a/9.81 + G)).
 /// Downgrades (G < 0) need more distance. Returns infinity when the grade is so
@@ -77,63 +107,53 @@ pub fn stopping_sight_distance_on_grade(
     decel: f64,
     grade: f64,
 ) -> f64 {
-    let (k_react, k_brake) = match units {
-        Units::UsCustomary => (1.47, 30.0),
-        Units::Metric => (0.278, 254.0),
-    };
-    let friction = decel / units.gravity() + grade;
-    if friction <= 0.0 {
-        return f64::INFINITY;
-    }
-    k_react * speed * reaction_s + speed * speed / (k_brake * friction)
+    reaction_distance(units, speed, reaction_s) + braking_distance(units, speed, decel, grade)
 }
 
 /// Rounds a computed sight distance up to the next 5 m or 5 ft, as the design
 /// tables do (reproduces AASHTO Table 3-1; derived from its entries).
 pub fn round_design_distance(distance: f64) -> f64 {
-    // A hair of tolerance so that an exact multiple of 5 stays put.
-    (distance / 5.0 - 1e-9).ceil() * 5.0
+    crate::tolerance::ceil_to(distance, 5.0)
 }
 
 /// Rounds a computed K up to a whole number after rounding to one decimal,
 /// as the AASHTO K tables do (plain ceiling gives 53 for 52.01 at 100 km/h).
 pub fn round_design_k(k: f64) -> f64 {
     let tenth = (k * 10.0).round() / 10.0;
-    (tenth - 1e-9).ceil()
+    crate::tolerance::ceil_to(tenth, 1.0)
 }
 
-/// The crest constant C in L = A·S²/C for eye height `h1` and object height `h2`:
-/// C = 100(√(2h1) + √(2h2))² (U. Idaho NIATT). At the default heights the
-/// published rounded constants are used instead, 2158 (US) and 658 (metric), so
-/// that K reproduces the AASHTO tables (at 45 mph, 2158.3 gives K = 60 where the
-/// table says 61; 2158 gives 61).
-pub fn crest_constant(units: Units, h1: f64, h2: f64) -> f64 {
-    let is_default = h1.to_bits() == default_eye_height(units).to_bits()
-        && h2.to_bits() == default_object_height(units).to_bits();
-    if is_default {
-        match units {
-            Units::UsCustomary => 2158.0,
-            Units::Metric => 658.0,
-        }
-    } else {
-        let root = (2.0 * h1).sqrt() + (2.0 * h2).sqrt();
-        100.0 * root * root
+/// The crest constant C in L = A·S²/C for eye height `h1` and object height
+/// `h2`: C = 100(√(2h1) + √(2h2))² (Green Book 2018 eq. 3-41; from memory).
+pub fn crest_constant(h1: f64, h2: f64) -> f64 {
+    let root = (2.0 * h1).sqrt() + (2.0 * h2).sqrt();
+    100.0 * root * root
+}
+
+/// The published rounded crest constant for the default heights: 2158 (US,
+/// Green Book 2018 eq. 3-43) and 658 (metric; from memory). With it K
+/// reproduces the Green Book's tables (at 45 mph, 2158.3 gives K = 60 where
+/// Table 3-34 says 61; 2158 gives 61). Used when neither height is overridden.
+pub fn published_crest_constant(units: Units) -> f64 {
+    match units {
+        Units::UsCustomary => 2158.0,
+        Units::Metric => 658.0,
     }
 }
 
-/// The headlight terms (base, slope) of the sag denominator base + slope·S, from
-/// L = A·S²/(200(H + S·tan β)). At the default H and β the published rounded
-/// values are used: 400 + 3.5S (US) and 120 + 3.5S (metric).
-pub fn headlight_terms(units: Units, height: f64, angle_deg: f64) -> (f64, f64) {
-    let is_default = height.to_bits() == default_headlight_height(units).to_bits()
-        && angle_deg.to_bits() == HEADLIGHT_ANGLE_DEG.to_bits();
-    if is_default {
-        match units {
-            Units::UsCustomary => (400.0, 3.5),
-            Units::Metric => (120.0, 3.5),
-        }
-    } else {
-        (200.0 * height, 200.0 * angle_deg.to_radians().tan())
+/// The headlight terms (base, slope) of the sag denominator base + slope·S,
+/// from L = A·S²/(200(H + S·tan β)) (Green Book 2018 eq. 3-46; from memory).
+pub fn headlight_terms(height: f64, angle_deg: f64) -> (f64, f64) {
+    (200.0 * height, 200.0 * angle_deg.to_radians().tan())
+}
+
+/// The published rounded headlight terms for the default H and β: 400 + 3.5S
+/// (US, Green Book 2018 eq. 3-48) and 120 + 3.5S (metric; from memory). Used
+/// when neither the headlight height nor the angle is overridden.
+pub fn published_headlight_terms(units: Units) -> (f64, f64) {
+    match units {
+        Units::UsCustomary => (400.0, 3.5),
+        Units::Metric => (120.0, 3.5),
     }
 }
 
@@ -156,7 +176,8 @@ pub struct RequiredLength {
 }
 
 /// Shared case selection: try S < L with L = A·S²/D; if that L is shorter than
-/// S, use S > L with L = 2S − D/A (MoDOT slides: try S < L first).
+/// S, use S > L with L = 2S − D/A (the case test of Green Book 2018 §3.4.6;
+/// common practice).
 fn by_cases(a_percent: f64, sight: f64, denominator: f64) -> RequiredLength {
     if a_percent <= 0.0 || sight <= 0.0 {
         return RequiredLength { length: 0.0, case: SightCase::LongerThanCurve };
@@ -184,25 +205,27 @@ pub fn sag_headlight_length(a_percent: f64, sight: f64, terms: (f64, f64)) -> Re
 }
 
 /// Sag length for rider comfort: L = A·v²/(100·a_v), v the design speed in
-/// m/s or ft/s and a_v the vertical acceleration. At the default 1 ft/s² this is
-/// AASHTO's L = A·V²/46.5 (US) and L = A·V²/395 (metric), whose published
-/// divisors are used at that default.
+/// m/s or ft/s and a_v the vertical acceleration (derived from y″ = v²·r).
 pub fn sag_comfort_length(units: Units, a_percent: f64, speed: f64, accel: f64) -> f64 {
-    if accel.to_bits() == default_comfort_acceleration(units).to_bits() {
-        let divisor = match units {
-            Units::UsCustomary => 46.5,
-            Units::Metric => 395.0,
-        };
-        return a_percent * speed * speed / divisor;
-    }
     let v = speed * units.speed_to_length_per_second();
     a_percent * v * v / (100.0 * accel)
+}
+
+/// The published comfort divisor D in L = A·V²/D for the default 1 ft/s²:
+/// 46.5 (US, Green Book 2018 eq. 3-50) and 395 (metric; from memory). Used
+/// when the comfort acceleration is not overridden.
+pub fn published_comfort_divisor(units: Units) -> f64 {
+    match units {
+        Units::UsCustomary => 46.5,
+        Units::Metric => 395.0,
+    }
 }
 
 /// Sag length under an overhead structure of vertical clearance `clearance`,
 /// for a truck driver's eye at `h1` and an object at `h2` (8 ft/2 ft or
 /// 2.4 m/0.6 m, from memory): L = A·S²/(800(C − (h1 + h2)/2)) when S < L,
-/// else L = 2S − 800(C − (h1 + h2)/2)/A (Mannering, via csr.engine.ac.nz).
+/// else L = 2S − 800(C − (h1 + h2)/2)/A (Green Book 2018 eq. 3-51, 3-52;
+/// Mannering & Washburn ch. 3; from memory).
 pub fn sag_undercrossing_length(
     a_percent: f64,
     sight: f64,
@@ -213,8 +236,8 @@ pub fn sag_undercrossing_length(
     by_cases(a_percent, sight, 800.0 * (clearance - (h1 + h2) / 2.0))
 }
 
-/// Minimum length by the appearance rule of thumb, L ≥ 3V (ft, V in mph) or
-/// L ≥ 0.6V (m, V in km/h) (from memory).
+/// Minimum length for appearance, L ≥ 3V (ft, V in mph) or L ≥ 0.6V (m, V in
+/// km/h): the Green Book's own rule (2018 §3.4.6.2; from memory).
 pub fn appearance_min_length(units: Units, speed: f64) -> f64 {
     match units {
         Units::UsCustomary => 3.0 * speed,
@@ -223,8 +246,9 @@ pub fn appearance_min_length(units: Units, speed: f64) -> f64 {
 }
 
 /// The K above which a curve's level point needs a drainage review on curbed
-/// roads: 167 ft/% or 51 m/% (state-manual copy and TxDOT; the 0.30 % gutter
-/// grade reached within 50 ft of the level point).
+/// roads: 167 ft/% or 51 m/% (Green Book 2018 §3.4.6.2, drainage of curbed
+/// pavements: a grade of 0.30 % within 50 ft of the level point; from
+/// memory; 167 = 50/0.30, derived).
 pub fn drainage_k(units: Units) -> f64 {
     match units {
         Units::UsCustomary => 167.0,

@@ -9,7 +9,8 @@ pub enum Units {
     /// Metres, km/h, stations of 1000 m written `1+234.567`.
     #[default]
     Metric,
-    /// US survey feet, mph, stations of 100 ft written `12+34.56`.
+    /// Feet, mph, stations of 100 ft written `12+34.56`. No survey-foot
+    /// conversion is made: the US survey foot was retired at the end of 2022.
     UsCustomary,
 }
 

@@ -15,7 +15,7 @@
 //! results match the closed-form AASHTO length formulas. Beyond the ends the
 //! end tangents are taken to continue (common practice for tie-ins).
 
-use crate::{Alignment, Segment, Station, Units, sight};
+use crate::{Alignment, Segment, Units, sight};
 
 /// Which way the vehicle travels.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -98,13 +98,31 @@ impl Road {
         }
     }
 
+    /// Decimal grade in the direction of travel at road station `s`, end
+    /// tangents extended.
+    pub fn grade(&self, s: f64) -> f64 {
+        let first = self.pieces.first();
+        match first {
+            Some(p) if s < p.start => p.grade,
+            _ => self.pieces.get(self.piece_index(s)).map_or(f64::NAN, |p| p.grade_at(s)),
+        }
+    }
+
     /// Daylight sight distance from road station `s`, up to `setup.cap`.
     pub fn daylight(&self, s: f64, setup: &SightSetup) -> f64 {
+        self.daylight_and_horizon(s, setup).0
+    }
+
+    /// Daylight sight distance from road station `s` and the road station of
+    /// the point that hides the object there (the horizon: where the line of
+    /// sight touches the road; `None` when the distance reaches the cap).
+    pub fn daylight_and_horizon(&self, s: f64, setup: &SightSetup) -> (f64, Option<f64>) {
         let start = self.piece_index(s);
-        let Some(here) = self.pieces.get(start) else { return 0.0 };
+        let Some(here) = self.pieces.get(start) else { return (0.0, None) };
         let eye = here.elevation_at(s) + setup.eye_height;
         let h2 = setup.object_height;
         let mut running = f64::NEG_INFINITY;
+        let mut running_at = f64::NAN;
         for piece in self.pieces.iter().skip(start) {
             let p = (piece.start - s).max(0.0);
             let q = (piece.end - s).min(setup.cap);
@@ -129,19 +147,25 @@ impl Road {
                 }
                 let mid = 0.5 * (lo + hi);
                 let rising = -a / (mid * mid) + c > 0.0;
-                let level = if rising { running } else { running.max(phi(lo)) };
+                let (level, level_at) =
+                    if !rising && phi(lo) > running { (phi(lo), lo) } else { (running, running_at) };
                 if level > f64::NEG_INFINITY
                     && let Some(t) = first_negative(a + h2, g - level, c, lo, hi)
                 {
-                    return t;
+                    return (t, Some(s + level_at));
                 }
-                running = running.max(phi(lo)).max(phi(hi));
+                for (value, at) in [(phi(lo), lo), (phi(hi), hi)] {
+                    if value > running {
+                        running = value;
+                        running_at = at;
+                    }
+                }
             }
             if piece.end - s >= setup.cap {
                 break;
             }
         }
-        setup.cap
+        (setup.cap, None)
     }
 
     /// The governing available distance from road station `s`: the smaller of
@@ -259,8 +283,14 @@ pub struct SightSample {
 pub enum Requirement {
     /// The design SSD everywhere.
     Design(f64),
-    /// The SSD for the grade the vehicle is on (downgrades need more), from
-    /// speed, reaction time and deceleration (AASHTO grade formula).
+    /// The SSD for the grade the vehicle brakes on: SSD = reaction distance +
+    /// braking distance, the braking distance V²/(254(a/g + G)) (metric) or
+    /// V²/(30(a/g + G)) (US) with G the average grade over the braking
+    /// distance itself (Green Book 2018 eq. 3-3, "SSD on grades"; from
+    /// memory), found by fixed-point iteration in the direction of travel. It
+    /// never asks for less than `floor`, the design SSD on the level (rounded
+    /// as the tables are), so a level road needs exactly the design SSD and an
+    /// upgrade earns no credit.
     GradeAdjusted {
         /// Units of the formula.
         units: Units,
@@ -270,15 +300,51 @@ pub enum Requirement {
         reaction_s: f64,
         /// Deceleration.
         decel: f64,
+        /// The least distance ever required: the design SSD.
+        floor: f64,
     },
 }
 
+/// Iterations of the braking-distance fixed point before it is taken as it is.
+const BRAKING_ITERATIONS: usize = 100;
+
 impl Requirement {
-    fn at(self, grade_decimal: f64) -> f64 {
+    /// The required distance for an eye at road station `s` of `road`.
+    pub fn on_road(self, road: &Road, s: f64) -> f64 {
         match self {
             Self::Design(d) => d,
-            Self::GradeAdjusted { units, speed, reaction_s, decel } => {
-                sight::stopping_sight_distance_on_grade(units, speed, reaction_s, decel, grade_decimal)
+            Self::GradeAdjusted { units, speed, reaction_s, decel, floor } => {
+                let reaction = sight::reaction_distance(units, speed, reaction_s);
+                let braking = |grade: f64| sight::braking_distance(units, speed, decel, grade);
+                let from = s + reaction;
+                let mut distance = braking(road.grade(from));
+                for _ in 0..BRAKING_ITERATIONS {
+                    if !distance.is_finite() || distance <= 0.0 {
+                        break;
+                    }
+                    let average = (road.elevation(from + distance) - road.elevation(from)) / distance;
+                    let next = braking(average);
+                    let settled = (next - distance).abs() <= crate::tolerance::PASS_RELATIVE * distance;
+                    distance = next;
+                    if settled {
+                        break;
+                    }
+                }
+                (reaction + distance).max(floor)
+            }
+        }
+    }
+
+    /// The largest distance this can require on grades no steeper than
+    /// `max_grade_percent` (for how far to look around a curve).
+    pub fn largest(self, max_grade_percent: f64) -> f64 {
+        match self {
+            Self::Design(d) => d,
+            Self::GradeAdjusted { units, speed, reaction_s, decel, floor } => {
+                let grade = -max_grade_percent.abs() / 100.0;
+                (sight::reaction_distance(units, speed, reaction_s)
+                    + sight::braking_distance(units, speed, decel, grade))
+                .max(floor)
             }
         }
     }
@@ -289,6 +355,9 @@ impl Requirement {
 pub struct SightProfile {
     /// One sample per station, in station order.
     pub samples: Vec<SightSample>,
+    /// The longest distance looked for: an available distance equal to it
+    /// means "at least this much", not a measured distance.
+    pub cap: f64,
 }
 
 /// Stations every `step` from the start, plus the end.
@@ -302,7 +371,34 @@ pub fn stations_every(alignment: &Alignment, step: f64) -> Vec<f64> {
     let n = n as u64;
     #[allow(clippy::cast_precision_loss)]
     let mut stations: Vec<f64> = (0..=n).map(|k| start + k as f64 * step).filter(|s| *s <= end).collect();
-    if stations.last().is_none_or(|s| end - s > 1e-9 * step) {
+    if stations.last().is_none_or(|s| end - s > crate::tolerance::ROUNDING_HAIR * step) {
+        stations.push(end);
+    }
+    stations
+}
+
+/// The stations of [`stations_every`] that lie between `lo` and `hi`, made
+/// without listing the rest (at most [`crate::MAX_SIGHT_STATIONS`]).
+pub fn stations_between(alignment: &Alignment, step: f64, lo: f64, hi: f64) -> Vec<f64> {
+    let (start, end) = (alignment.start().0, alignment.end().0);
+    if step.is_nan() || step <= 0.0 || step.is_infinite() {
+        return [start, end].into_iter().filter(|s| *s >= lo && *s <= hi).collect();
+    }
+    let first = ((lo.max(start) - start) / step).ceil().max(0.0);
+    let last = ((hi.min(end) - start) / step).floor().min(first + crate::MAX_SIGHT_STATIONS);
+    let mut stations = Vec::new();
+    let mut k = first;
+    while k <= last {
+        let s = start + k * step;
+        if s <= end {
+            stations.push(s);
+        }
+        k += 1.0;
+    }
+    if end >= lo
+        && end <= hi
+        && stations.last().is_none_or(|s| end - s > crate::tolerance::ROUNDING_HAIR * step)
+    {
         stations.push(end);
     }
     stations
@@ -317,21 +413,17 @@ pub fn sight_profile(
 ) -> SightProfile {
     let forward = Road::new(alignment, Direction::Forward);
     let backward = Road::new(alignment, Direction::Backward);
-    let mut cursor = alignment.cursor();
     let samples = stations
         .iter()
-        .map(|&s| {
-            let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
-            SightSample {
-                station: s,
-                forward: forward.governing(s, setup),
-                backward: backward.governing(-s, setup),
-                required_forward: requirement.at(grade),
-                required_backward: requirement.at(-grade),
-            }
+        .map(|&s| SightSample {
+            station: s,
+            forward: forward.governing(s, setup),
+            backward: backward.governing(-s, setup),
+            required_forward: requirement.on_road(&forward, s),
+            required_backward: requirement.on_road(&backward, -s),
         })
         .collect();
-    SightProfile { samples }
+    SightProfile { samples, cap: setup.cap }
 }
 
 /// A stretch where available sight distance falls short, one direction.
@@ -365,23 +457,41 @@ impl SightProfile {
         hi: f64,
     ) {
         let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
-        let from = self.samples.partition_point(|s| s.station < lo - setup.cap);
-        let to = self.samples.partition_point(|s| s.station <= hi + setup.cap);
-        let mut cursor = alignment.cursor();
+        // The braking stretch of a grade-adjusted requirement reaches as far
+        // as the requirement itself, which may pass the cap.
+        let reach = self
+            .samples
+            .iter()
+            .flat_map(|s| [s.required_forward, s.required_backward])
+            .filter(|d| d.is_finite())
+            .fold(setup.cap, f64::max);
+        let reach = match requirement {
+            Requirement::Design(_) => setup.cap,
+            Requirement::GradeAdjusted { .. } => reach.max(requirement.largest(100.0).min(1e12)),
+        };
+        let from = self.samples.partition_point(|s| s.station < lo - reach);
+        let to = self.samples.partition_point(|s| s.station <= hi + reach);
         for sample in self.samples.get_mut(from..to).unwrap_or(&mut []) {
             let s = sample.station;
-            let grade = cursor.sample(Station(s)).map_or(0.0, |p| p.grade_percent / 100.0);
             if s <= hi {
-                sample.forward = roads[0].governing(s, setup);
+                if s >= lo - setup.cap {
+                    sample.forward = roads[0].governing(s, setup);
+                }
+                sample.required_forward = requirement.on_road(&roads[0], s);
             }
             if s >= lo {
-                sample.backward = roads[1].governing(-s, setup);
-            }
-            if s >= lo && s <= hi {
-                sample.required_forward = requirement.at(grade);
-                sample.required_backward = requirement.at(-grade);
+                if s <= hi + setup.cap {
+                    sample.backward = roads[1].governing(-s, setup);
+                }
+                sample.required_backward = requirement.on_road(&roads[1], -s);
             }
         }
+    }
+
+    /// Whether an available distance is the cap (nothing hid the object or
+    /// stopped the beam within it), not a measured distance.
+    pub fn reaches_cap(&self, available: f64) -> bool {
+        !crate::tolerance::below(available, self.cap)
     }
 
     /// Every run of consecutive stations where available < required, per

@@ -99,11 +99,20 @@ impl From<csv::Error> for TableError {
 }
 
 /// The header of a sight-distance table.
-pub const SIGHT_HEADER: [&str; 5] =
-    ["station", "available_forward", "available_backward", "required_forward", "required_backward"];
+pub const SIGHT_HEADER: [&str; 6] = [
+    "station",
+    "available_forward",
+    "available_backward",
+    "required_forward",
+    "required_backward",
+    "reaches_cap",
+];
 
 /// Writes available and required sight distance, one row per station
-/// (forward = towards increasing stations), numbers unrounded.
+/// (forward = towards increasing stations), numbers unrounded. The last
+/// column says which available distances are the cap, not a measured
+/// distance (nothing limited the sight within it): `none`, `forward`,
+/// `backward` or `both`.
 ///
 /// # Errors
 /// An I/O error of `out`.
@@ -120,6 +129,12 @@ pub fn write_sight_table(
             number(s.backward, None),
             number(s.required_forward, None),
             number(s.required_backward, None),
+            match (sight.reaches_cap(s.forward), sight.reaches_cap(s.backward)) {
+                (false, false) => "none".to_owned(),
+                (true, false) => "forward".to_owned(),
+                (false, true) => "backward".to_owned(),
+                (true, true) => "both".to_owned(),
+            },
         ])?;
     }
     csv.flush().map_err(|e| TableError::Io(e.to_string()))?;

@@ -1,6 +1,11 @@
-//! The default criteria against the published design tables (REFERENCES §2, §5).
+//! The default criteria against the published design tables (sources in
+//! `docs/sources.md`).
 
-use gradewright_geometry::{Criteria, CriterionId, Terrain, Units, max_grade_percent, sight};
+use gradewright_geometry::{Area, Criteria, CriterionId, RoadClass, Terrain, Units, max_grade, sight};
+
+fn max_grade_percent(units: Units, v: f64, terrain: Terrain) -> (f64, String) {
+    max_grade(units, v, RoadClass::Arterial, Area::Rural, terrain)
+}
 
 fn resolved(units: Units, speed: f64) -> gradewright_geometry::ResolvedCriteria {
     let criteria = Criteria { design_speed: Some(speed), ..Criteria::default() };
@@ -9,8 +14,8 @@ fn resolved(units: Units, speed: f64) -> gradewright_geometry::ResolvedCriteria 
 
 /// AASHTO Green Book 2011 Tables 3-1 (SSD), 3-34 (crest K) and 3-36 (sag K),
 /// US customary: (V mph, SSD ft, K crest, K sag). Tables from memory; SSD at
-/// 40 mph (305 ft) confirmed in MoDOT slides; K 151/136 at 60 mph confirmed in
-/// Mannering Tables 3.2/3.3; all entries identical to CivilPy's tables.
+/// K 151/136 at 60 mph confirmed in Mannering & Washburn, *Principles of
+/// Highway Engineering and Traffic Analysis*, Tables 3.2 and 3.3.
 const US_TABLE: [(f64, f64, f64, f64); 14] = [
     (15.0, 80.0, 3.0, 10.0),
     (20.0, 115.0, 7.0, 17.0),
@@ -66,7 +71,8 @@ fn metric_ssd_and_k_tables_exactly() {
 }
 
 /// TxDOT RDM 4.11.1: t = 2.5 s, a = 11.2 ft/s², eye 3.5 ft, object 2.0 ft;
-/// metric a = 3.4 m/s² (primidi), eye 1.08 m, object 0.60 m.
+/// metric a = 3.4 m/s², eye 1.08 m, object 0.60 m (Green Book 2018 §3.2.2 and
+/// §3.2.6, metric; from memory).
 #[test]
 fn default_parameters() {
     let us = resolved(Units::UsCustomary, 50.0);
@@ -78,7 +84,7 @@ fn default_parameters() {
     assert_eq!(si.get(CriterionId::Deceleration).to_bits(), 3.4f64.to_bits());
     assert_eq!(si.get(CriterionId::EyeHeight).to_bits(), 1.08f64.to_bits());
     assert_eq!(si.get(CriterionId::ObjectHeight).to_bits(), 0.6f64.to_bits());
-    // Drainage review K: 167 ft/% and 51 m/% (state-manual copy; TxDOT quote).
+    // Drainage review K: 167 ft/% and 51 m/% (Green Book 2018 §3.4.6.2; from memory).
     assert_eq!(us.get(CriterionId::DrainageK).to_bits(), 167f64.to_bits());
     assert_eq!(si.get(CriterionId::DrainageK).to_bits(), 51f64.to_bits());
     // Minimum gutter grade 0.30 % (TxDOT Hydraulic Design Manual ch. 10).
@@ -87,7 +93,7 @@ fn default_parameters() {
 
 /// Overrides win, and a computed value follows an overridden input: with SSD
 /// overridden to 200 m the crest K is 200²/658 rounded = 61 (derived from the
-/// formula in MoDOT slides / metric constant 658).
+/// Green Book 2018 eq. 3-43, metric constant 658; from memory).
 #[test]
 fn overrides_feed_later_criteria() {
     let mut criteria = Criteria { design_speed: Some(80.0), ..Criteria::default() };
@@ -103,7 +109,7 @@ fn overrides_feed_later_criteria() {
     assert!(criteria.resolve(Units::Metric).is_err());
 }
 
-/// SSD on grades, derived from the formula in expertsmind / CivilPy:
+/// SSD on grades, derived from Green Book 2018 eq. 3-3 (from memory):
 /// SSD = 1.47Vt + V²/(30(a/32.2 ± G)) and 0.278Vt + V²/(254(a/9.81 ± G)).
 #[test]
 fn ssd_on_grades() {

@@ -1,11 +1,11 @@
-//! Parabola relations (REFERENCES §1) and the worked curve example.
+//! Parabola relations and a worked curve example (sources in `docs/sources.md`).
 
 use gradewright_acceptance::{alignment, assert_close};
 use gradewright_geometry::{
     Alignment, CurveKind, Profile, Pvi, Station, Units, VerticalCurve, format_station,
 };
 
-/// J. Mahun, open-access vertical-curve solutions 1, Problem 2: PVI 56+50.00 at
+/// J. Mahun, *Vertical Curves* (open-access surveying text), solutions 1, Problem 2: PVI 56+50.00 at
 /// 1325.00 ft, grades +5.0 % / −3.5 %, L = 500 ft. Printed stations, elevations
 /// and grades.
 #[test]
@@ -37,7 +37,8 @@ fn mahun_problem_2_station_elevations_and_grades() {
 }
 
 /// Elevation y = y_PVC + g1·x/100 + (g2 − g1)·x²/(200L) and grade
-/// g = g1 + (g2 − g1)·x/L at every metre (REFERENCES §1, Mahun; grade derived).
+/// g = g1 + (g2 − g1)·x/L at every metre (Mahun, *Vertical Curves*; Mannering &
+/// Washburn ch. 3; grade derived by differentiating).
 #[test]
 fn closed_form_elevation_and_grade_metric() {
     let (g1, g2, l) = (-2.2, 3.4, 180.0);
@@ -55,11 +56,12 @@ fn closed_form_elevation_and_grade_metric() {
         assert_close(s.elevation, y, 1e-9, "elevation (Mahun)");
         assert_close(s.grade_percent, g1 + (g2 - g1) * x / l, 1e-9, "grade (derived)");
     }
-    // r = (g2 − g1)/L, K = L/A, E = A·L/800, offset Y = A·x²/(200L) (REFERENCES §1).
+    // r = (g2 − g1)/L, K = L/A, E = A·L/800, offset Y = A·x²/(200L) (Mannering &
+    // Washburn ch. 3; Green Book 2018 §3.4.6, K = L/A).
     let (r1, r2) = c.rates_percent();
     assert_close(r1, (g2 - g1) / l, 1e-12, "r");
     assert_close(r2, (g2 - g1) / l, 1e-12, "r");
-    assert_close(c.k().unwrap_or(f64::NAN), l / 5.6, 1e-9, "K = L/A (MoDOT slides)");
+    assert_close(c.k().unwrap_or(f64::NAN), l / 5.6, 1e-9, "K = L/A (Green Book 2018 §3.4.6)");
     assert_close(c.external(), 5.6 * l / 800.0, 1e-9, "E = A·L/800 (derived)");
     let x = 50.0;
     let tangent = c.pvc_elevation + g1 * x / 100.0;
@@ -70,10 +72,10 @@ fn closed_form_elevation_and_grade_metric() {
     assert_close(low - c.pvc, g1 * l / (g1 - g2), 1e-9, "low point");
 }
 
-/// Unequal-tangent curve (REFERENCES §1, derived): offset at the PVI
+/// Unequal-tangent curve (derived from the equal-tangent relations): offset at the PVI
 /// e = l1·l2·(g2 − g1)/(2L), grade at the CVC g_c = (l1·g1 + l2·g2)/L, branch
 /// elevations tangent + e·(x/l1)² and y_PVT − g2·x' + e·(x'/l2)². The curve is
-/// the second of the LandXML example in REFERENCES §7: PVI 63+00 at 1302.25 ft,
+/// an invented test case: PVI 63+00 at 1302.25 ft,
 /// lengthIn 200, lengthOut 300, grades −3.5 % / +2.0 %.
 #[test]
 fn unequal_tangent_branches() {

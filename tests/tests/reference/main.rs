@@ -6,4 +6,5 @@ mod curve_relations;
 mod files;
 mod lengths;
 mod properties;
+mod trust;
 mod visibility;

@@ -2,7 +2,7 @@
 //! user's own, with a reset to the computed value.
 
 use egui::RichText;
-use gradewright_geometry::{CriterionId, Setting, Terrain};
+use gradewright_geometry::{Area, CriterionId, RoadClass, Setting, Terrain};
 
 use super::app::GradewrightApp;
 use super::cell::{edit_cell, parse_number, settle};
@@ -57,7 +57,34 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         ui.label("");
         ui.end_row();
 
-        ui.label("Sag comfort check");
+        let label = ui.label("Road class").on_hover_text("Sets the default maximum grade");
+        let mut class = criteria.road_class;
+        let combo =
+            egui::ComboBox::from_id_salt("road-class").selected_text(class.label()).show_ui(ui, |ui| {
+                for c in RoadClass::ALL {
+                    ui.selectable_value(&mut class, c, c.label());
+                }
+            });
+        let _ = combo.response.labelled_by(label.id);
+        let mut area = criteria.area;
+        let combo = egui::ComboBox::from_id_salt("area").selected_text(area.label()).show_ui(ui, |ui| {
+            for a in Area::ALL {
+                ui.selectable_value(&mut area, a, a.label());
+            }
+        });
+        let _ = combo.response.on_hover_text("Rural or urban");
+        if class != criteria.road_class || area != criteria.area {
+            let mut c = criteria.clone();
+            c.road_class = class;
+            c.area = area;
+            app.push(Action::edit(Edit::SetCriteria(Box::new(c))));
+        }
+        ui.label("");
+        ui.end_row();
+
+        ui.label("Sag comfort check").on_hover_text(
+            "Also check sags for comfort on an unlit road (on a lit road comfort is the sag rule)",
+        );
         let mut comfort = criteria.sag_comfort;
         if ui.checkbox(&mut comfort, "on").changed() {
             let mut c = criteria.clone();
@@ -73,9 +100,11 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             ("Grade-adjusted SSD", criteria.grade_adjusted_ssd, 1),
         ] {
             ui.label(label).on_hover_text(if set == 0 {
-                "Headlight sight distance on sags (switch off for lit roads)"
+                "Headlight sight distance on sags. Switch off for a continuously lit road: the sag K and \
+                 length then follow the comfort rule"
             } else {
-                "Required SSD at each station from the grade the vehicle is on (downgrades need more)"
+                "Required SSD at each station from the average grade over the braking distance, per \
+                 direction (downgrades need more); never less than the design SSD"
             });
             let mut on = value;
             if ui.checkbox(&mut on, "on").changed() {
@@ -93,6 +122,13 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         }
 
         let resolved = app.derived().criteria.clone();
+        if let Ok(r) = &resolved {
+            ui.label("Sag rule in force").on_hover_text("Follows the headlight check");
+            ui.label(RichText::new(r.sag_rule().label()).strong());
+            ui.label("");
+            ui.label("");
+            ui.end_row();
+        }
         for id in CriterionId::ALL {
             let entry = resolved.as_ref().ok().and_then(|r| r.entry(id).cloned());
             let setting = criteria.setting(id);

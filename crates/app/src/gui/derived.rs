@@ -116,7 +116,9 @@ impl Derived {
             return String::new();
         };
         match (check.curve.k(), check.k_required) {
-            (Some(k), Some(min)) if k < min => format!("K {k:.1} < {min:.0}"),
+            (Some(k), Some(min)) if gradewright_geometry::tolerance::below(k, min) => {
+                format!("K {k:.1} < {min:.0}")
+            }
             _ => self
                 .findings_at(index)
                 .find(|f| f.severity == Severity::Fail)

@@ -18,7 +18,7 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let findings = &app.derived().report.findings;
     let count = |s| findings.iter().filter(|f| f.severity == s).count();
     ui.label(format!(
-        "{} fail · {} warn · {} note",
+        "{} fail · {} warn · {} info",
         count(Severity::Fail),
         count(Severity::Warn),
         count(Severity::Info)

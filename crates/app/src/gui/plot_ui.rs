@@ -280,9 +280,7 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
         let stretch: Vec<[f64; 2]> = at(a).into_iter().chain(inner.iter().copied()).chain(at(b)).collect();
         if stretch.len() >= 2 {
             pui.line(
-                Line::new("Sight falls short", PlotPoints::from(stretch))
-                    .color(palette.warn.gamma_multiply(0.8))
-                    .width(7.0),
+                Line::new("Sight falls short", PlotPoints::from(stretch)).color(palette.shortfall).width(7.0),
             );
         }
     }
@@ -321,15 +319,19 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             && visible(s.0)
             && spacing(c.index) >= 45.0
         {
+            // The label goes on the side away from the PVI (below a crest's
+            // high point, above a sag's low point), clear of the selection ring.
             let (shape, label, anchor, offset) = match c.kind {
-                CurveKind::Crest => (MarkerShape::Up, "HP", Align2::CENTER_BOTTOM, up(6.0)),
-                _ => (MarkerShape::Down, "LP", Align2::CENTER_TOP, -up(6.0)),
+                CurveKind::Crest => (MarkerShape::Up, "HP", Align2::CENTER_TOP, -up(8.0)),
+                _ => (MarkerShape::Down, "LP", Align2::CENTER_BOTTOM, up(8.0)),
             };
             pui.points(
                 Points::new("High / low point", vec![[s.0, e]]).shape(shape).radius(5.0).color(palette.marks),
             );
             pui.text(
-                Text::new("", PlotPoint::new(s.0, e + offset), label).anchor(anchor).color(palette.marks),
+                Text::new("", PlotPoint::new(s.0, e + offset), RichText::new(label).color(palette.marks))
+                    .anchor(anchor)
+                    .color(palette.marks),
             );
         }
     }
@@ -369,10 +371,16 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
         } else {
             (format!("PVI {}", i + 1), palette.text)
         };
+        // The colour goes on the text itself: strong text would otherwise
+        // take the theme's strong colour, whatever the plot item says.
         pui.text(
-            Text::new("", PlotPoint::new(p.station.0, p.elevation + up(12.0)), RichText::new(text).strong())
-                .anchor(Align2::CENTER_BOTTOM)
-                .color(color),
+            Text::new(
+                "",
+                PlotPoint::new(p.station.0, p.elevation + up(12.0)),
+                RichText::new(text).strong().color(color),
+            )
+            .anchor(Align2::CENTER_BOTTOM)
+            .color(color),
         );
         if failing.contains(&i) {
             pui.points(
@@ -399,10 +407,16 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             p.elevation,
             units.length_symbol()
         );
+        // Beside the ring, not under it, so it never sits on a high or low point.
+        let right = 16.0 / pui.transform().dpos_dvalue_x().abs().max(1e-12);
         pui.text(
-            Text::new("", PlotPoint::new(p.station.0, p.elevation - up(14.0)), label)
-                .anchor(Align2::CENTER_TOP)
-                .color(palette.selected),
+            Text::new(
+                "",
+                PlotPoint::new(p.station.0 + right, p.elevation),
+                RichText::new(label).color(palette.selected),
+            )
+            .anchor(Align2::LEFT_CENTER)
+            .color(palette.selected),
         );
     }
 }

@@ -60,8 +60,11 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let backward = decimate(&sight.samples, x_range, buckets, |s| s.backward);
     let required_f = decimate(&sight.samples, x_range, buckets, |s| s.required_forward);
     let required_b = decimate(&sight.samples, x_range, buckets, |s| s.required_backward);
-    let same_required =
-        sight.samples.iter().all(|s| s.required_forward.to_bits() == s.required_backward.to_bits());
+    let same_required = sight
+        .samples
+        .iter()
+        .all(|s| gradewright_geometry::tolerance::same_length(s.required_forward, s.required_backward));
+    let cap = sight.cap;
     let top = sight.samples.iter().map(|s| s.forward.max(s.backward)).fold(0.0, f64::max);
     let shortfalls: Vec<(f64, f64)> = app
         .derived()
@@ -93,12 +96,19 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             let i =
                 lookup.samples.partition_point(|s| s.station < x).min(lookup.samples.len().saturating_sub(1));
             let s = lookup.samples.get(i)?;
+            let shown = |d: f64| {
+                if lookup.reaches_cap(d) {
+                    format!("≥ {d:.1} {len} (the cap: not looked further)")
+                } else {
+                    format!("{d:.1} {len}")
+                }
+            };
             Some(format!(
-                "{}\nforward {:.1} {len} (needs {:.1})\nbackward {:.1} {len} (needs {:.1})",
+                "{}\nforward {} (needs {:.1})\nbackward {} (needs {:.1})",
                 format_station(s.station, units, decimals),
-                s.forward,
+                shown(s.forward),
                 s.required_forward,
-                s.backward,
+                shown(s.backward),
                 s.required_backward
             ))
         })
@@ -110,8 +120,19 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                         "Sight falls short",
                         PlotPoints::from(vec![[a, 0.0], [b, 0.0], [b, top], [a, top]]),
                     )
-                    .fill_color(palette.fail.gamma_multiply(0.25))
+                    .fill_color(palette.shortfall)
                     .stroke(egui::Stroke::new(1.0, palette.fail)),
+                );
+            }
+            if let (Some(first), Some(last)) = (sight.samples.first(), sight.samples.last()) {
+                pui.line(
+                    Line::new(
+                        format!("Cap {cap:.0} {len} (not looked further)"),
+                        PlotPoints::from(vec![[first.station, cap], [last.station, cap]]),
+                    )
+                    .color(palette.grade_line)
+                    .style(LineStyle::dotted_dense())
+                    .width(1.0),
                 );
             }
             pui.line(

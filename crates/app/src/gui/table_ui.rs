@@ -15,7 +15,7 @@ pub fn status_text(worst: Option<Severity>, palette: Palette) -> RichText {
     match worst {
         Some(Severity::Fail) => RichText::new("✖ fail").color(palette.fail).strong(),
         Some(Severity::Warn) => RichText::new("⚠ warn").color(palette.warn),
-        Some(Severity::Info) => RichText::new("ℹ note").color(palette.text),
+        Some(Severity::Info) => RichText::new("ℹ info").color(palette.text),
         None => RichText::new("✔ ok").color(palette.ok),
     }
 }
@@ -59,10 +59,10 @@ pub fn table_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         "Station".to_owned(),
         format!("Elevation ({len})"),
         format!("Curve L ({len})"),
-        "L in".to_owned(),
-        "L out".to_owned(),
-        "Grade in".to_owned(),
-        "Grade out".to_owned(),
+        "L back".to_owned(),
+        "L ahead".to_owned(),
+        "g1 back".to_owned(),
+        "g2 ahead".to_owned(),
         "A".to_owned(),
         format!("K ({ks})"),
         "K min".to_owned(),
@@ -194,8 +194,11 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     let k = curve.and_then(gradewright_geometry::CurveGeometry::k);
     let k_min = check.and_then(|c| c.k_required);
     let k_text = RichText::new(optional(k, 1));
+    // The checks' own comparison, so a K shown equal to its minimum is not red.
     let k_text = match (k, k_min) {
-        (Some(k), Some(m)) if k < m => k_text.color(palette.fail).strong(),
+        (Some(k), Some(m)) if gradewright_geometry::tolerance::below(k, m) => {
+            k_text.color(palette.fail).strong()
+        }
         _ => k_text,
     };
     ui.label(k_text);

@@ -24,6 +24,9 @@ pub struct Palette {
     pub fail: Color32,
     /// Warnings.
     pub warn: Color32,
+    /// Stretches where the sight distance falls short (the same in the plot
+    /// and the strip).
+    pub shortfall: Color32,
     /// Passing.
     pub ok: Color32,
 }
@@ -42,6 +45,7 @@ impl Palette {
                 text: Color32::from_gray(220),
                 fail: Color32::from_rgb(255, 95, 85),
                 warn: Color32::from_rgb(240, 190, 60),
+                shortfall: Color32::from_rgb(255, 95, 85).gamma_multiply(0.45),
                 ok: Color32::from_rgb(120, 200, 120),
             }
         } else {
@@ -55,6 +59,7 @@ impl Palette {
                 text: Color32::from_gray(30),
                 fail: Color32::from_rgb(200, 20, 20),
                 warn: Color32::from_rgb(170, 110, 0),
+                shortfall: Color32::from_rgb(200, 20, 20).gamma_multiply(0.35),
                 ok: Color32::from_rgb(20, 130, 40),
             }
         }
