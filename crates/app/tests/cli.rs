@@ -240,3 +240,37 @@ fn fit_writes_the_same_format_and_reports() {
     assert!(written.starts_with("station,elevation,curve_length\n"), "{written}");
     assert!(written.contains("19+00.00,846.1,570"), "{written}");
 }
+
+/// An unequal-tangent crest is reported with its total length, both K values
+/// and the total length needed at its own ratio, the same in JSON and text:
+/// 300 m + 500 m with A = 6 % at 120 km/h needs 570 × 5/3 = 950 m (K 95,
+/// Green Book 2018 Table 3-34, metric, from memory; ratio derived from the
+/// branch rates).
+#[test]
+fn unequal_tangent_curve_reports_the_total_length_needed() {
+    let dir = std::env::temp_dir().join(format!("gradewright-cli-unequal-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let file = dir.join("unequal.ron");
+    std::fs::write(
+        &file,
+        "Project(format_version: 1, name: \"unequal\", units: Metric, criteria: Criteria(design_speed: Some(120.0)),\n\
+         pvis: [Pvi(station: 0.0, elevation: 100.0),\n\
+         Pvi(station: 1000.0, elevation: 130.0, curve: Unequal(length_in: 300.0, length_out: 500.0)),\n\
+         Pvi(station: 2000.0, elevation: 100.0)])\n",
+    )
+    .unwrap_or_else(|e| panic!("{e}"));
+    let o = run(&["check", &file.to_string_lossy(), "--format", "json"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let json: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap_or_else(|e| panic!("{e}"));
+    let curve = &json["curves"][0];
+    let number = |key: &str| curve[key].as_f64().unwrap_or(f64::NAN);
+    assert!((number("length") - 800.0).abs() < 1e-9);
+    assert!((number("length_in") - 300.0).abs() < 1e-9);
+    assert!((number("k") - 80.0).abs() < 1e-9, "sharper branch");
+    assert!((number("k_overall") - 800.0 / 6.0).abs() < 1e-9, "L/A");
+    assert!((number("length_required") - 950.0).abs() < 1e-6, "{curve}");
+    let o = run(&["check", &file.to_string_lossy()]);
+    let text = stdout(&o);
+    assert!(text.contains("needs L ≥ 950.00 m in all"), "{text}");
+    assert!(text.contains("950.00  FAIL"), "{text}");
+}

@@ -320,3 +320,34 @@ fn renaming_is_one_undo_step() {
     h.run();
     assert_eq!(h.state().project().name, original);
 }
+
+/// The PVI table's own column names, one severity word everywhere, and the
+/// sag rule in force shown beside the criteria (it follows the lighting).
+#[test]
+fn table_names_severity_word_and_sag_rule_are_shown() {
+    let mut h = demo();
+    for header in ["g1 back", "g2 ahead", "L back", "L ahead"] {
+        assert!(h.query_by_label(header).is_some(), "{header}");
+    }
+    for old in ["Grade in", "Grade out", "L in", "L out"] {
+        assert!(h.query_by_label(old).is_none(), "{old} still shown");
+    }
+    assert!(h.query_by_label_contains("headlight sight distance (unlit road)").is_some());
+    let mut criteria = h.state().project().criteria.clone();
+    criteria.headlight_check = false;
+    h.state_mut().apply_edit(gradewright::gui::Edit::SetCriteria(Box::new(criteria)));
+    h.run();
+    assert!(h.query_by_label_contains("comfort (lit road)").is_some());
+    // Severity: "info" on screen as in the CLI and JSON, never "note".
+    let mut project = h.state().project().clone();
+    // PVI 3 moved onto the line between its neighbours: its curve is not needed.
+    let (a, b) = (project.pvis[1], project.pvis[3]);
+    let t = (project.pvis[2].station - a.station) / (b.station - a.station);
+    project.pvis[2].elevation = a.elevation + t * (b.elevation - a.elevation);
+    h.state_mut().apply_edit(gradewright::gui::Edit::Replace(Box::new(project)));
+    h.run();
+    assert!(h.state().derived().report.findings.iter().any(|f| f.severity == Severity::Info));
+    assert!(h.query_all_by_label("ℹ info").count() >= 1);
+    assert!(h.query_by_label_contains("1 info").is_some(), "the findings count says info");
+    assert_eq!(h.query_all_by_label("ℹ note").count(), 0);
+}

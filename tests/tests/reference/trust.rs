@@ -357,3 +357,35 @@ fn minimum_length_rule_names_its_source() {
     assert!(rule.contains("Green Book") && rule.contains("appearance"), "{rule}");
     assert!(!rule.contains("rule of thumb"), "{rule}");
 }
+
+/// The incremental update after a change gives exactly what a full run gives,
+/// also with the grade-adjusted requirement, whose braking stretch reaches
+/// past the changed PVI (common practice: a cache must never change a result).
+#[test]
+fn incremental_update_matches_a_full_run_with_grade_adjusted_ssd() {
+    use gradewright_geometry::visibility::{sight_profile, stations_every};
+    let criteria = grade_adjusted(80.0);
+    let pvis = vec![
+        Pvi::new(0.0, 100.0),
+        Pvi::with_curve(400.0, 112.0, 120.0),
+        Pvi::with_curve(900.0, 97.0, 200.0),
+        Pvi::with_curve(1400.0, 112.0, 160.0),
+        Pvi::new(2000.0, 100.0),
+    ];
+    let before = Profile::new(Units::Metric, pvis.clone());
+    let mut moved = pvis;
+    moved[2].elevation = 92.0;
+    let after = Profile::new(Units::Metric, moved);
+    let (a0, a1) = (
+        Alignment::new(&before).unwrap_or_else(|e| panic!("{e:?}")),
+        Alignment::new(&after).unwrap_or_else(|e| panic!("{e:?}")),
+    );
+    let stations = stations_every(&a0, 1.0);
+    let setup = criteria.sight_setup();
+    let requirement = criteria.sight_requirement();
+    let mut incremental = sight_profile(&a0, &setup, requirement, &stations);
+    // PVI 3 moved: the road changes from the PVC of PVI 2 to the PVT of PVI 4.
+    incremental.update_after_change(&a1, &setup, requirement, 340.0, 1480.0);
+    let full = sight_profile(&a1, &setup, requirement, &stations);
+    assert_eq!(incremental, full);
+}

@@ -228,6 +228,8 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
     // Screen offsets in plot units, for labels above and below points.
     let dy = 1.0 / pui.transform().dpos_dvalue_y().abs().max(1e-12);
     let up = |points: f64| points * dy;
+    let dx = 1.0 / pui.transform().dpos_dvalue_x().abs().max(1e-12);
+    let right = |points: f64| points * dx;
     // Labels only where they can be read: in view and not crowded.
     let bounds = pui.plot_bounds();
     let (x_min, x_max) = (bounds.min()[0], bounds.max()[0]);
@@ -319,19 +321,24 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             && visible(s.0)
             && spacing(c.index) >= 45.0
         {
-            // The label goes on the side away from the PVI (below a crest's
-            // high point, above a sag's low point), clear of the selection ring.
-            let (shape, label, anchor, offset) = match c.kind {
-                CurveKind::Crest => (MarkerShape::Up, "HP", Align2::CENTER_TOP, -up(8.0)),
-                _ => (MarkerShape::Down, "LP", Align2::CENTER_BOTTOM, up(8.0)),
+            // The label goes to the right of the mark: clear of the PVI's own
+            // label above it and of the selection ring, whose label is on the left.
+            let (shape, label) = match c.kind {
+                CurveKind::Crest => (MarkerShape::Up, "HP"),
+                _ => (MarkerShape::Down, "LP"),
             };
+            let (anchor, offset) = (Align2::LEFT_CENTER, 0.0);
             pui.points(
                 Points::new("High / low point", vec![[s.0, e]]).shape(shape).radius(5.0).color(palette.marks),
             );
             pui.text(
-                Text::new("", PlotPoint::new(s.0, e + offset), RichText::new(label).color(palette.marks))
-                    .anchor(anchor)
-                    .color(palette.marks),
+                Text::new(
+                    "",
+                    PlotPoint::new(s.0 + right(8.0), e + offset),
+                    RichText::new(label).color(palette.marks),
+                )
+                .anchor(anchor)
+                .color(palette.marks),
             );
         }
     }
@@ -407,15 +414,14 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             p.elevation,
             units.length_symbol()
         );
-        // Beside the ring, not under it, so it never sits on a high or low point.
-        let right = 16.0 / pui.transform().dpos_dvalue_x().abs().max(1e-12);
+        // Left of the ring, not under it: high and low point labels are on the right.
         pui.text(
             Text::new(
                 "",
-                PlotPoint::new(p.station.0 + right, p.elevation),
+                PlotPoint::new(p.station.0 - right(14.0), p.elevation),
                 RichText::new(label).color(palette.selected),
             )
-            .anchor(Align2::LEFT_CENTER)
+            .anchor(Align2::RIGHT_CENTER)
             .color(palette.selected),
         );
     }

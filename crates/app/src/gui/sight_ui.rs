@@ -127,7 +127,7 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             if let (Some(first), Some(last)) = (sight.samples.first(), sight.samples.last()) {
                 pui.line(
                     Line::new(
-                        format!("Cap {cap:.0} {len} (not looked further)"),
+                        format!("Cap {cap:.0} {len}"),
                         PlotPoints::from(vec![[first.station, cap], [last.station, cap]]),
                     )
                     .color(palette.grade_line)

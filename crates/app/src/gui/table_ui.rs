@@ -201,9 +201,16 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
         }
         _ => k_text,
     };
-    ui.label(k_text);
+    let k_cell = ui.label(k_text);
+    if let Some(c) = curve.filter(|c| c.ratio_factor() > 1.0) {
+        k_cell.on_hover_text(format!(
+            "Unequal tangents: K of the sharper branch (checked); L/A = {}",
+            optional(c.k_overall(), 1)
+        ));
+    }
     ui.label(optional(k_min, 0));
-    ui.label(optional(check.map(|c| c.length_required).filter(|l| *l > 0.0), 1));
+    ui.label(optional(check.map(|c| c.length_required).filter(|l| *l > 0.0), 1))
+        .on_hover_text("Total length the criteria ask for, at this curve's back:ahead ratio");
     let messages: Vec<String> =
         derived.findings_at(i).map(|f| format!("[{}] {}", f.severity.key(), f.message)).collect();
     let worst = derived.report.worst_at(i);
