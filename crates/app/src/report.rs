@@ -116,7 +116,7 @@ pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
         if let Some(entry) = criteria.entry(id) {
             let _ = writeln!(
                 out,
-                "  {:<26} {:>9.2} {:<5} {}",
+                "  {:<30} {:>9.2} {:<5} {}",
                 id.label(),
                 entry.value,
                 id.quantity().symbol(units),
