@@ -63,15 +63,15 @@ pub enum Command {
         /// Units of a CSV input
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
-        /// Station interval (default 20 m or 50 ft)
-        #[arg(long)]
+        /// Station interval (default 20 m or 50 ft); not with --at
+        #[arg(long, allow_negative_numbers = true, conflicts_with = "at")]
         interval: Option<f64>,
-        /// A station to report (repeatable; notation like 1+250 or a number)
+        /// A station to report (repeatable; notation like 1+250 or a number); not with --interval
         #[arg(long = "at", value_name = "STATION", allow_hyphen_values = true)]
         at: Vec<String>,
-        /// Round numbers to N decimals (default: shortest exact form)
-        #[arg(long, value_name = "N")]
-        decimals: Option<usize>,
+        /// Round numbers to N decimals, 0 to 15 (default: shortest exact form)
+        #[arg(long, value_name = "N", allow_negative_numbers = true)]
+        decimals: Option<i64>,
     },
     /// Available and required sight distance along the profile, as CSV
     Sight {
@@ -81,10 +81,10 @@ pub enum Command {
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Design speed (km/h or mph); overrides the project's
-        #[arg(long)]
+        #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
         /// Station step (default 1 m or 5 ft)
-        #[arg(long)]
+        #[arg(long, allow_negative_numbers = true)]
         step: Option<f64>,
     },
     /// Lengthen every failing curve to the shortest length that clears it
@@ -98,10 +98,10 @@ pub enum Command {
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Round lengths up to this increment (default 5 m or 10 ft)
-        #[arg(long)]
+        #[arg(long, allow_negative_numbers = true)]
         increment: Option<f64>,
         /// Design speed (km/h or mph); overrides the project's
-        #[arg(long)]
+        #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
     },
     /// Check curves and grades against the design criteria
@@ -112,7 +112,7 @@ pub enum Command {
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Design speed (km/h or mph); overrides the project's
-        #[arg(long)]
+        #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
         /// Output format
         #[arg(long, value_enum, default_value_t)]
@@ -132,11 +132,36 @@ pub fn main() -> ExitCode {
     };
     match run(cli) {
         Ok(code) => code,
+        // A reader that went away (`| head`) is the end of the output, not an error.
+        Err(e) if is_broken_pipe(&e) => ExitCode::SUCCESS,
         Err(e) => {
             eprintln!("gradewright: {}", one_line(&e));
             ExitCode::from(2)
         }
     }
+}
+
+fn is_broken_pipe(e: &anyhow::Error) -> bool {
+    e.chain().any(|c| {
+        c.downcast_ref::<std::io::Error>().is_some_and(|io| io.kind() == std::io::ErrorKind::BrokenPipe)
+    })
+}
+
+/// A length option: finite and above zero, or the reason.
+fn positive(option: &str, what: &str, value: f64) -> anyhow::Result<f64> {
+    if value.is_finite() && value > 0.0 {
+        Ok(value)
+    } else {
+        bail!("{option}: {what} must be a positive number (got {value})")
+    }
+}
+
+/// Writes `bytes` to standard output.
+fn print(bytes: &[u8]) -> anyhow::Result<()> {
+    let mut out = std::io::stdout().lock();
+    out.write_all(bytes).context("writing to standard output")?;
+    out.flush().context("writing to standard output")?;
+    Ok(())
 }
 
 fn one_line(e: &anyhow::Error) -> String {
@@ -158,20 +183,43 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Table { input, units, interval, at, decimals }) => {
+            let decimals = match decimals {
+                None => None,
+                Some(d) => match usize::try_from(d) {
+                    Ok(d) if d <= 15 => Some(d),
+                    _ => bail!("--decimals: {d} is not a number of decimals from 0 to 15"),
+                },
+            };
+            if let Some(v) = interval {
+                positive("--interval", "the station interval", v)?;
+            }
             let loaded = load_input(&input, units.map(Into::into))?;
             let alignment = build(&loaded)?;
             let project = &loaded.project;
             let stations = if at.is_empty() {
-                let interval = interval.unwrap_or(match project.units {
-                    Units::Metric => 20.0,
-                    Units::UsCustomary => 50.0,
-                });
-                if !interval.is_finite() || interval <= 0.0 {
-                    bail!("--interval: {interval} is not a positive length");
-                }
+                let len = project.units.length_symbol();
+                let (interval, given) = match interval {
+                    Some(v) => (v, true),
+                    None => (
+                        match project.units {
+                            Units::Metric => 20.0,
+                            Units::UsCustomary => 50.0,
+                        },
+                        false,
+                    ),
+                };
                 let span = alignment.end() - alignment.start();
                 if span / interval > 1.0e7 {
-                    bail!("--interval: {interval} would give more than 10 million rows");
+                    if given {
+                        bail!(
+                            "--interval: {interval} {len} would give more than 10 million rows over {span} {len}"
+                        );
+                    }
+                    bail!(
+                        "{}: the default interval of {interval} {len} would give more than 10 million rows over \
+                         {span} {len}; choose one with --interval or give stations with --at",
+                        input.display()
+                    );
                 }
                 gradewright_sheet::interval_stations(&alignment, interval)
             } else {
@@ -180,45 +228,56 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                     .collect::<anyhow::Result<Vec<_>>>()?
             };
             let mut buffer = Vec::new();
-            gradewright_sheet::write_station_table(&mut buffer, &alignment, &stations, decimals)
-                .map_err(|e| anyhow!("--at: {e}"))?;
-            std::io::stdout().lock().write_all(&buffer).context("writing the table")?;
+            gradewright_sheet::write_station_table(&mut buffer, &alignment, &stations, decimals).map_err(
+                |e| {
+                    if at.is_empty() { anyhow!("{}: {e}", input.display()) } else { anyhow!("--at: {e}") }
+                },
+            )?;
+            print(&buffer)?;
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Sight { input, units, design_speed, step }) => {
+            if let Some(v) = design_speed {
+                positive("--design-speed", "the design speed", v)?;
+            }
             let mut loaded = load_input(&input, units.map(Into::into))?;
             if let Some(step) = step {
-                if !step.is_finite() || step <= 0.0 {
-                    bail!("--step: {step} is not a positive length");
-                }
+                positive("--step", "the station step", step)?;
                 loaded.project.criteria.sight_step = gradewright_geometry::Setting::Override(step);
             }
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             let alignment = build(&loaded)?;
             let Some(sight) = gradewright_geometry::compute_sight(&alignment, &criteria) else {
                 bail!(
-                    "--step: more than {} stations for a profile {} long",
+                    "--step: more than {} stations for a profile {} {} long; use a larger step",
                     gradewright_geometry::MAX_SIGHT_STATIONS,
-                    alignment.end() - alignment.start()
+                    alignment.end() - alignment.start(),
+                    alignment.units().length_symbol()
                 );
             };
             let mut buffer = Vec::new();
-            gradewright_sheet::write_sight_table(&mut buffer, &sight)?;
-            std::io::stdout().lock().write_all(&buffer).context("writing the table")?;
+            gradewright_sheet::write_sight_table(&mut buffer, &sight)
+                .map_err(|e| anyhow!("{}: {e}", input.display()))?;
+            print(&buffer)?;
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Fit { input, output, units, increment, design_speed }) => {
+            if let Some(v) = design_speed {
+                positive("--design-speed", "the design speed", v)?;
+            }
+            if let Some(v) = increment {
+                positive("--increment", "the length increment", v)?;
+            }
+            check_output(&output)?;
             let mut loaded = load_input(&input, units.map(Into::into))?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
-            build(&loaded)?;
+            let alignment = build(&loaded)?;
+            refuse_unchecked_sight(&alignment, &criteria, &input)?;
             let project = &loaded.project;
             let increment = increment.unwrap_or(match project.units {
                 Units::Metric => 5.0,
                 Units::UsCustomary => 10.0,
             });
-            if !increment.is_finite() || increment <= 0.0 {
-                bail!("--increment: {increment} is not a positive length");
-            }
             let profile = project.profile();
             let report = check_profile(&profile, &criteria);
             let targets = report.failing_curves();
@@ -239,20 +298,83 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let remaining =
                 after.findings.iter().filter(|f| f.severity == gradewright_geometry::Severity::Fail).count();
             text.push_str(&format!("Wrote {} ({remaining} failing finding(s) remain).\n", output.display()));
-            std::io::stdout().lock().write_all(text.as_bytes())?;
+            print(text.as_bytes())?;
             Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
         Some(Command::Check { input, units, design_speed, format }) => {
-            let mut project = load_input(&input, units.map(Into::into))?.project;
-            let criteria = resolve(&mut project, design_speed, &input)?;
+            if let Some(v) = design_speed {
+                positive("--design-speed", "the design speed", v)?;
+            }
+            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let criteria = resolve(&mut loaded.project, design_speed, &input)?;
+            // Input that cannot be evaluated at all is bad input (exit 2), as
+            // for every other command; curves that overlap or do not fit are
+            // design failures and are listed as findings.
+            if let Some(problem) =
+                loaded.project.profile().problems().into_iter().find(|p| !is_design_problem(p))
+            {
+                let more = loaded.project.profile().problems().len() - 1;
+                let more = if more == 0 { String::new() } else { format!(" (and {more} more problem(s))") };
+                bail!("{}: {problem}{more}", loaded.locate(&problem));
+            }
+            if let Ok(alignment) = Alignment::new(&loaded.project.profile()) {
+                refuse_unchecked_sight(&alignment, &criteria, &input)?;
+            }
+            let project = loaded.project;
             let checks = check_profile(&project.profile(), &criteria);
             let text = match format {
                 Format::Text => report::text(&project, &criteria, &checks),
                 Format::Json => report::json(&project, &criteria, &checks)?,
             };
-            std::io::stdout().lock().write_all(text.as_bytes())?;
+            print(text.as_bytes())?;
             Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
+    }
+}
+
+/// Problems that are the design's (reported as findings), not unusable input.
+fn is_design_problem(problem: &gradewright_geometry::ProfileProblem) -> bool {
+    use gradewright_geometry::ProfileProblem as P;
+    matches!(problem, P::Overlap { .. } | P::CurveExceedsTangent { .. } | P::CurveAtEnd { .. })
+}
+
+/// A check that could not run must not pass: the sight distance at the step
+/// in force must be computable, or the command stops with the limit named.
+fn refuse_unchecked_sight(
+    alignment: &Alignment,
+    criteria: &gradewright_geometry::ResolvedCriteria,
+    input: &std::path::Path,
+) -> anyhow::Result<()> {
+    let step = criteria.get(gradewright_geometry::CriterionId::SightStep);
+    let span = alignment.end() - alignment.start();
+    let count = span / step;
+    if count.is_nan() || count > gradewright_geometry::MAX_SIGHT_STATIONS {
+        bail!(
+            "{}: criteria.sight_step: a step of {step} {} over {span} {} would need more than {} stations; \
+             the sight distance could not be checked (use a larger step)",
+            input.display(),
+            alignment.units().length_symbol(),
+            alignment.units().length_symbol(),
+            gradewright_geometry::MAX_SIGHT_STATIONS
+        );
+    }
+    Ok(())
+}
+
+/// Refuses an output that is not a regular file (or a new path) before any
+/// work is done, so a device or a folder never costs a run.
+fn check_output(output: &std::path::Path) -> anyhow::Result<()> {
+    match std::fs::metadata(output) {
+        Ok(meta) if meta.is_file() => Ok(()),
+        Ok(meta) if meta.is_dir() => {
+            bail!("{}: -o: is a folder, not a file; give a file name", output.display())
+        }
+        Ok(_) => bail!(
+            "{}: -o: is not a regular file (a device, pipe or socket); Gradewright writes only to regular files",
+            output.display()
+        ),
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(()),
+        Err(e) => bail!("{}: -o: {e}", output.display()),
     }
 }
 
@@ -263,6 +385,7 @@ fn resolve(
     input: &std::path::Path,
 ) -> anyhow::Result<gradewright_geometry::ResolvedCriteria> {
     if let Some(v) = design_speed {
+        positive("--design-speed", "the design speed", v)?;
         project.criteria.design_speed = Some(v);
     }
     project.criteria.resolve(project.units).map_err(|e| match e {

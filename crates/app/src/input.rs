@@ -15,16 +15,28 @@ pub struct Input {
     pub project: Project,
     /// File line of each PVI, when known (CSV input).
     pub pvi_lines: Option<Vec<u64>>,
+    /// Line and column of each PVI in a project file.
+    pub pvi_positions: Vec<(usize, usize)>,
 }
 
 impl Input {
     /// Where a profile problem sits: `file:line: field` for CSV input,
     /// `file: pvis` for a project file.
     pub fn locate(&self, problem: &ProfileProblem) -> String {
-        let line = problem.pvi_index().and_then(|i| self.pvi_lines.as_ref().and_then(|lines| lines.get(i)));
-        match line {
-            Some(line) => format!("{}:{line}: {}", self.path.display(), problem.field()),
-            None => format!("{}: pvis", self.path.display()),
+        let index = problem.pvi_index();
+        let line = index.and_then(|i| self.pvi_lines.as_ref().and_then(|lines| lines.get(i)));
+        let position = index.and_then(|i| self.pvi_positions.get(i));
+        match (line, position) {
+            (Some(line), _) => format!("{}:{line}: {}", self.path.display(), problem.field()),
+            (None, Some((line, column))) => {
+                format!(
+                    "{}:{line}:{column}: pvis[{}].{}",
+                    self.path.display(),
+                    index.unwrap_or(0),
+                    problem.field()
+                )
+            }
+            (None, None) => format!("{}: pvis", self.path.display()),
         }
     }
 }
@@ -46,9 +58,20 @@ pub fn load_input(path: &Path, units: Option<Units>) -> anyhow::Result<Input> {
         let name = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
         let mut project = Project::new(name, units);
         project.pvis = table.pvis;
-        return Ok(Input { path: path.to_owned(), project, pvi_lines: Some(table.lines) });
+        return Ok(Input {
+            path: path.to_owned(),
+            project,
+            pvi_lines: Some(table.lines),
+            pvi_positions: Vec::new(),
+        });
     }
-    let project = Project::load(path)?;
+    let meta = std::fs::metadata(path).with_context(|| format!("{}", path.display()))?;
+    if !meta.is_file() {
+        bail!("{}: not a regular file", path.display());
+    }
+    let text = std::fs::read_to_string(path).with_context(|| format!("{}", path.display()))?;
+    let project = Project::from_ron(&text, path)?;
+    let pvi_positions = gradewright_geometry::pvi_positions(&text);
     if let Some(units) = units
         && units != project.units
     {
@@ -59,5 +82,5 @@ pub fn load_input(path: &Path, units: Option<Units>) -> anyhow::Result<Input> {
             project.units.key()
         );
     }
-    Ok(Input { path: path.to_owned(), project, pvi_lines: None })
+    Ok(Input { path: path.to_owned(), project, pvi_lines: None, pvi_positions })
 }

@@ -351,3 +351,45 @@ fn table_names_severity_word_and_sag_rule_are_shown() {
     assert!(h.query_by_label_contains("1 info").is_some(), "the findings count says info");
     assert_eq!(h.query_all_by_label("ℹ note").count(), 0);
 }
+
+/// A refused entry's mark sits inside its own cell: the cells after it in the
+/// row stay under their headings.
+#[test]
+fn an_invalid_cell_does_not_shift_its_row() {
+    let mut h = demo();
+    let before = h.get_by_label("PVI 3 curve length").rect().left();
+    replace_text(&mut h, "PVI 3 elevation", "abc");
+    assert!(h.query_by_label_contains("invalid").is_some(), "invalid mark shown");
+    let heading = h.get_by_label("Curve L (m)").rect().left();
+    let after = h.get_by_label("PVI 3 curve length").rect().left();
+    // The column may widen to make room for the mark, but the cell stays in
+    // its column: at or right of its heading, and not a whole column over.
+    assert!(after >= heading - 1.0, "{after} vs heading {heading}");
+    let next_heading = h.get_by_label("L back").rect().left();
+    assert!(after < next_heading, "{after} is under the next heading {next_heading} (was {before})");
+}
+
+/// The editor's saves go through the same safe writer as the command line: a
+/// 0600 project stays 0600 (and so does its backup), and a symbolic link
+/// stays a link to the saved file.
+#[cfg(unix)]
+#[test]
+fn editor_saves_keep_permissions_and_links() {
+    use std::os::unix::fs::PermissionsExt as _;
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-mode-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let real = dir.join("private.ron");
+    let mut h = demo();
+    assert!(h.state_mut().save_to(&real));
+    std::fs::set_permissions(&real, std::fs::Permissions::from_mode(0o600)).unwrap_or_else(|e| panic!("{e}"));
+    let link = dir.join("link.ron");
+    std::os::unix::fs::symlink(&real, &link).unwrap_or_else(|e| panic!("{e}"));
+    assert!(h.state_mut().save_to(&link));
+    assert!(std::fs::symlink_metadata(&link).is_ok_and(|m| m.file_type().is_symlink()));
+    for file in [real.clone(), dir.join("private.ron.bak")] {
+        let mode = std::fs::metadata(&file).map(|m| m.permissions().mode() & 0o777).unwrap_or(0);
+        assert_eq!(mode, 0o600, "{}", file.display());
+    }
+    assert!(!h.state_mut().save_to(std::path::Path::new("/dev/null")), "a device is refused");
+}

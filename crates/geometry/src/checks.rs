@@ -107,7 +107,55 @@ impl CheckReport {
 /// The structural problems of `profile` as failure findings (what
 /// [`check_profile`] reports first), for use when no criteria are available.
 pub fn structural_findings(profile: &Profile) -> Vec<Finding> {
-    profile.problems().iter().map(|p| problem_finding(profile, p)).collect()
+    group_repeats(profile.problems().iter().map(|p| problem_finding(profile, p)).collect())
+}
+
+/// How many findings of one code are listed one by one before the rest are
+/// counted in the first.
+const REPEATS_LISTED: usize = 3;
+
+/// The same problem repeated is one finding with a count and the first few
+/// stations, so a file with two million bad rows gives a short report.
+fn group_repeats(findings: Vec<Finding>) -> Vec<Finding> {
+    let mut counts: std::collections::HashMap<&'static str, usize> = std::collections::HashMap::new();
+    for f in &findings {
+        *counts.entry(f.code).or_default() += 1;
+    }
+    if counts.values().all(|&n| n <= REPEATS_LISTED) {
+        return findings;
+    }
+    let mut out: Vec<Finding> = Vec::new();
+    let mut firsts: std::collections::HashMap<&'static str, (usize, Vec<String>)> =
+        std::collections::HashMap::new();
+    for f in findings {
+        let n = counts.get(f.code).copied().unwrap_or(0);
+        if n <= REPEATS_LISTED {
+            out.push(f);
+            continue;
+        }
+        match firsts.get_mut(f.code) {
+            Some((_, stations)) => {
+                if stations.len() < REPEATS_LISTED {
+                    stations.push(format!("{:.3}", f.station_start.0));
+                }
+            }
+            None => {
+                firsts.insert(f.code, (out.len(), vec![format!("{:.3}", f.station_start.0)]));
+                out.push(f);
+            }
+        }
+    }
+    for (code, (at, stations)) in firsts {
+        let n = counts.get(code).copied().unwrap_or(0);
+        if let Some(f) = out.get_mut(at) {
+            f.message = format!(
+                "{} — the same problem {n} times in all (first at stations {}, …)",
+                f.message,
+                stations.join(", ")
+            );
+        }
+    }
+    out
 }
 
 /// The most stations the sight distance is computed at (a 500 km profile at
@@ -144,18 +192,15 @@ pub fn check_profile_with_sight(
 ) -> CheckReport {
     let mut report = CheckReport::default();
     let problems = profile.problems();
-    let mut usable = true;
-    for problem in &problems {
-        if !matches!(
+    let usable = problems.iter().all(|problem| {
+        matches!(
             problem,
             ProfileProblem::Overlap { .. }
                 | ProfileProblem::CurveExceedsTangent { .. }
                 | ProfileProblem::CurveAtEnd { .. }
-        ) {
-            usable = false;
-        }
-        report.findings.push(problem_finding(profile, problem));
-    }
+        )
+    });
+    report.findings = group_repeats(problems.iter().map(|p| problem_finding(profile, p)).collect());
     if !usable {
         return report;
     }
@@ -169,14 +214,16 @@ pub fn check_profile_with_sight(
     {
         match &sight {
             Some(sight) => check_sight(&alignment, criteria, sight, &mut report.findings),
+            // A check that did not run must not pass.
             None => report.findings.push(Finding {
-                severity: Severity::Warn,
+                severity: Severity::Fail,
                 code: "sight.not-computed",
                 station_start: alignment.start(),
                 station_end: alignment.end(),
                 pvi: None,
                 message: format!(
-                    "Sight distance was not checked: more than {MAX_SIGHT_STATIONS} stations at a step of {} {}",
+                    "Sight distance was not checked: more than {MAX_SIGHT_STATIONS} stations at a step of {} {}; \
+                     use a larger sight-distance step",
                     criteria.get(CriterionId::SightStep),
                     criteria.units.length_symbol()
                 ),
@@ -606,5 +653,30 @@ fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut V
                 ),
             );
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::Pvi;
+
+    #[test]
+    fn a_repeated_problem_is_one_finding_with_a_count() {
+        let pvis = (0..20_000).map(|_| Pvi::new(0.0, 100.0)).collect();
+        let profile = Profile::new(Units::Metric, pvis);
+        let findings = structural_findings(&profile);
+        assert_eq!(findings.len(), 1, "{:?}", findings.first());
+        let message = findings.first().map(|f| f.message.as_str()).unwrap_or("");
+        assert!(message.contains("19999 times in all"), "{message}");
+    }
+
+    #[test]
+    fn absurd_values_are_problems_not_nan() {
+        let profile = Profile::new(Units::Metric, vec![Pvi::new(0.0, 1e308), Pvi::new(100.0, -1e308)]);
+        let problems = profile.problems();
+        assert_eq!(problems.len(), 2);
+        assert!(problems.iter().all(|p| p.code() == "profile.out-of-range"), "{problems:?}");
+        assert!(Alignment::new(&profile).is_err());
     }
 }

@@ -27,6 +27,7 @@ pub mod synthetic;
 pub mod tolerance;
 mod units;
 pub mod visibility;
+mod write;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
 pub use checks::{
@@ -41,6 +42,7 @@ pub use edit::InsertError;
 pub use fit::{FitOutcome, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
-pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, write_atomic};
-pub use station::{Station, StationError, format_station, parse_station};
+pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, pvi_positions};
+pub use station::{Station, StationError, excerpt, format_station, parse_station};
 pub use units::Units;
+pub use write::write_atomic;

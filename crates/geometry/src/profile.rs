@@ -7,6 +7,7 @@ use crate::{Station, Units};
 
 /// The vertical curve at a PVI.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize, Default)]
+#[serde(deny_unknown_fields)]
 pub enum VerticalCurve {
     /// A plain grade break (or the first/last PVI).
     #[default]
@@ -96,6 +97,7 @@ impl VerticalCurve {
 
 /// A point of vertical intersection: where two grade lines meet.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Pvi {
     /// Station of the PVI.
     pub station: Station,
@@ -147,6 +149,18 @@ pub enum ProfileProblem {
         index: usize,
         /// Which value.
         field: &'static str,
+    },
+    /// A number is finite but far outside any road (beyond ±[`Profile::LIMIT`]).
+    #[error("PVI {}: {field} {value:e} is outside ±{limit:e}, the range Gradewright accepts", .index + 1)]
+    OutOfRange {
+        /// The PVI.
+        index: usize,
+        /// Which value.
+        field: &'static str,
+        /// Its value.
+        value: f64,
+        /// The limit.
+        limit: f64,
     },
     /// A curve length is negative.
     #[error("PVI {}: {field} is negative ({value})", .index + 1)]
@@ -212,6 +226,7 @@ impl ProfileProblem {
         match self {
             Self::TooFewPvis { .. } => "profile.too-few-pvis",
             Self::NotFinite { .. } => "profile.not-finite",
+            Self::OutOfRange { .. } => "profile.out-of-range",
             Self::NegativeLength { .. } => "profile.negative-length",
             Self::StationOrder { .. } => "profile.station-order",
             Self::CurveAtEnd { .. } => "profile.curve-at-end",
@@ -225,7 +240,7 @@ impl ProfileProblem {
     pub fn field(&self) -> &'static str {
         match self {
             Self::TooFewPvis { .. } => "pvis",
-            Self::NotFinite { field, .. } => match *field {
+            Self::NotFinite { field, .. } | Self::OutOfRange { field, .. } => match *field {
                 "station" => "station",
                 "elevation" => "elevation",
                 _ => "curve_length",
@@ -244,6 +259,7 @@ impl ProfileProblem {
         match self {
             Self::TooFewPvis { .. } => None,
             Self::NotFinite { index, .. }
+            | Self::OutOfRange { index, .. }
             | Self::NegativeLength { index, .. }
             | Self::StationOrder { index, .. }
             | Self::CurveAtEnd { index }
@@ -255,6 +271,11 @@ impl ProfileProblem {
 }
 
 impl Profile {
+    /// The largest magnitude accepted for a station, an elevation or a curve
+    /// length, in the project's unit (10 000 km or 10 million ft): anything
+    /// beyond is a mistake, and would lose every digit that matters.
+    pub const LIMIT: f64 = 1.0e7;
+
     /// A profile from PVIs.
     pub fn new(units: Units, pvis: Vec<Pvi>) -> Self {
         Self { units, pvis }
@@ -279,6 +300,9 @@ impl Profile {
             for (field, value) in values {
                 if !value.is_finite() {
                     problems.push(ProfileProblem::NotFinite { index, field });
+                    finite[index] = false;
+                } else if value.abs() > Self::LIMIT {
+                    problems.push(ProfileProblem::OutOfRange { index, field, value, limit: Self::LIMIT });
                     finite[index] = false;
                 } else if field.starts_with("curve") && value < 0.0 {
                     problems.push(ProfileProblem::NegativeLength { index, field, value });

@@ -4,7 +4,6 @@
 //! any error; saving is atomic and keeps the previous file as `*.bak`.
 
 use std::fs;
-use std::io::Write as _;
 use std::path::{Path, PathBuf};
 
 use serde::{Deserialize, Serialize};
@@ -16,6 +15,7 @@ pub const FORMAT_VERSION: u32 = 1;
 
 /// A point of the existing ground line.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct GroundPoint {
     /// Station.
     pub station: f64,
@@ -89,6 +89,8 @@ impl Project {
     /// # Errors
     /// [`FileError::Syntax`] with line and column, or [`FileError::NewerVersion`].
     pub fn from_ron(text: &str, origin: &Path) -> Result<Self, FileError> {
+        // A byte-order mark some editors write is not part of the text.
+        let text = text.strip_prefix('\u{feff}').unwrap_or(text);
         // Read the version first, so a newer file says so instead of failing
         // on a field this build does not know.
         if let Ok(probe) = ron::from_str::<VersionProbe>(text)
@@ -104,7 +106,10 @@ impl Project {
             path: origin.to_owned(),
             line: e.span.start.line,
             column: e.span.start.col,
-            message: e.code.to_string(),
+            message: match looks_like(text) {
+                Some(kind) => format!("{}; the file looks like {kind}", e.code),
+                None => e.code.to_string(),
+            },
         })?;
         if project.format_version == 0 {
             return Err(FileError::Syntax {
@@ -147,8 +152,51 @@ impl Project {
     /// [`FileError::Io`] naming the file.
     pub fn save(&self, path: &Path) -> Result<(), FileError> {
         let text = self.to_ron()?;
-        write_atomic(path, text.as_bytes(), true)
+        crate::write_atomic(path, text.as_bytes(), true)
     }
+}
+
+/// What a file that fails to parse as a project looks like, when it looks
+/// like something else Gradewright reads.
+fn looks_like(text: &str) -> Option<&'static str> {
+    let first =
+        text.lines().map(str::trim).find(|l| !l.is_empty() && !l.starts_with('#') && !l.starts_with("//"))?;
+    let lower = first.to_ascii_lowercase();
+    if lower.starts_with("<?xml") || lower.starts_with('<') {
+        Some("XML, not a project file")
+    } else if !first.contains('(')
+        && (first.contains(',') || first.contains(';') || first.contains('\t'))
+        && (lower.contains("station") || first.chars().next().is_some_and(|c| c.is_ascii_digit()))
+    {
+        Some("a CSV PVI table, not a project file: name it .csv and give --units")
+    } else {
+        None
+    }
+}
+
+/// The 1-based line and column of the `station` key of every PVI in project
+/// text, in order (for naming where a PVI's problem is).
+pub fn pvi_positions(text: &str) -> Vec<(usize, usize)> {
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+    let Some(start) = text.find("pvis") else { return Vec::new() };
+    let mut positions = Vec::new();
+    let mut rest = start;
+    while let Some(found) = text.get(rest..).and_then(|t| t.find("station")) {
+        let at = rest + found;
+        let after = text.get(at + "station".len()..).unwrap_or("");
+        let before = text.get(..at).and_then(|b| b.chars().next_back());
+        if after.trim_start().starts_with(':') && !before.is_some_and(|c| c.is_alphanumeric() || c == '_') {
+            let head = text.get(..at).unwrap_or("");
+            let line = head.matches('\n').count() + 1;
+            let column = head
+                .rfind('\n')
+                .map_or(head.chars().count(), |n| head.get(n + 1..).map_or(0, |h| h.chars().count()))
+                + 1;
+            positions.push((line, column));
+        }
+        rest = at + "station".len();
+    }
+    positions
 }
 
 #[derive(Deserialize)]
@@ -193,44 +241,4 @@ pub enum FileError {
     /// The project could not be encoded.
     #[error("could not encode the project: {0}")]
     Encode(String),
-}
-
-/// Writes `bytes` to `path` atomically (temporary file in the same folder,
-/// flush and sync, rename). With `backup`, an existing file is first copied to
-/// `path` + `.bak` (itself written atomically).
-///
-/// # Errors
-/// [`FileError::Io`] naming the file; on error the old file is untouched.
-pub fn write_atomic(path: &Path, bytes: &[u8], backup: bool) -> Result<(), FileError> {
-    let io = |p: &Path, e: std::io::Error| FileError::Io { path: p.to_owned(), message: e.to_string() };
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d.to_owned(),
-        _ => PathBuf::from("."),
-    };
-    let file_name = path.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
-    if file_name.is_empty() {
-        return Err(FileError::Io { path: path.to_owned(), message: "not a file name".to_owned() });
-    }
-    let temp = dir.join(format!(".{file_name}.{}.tmp", std::process::id()));
-    let result = (|| {
-        let mut file = fs::File::create(&temp).map_err(|e| io(&temp, e))?;
-        file.write_all(bytes).map_err(|e| io(&temp, e))?;
-        file.sync_all().map_err(|e| io(&temp, e))?;
-        drop(file);
-        if backup && path.exists() {
-            let old = fs::read(path).map_err(|e| io(path, e))?;
-            let mut bak = path.as_os_str().to_owned();
-            bak.push(".bak");
-            write_atomic(Path::new(&bak), &old, false)?;
-        }
-        fs::rename(&temp, path).map_err(|e| io(path, e))?;
-        if let Ok(d) = fs::File::open(&dir) {
-            let _ = d.sync_all();
-        }
-        Ok(())
-    })();
-    if result.is_err() {
-        let _ = fs::remove_file(&temp);
-    }
-    result
 }

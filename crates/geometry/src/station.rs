@@ -109,6 +109,21 @@ pub fn format_station(value: f64, units: Units, decimals: usize) -> String {
     format!("{sign}{whole}+{rest_value:0width$.decimals$}")
 }
 
+/// The longest piece of a user's text quoted back in a message.
+const EXCERPT_CHARS: usize = 40;
+
+/// `text` as quoted in an error message: whole when short, else its first
+/// characters and how long it was (a 10 MB cell is never echoed whole).
+pub fn excerpt(text: &str) -> String {
+    let count = text.chars().count();
+    if count <= EXCERPT_CHARS {
+        text.to_owned()
+    } else {
+        let head: String = text.chars().take(EXCERPT_CHARS).collect();
+        format!("{head}… ({count} characters)")
+    }
+}
+
 /// Parses station notation (`12+34.56`, `1+234.567`, `-0+50`) or a plain number
 /// (`1234.56`). Surrounding white space is ignored.
 ///
@@ -120,11 +135,11 @@ pub fn parse_station(text: &str, units: Units) -> Result<f64, StationError> {
     if trimmed.is_empty() {
         return Err(StationError::Empty);
     }
-    let malformed = || StationError::Malformed(trimmed.to_owned(), example(units));
+    let malformed = || StationError::Malformed(excerpt(trimmed), example(units));
     let Some((head, tail)) = trimmed.split_once('+') else {
         let value: f64 = trimmed.parse().map_err(|_| malformed())?;
         if !value.is_finite() {
-            return Err(StationError::NotFinite(trimmed.to_owned()));
+            return Err(StationError::NotFinite(excerpt(trimmed)));
         }
         return Ok(value);
     };
@@ -144,11 +159,11 @@ pub fn parse_station(text: &str, units: Units) -> Result<f64, StationError> {
     let whole: f64 = digits.parse().map_err(|_| malformed())?;
     let offset: f64 = tail.parse().map_err(|_| malformed())?;
     if offset >= units.station_length() {
-        return Err(StationError::OffsetTooLarge { text: trimmed.to_owned(), limit: units.station_length() });
+        return Err(StationError::OffsetTooLarge { text: excerpt(trimmed), limit: units.station_length() });
     }
     let magnitude = whole * units.station_length() + offset;
     if !magnitude.is_finite() {
-        return Err(StationError::NotFinite(trimmed.to_owned()));
+        return Err(StationError::NotFinite(excerpt(trimmed)));
     }
     Ok(if negative { -magnitude } else { magnitude })
 }

@@ -4,7 +4,7 @@
 use std::io::{Read, Write};
 use std::path::{Path, PathBuf};
 
-use gradewright_geometry::{Pvi, Station, Units, VerticalCurve, format_station, parse_station};
+use gradewright_geometry::{Pvi, Station, Units, VerticalCurve, excerpt, format_station, parse_station};
 
 /// A problem in a PVI CSV file, naming file, line and field.
 #[derive(Clone, Debug, PartialEq, thiserror::Error)]
@@ -54,13 +54,17 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Pv
         .map(str::to_ascii_lowercase)
         .collect::<Vec<_>>();
     let find = |name: &str| headers.iter().position(|h| h == name);
-    for h in &headers {
+    for (i, h) in headers.iter().enumerate() {
+        if headers.iter().take(i).any(|earlier| earlier == h) {
+            return Err(err(1, "header", format!("column '{}' appears twice", excerpt(h))));
+        }
         if !["station", "elevation", "curve_length", "length_in", "length_out"].contains(&h.as_str()) {
             return Err(err(
                 1,
                 "header",
                 format!(
-                    "unknown column '{h}' (expected station, elevation and curve_length, or length_in and length_out)"
+                    "unknown column '{}' (expected station, elevation and curve_length, or length_in and length_out)",
+                    excerpt(h)
                 ),
             ));
         }
@@ -100,10 +104,11 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Pv
             if text.is_empty() && empty_is_zero {
                 return Ok(0.0);
             }
-            let value: f64 =
-                text.parse().map_err(|_| err(line, &name(i), format!("'{text}' is not a number")))?;
+            let value: f64 = text
+                .parse()
+                .map_err(|_| err(line, &name(i), format!("'{}' is not a number", excerpt(text))))?;
             if !value.is_finite() {
-                return Err(err(line, &name(i), format!("'{text}' is not a finite number")));
+                return Err(err(line, &name(i), format!("'{}' is not a finite number", excerpt(text))));
             }
             if empty_is_zero && value < 0.0 {
                 return Err(err(line, &name(i), format!("length {value} is negative")));

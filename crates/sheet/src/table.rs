@@ -69,6 +69,9 @@ pub fn write_station_table(
     let mut cursor = alignment.cursor();
     for &s in stations {
         let sample = cursor.sample(Station(s))?;
+        if !(sample.elevation.is_finite() && sample.grade_percent.is_finite()) {
+            return Err(TableError::NotFinite { station: s });
+        }
         let label_decimals = decimals.unwrap_or(units.station_decimals());
         csv.write_record([
             number(s, decimals),
@@ -87,6 +90,12 @@ pub enum TableError {
     /// A station outside the profile.
     #[error(transparent)]
     OutOfRange(#[from] gradewright_geometry::OutOfRange),
+    /// A value came out NaN or infinite (never written).
+    #[error("the profile gives no finite elevation at station {station}")]
+    NotFinite {
+        /// Where.
+        station: f64,
+    },
     /// Writing failed.
     #[error("{0}")]
     Io(String),
@@ -123,6 +132,12 @@ pub fn write_sight_table(
     let mut csv = csv::Writer::from_writer(out);
     csv.write_record(SIGHT_HEADER)?;
     for s in &sight.samples {
+        if ![s.station, s.forward, s.backward, s.required_forward, s.required_backward]
+            .iter()
+            .all(|v| v.is_finite())
+        {
+            return Err(TableError::NotFinite { station: s.station });
+        }
         csv.write_record([
             number(s.station, None),
             number(s.forward, None),

@@ -25,7 +25,18 @@ pub fn edit_cell(
         edit =
             edit.text_color(Color32::from_rgb(230, 60, 50)).background_color(ui.visuals().extreme_bg_color);
     }
-    let response = ui.add_sized([width, ui.spacing().interact_size.y], edit);
+    // The cell and its mark share one grid cell, so the columns stay aligned
+    // whatever the cell shows.
+    let mark_reason = error.clone();
+    let inner = ui.horizontal(|ui| {
+        let response = ui.add_sized([width, ui.spacing().interact_size.y], edit);
+        if let Some(reason) = &mark_reason {
+            ui.label(RichText::new("⚠ invalid").color(Color32::from_rgb(230, 60, 50)))
+                .on_hover_text(format!("{reason}\n(the model keeps {current})"));
+        }
+        response
+    });
+    let response = inner.inner;
     let label_text = label.to_owned();
     let shown = text.clone();
     response.widget_info(|| {
@@ -47,8 +58,6 @@ pub fn edit_cell(
         }
     }
     if let Some(reason) = error {
-        ui.label(RichText::new("⚠ invalid").color(Color32::from_rgb(230, 60, 50)))
-            .on_hover_text(format!("{reason}\n(the model keeps {current})"));
         response.on_hover_text(reason);
     }
     committed
