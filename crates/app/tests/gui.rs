@@ -11,6 +11,8 @@ use gradewright_geometry::{CurveKind, Severity};
 fn harness(app: GradewrightApp) -> Harness<'static, GradewrightApp> {
     let mut h = Harness::builder()
         .with_size([1500.0, 950.0])
+        // A new project lays out its table and plot over a few passes.
+        .with_max_steps(12)
         .build_ui_state(|ui, app: &mut GradewrightApp| app.show(ui), app);
     h.run();
     h
@@ -326,7 +328,7 @@ fn renaming_is_one_undo_step() {
 #[test]
 fn table_names_severity_word_and_sag_rule_are_shown() {
     let mut h = demo();
-    for header in ["g1 back", "g2 ahead", "L back", "L ahead"] {
+    for header in ["g1 back (%)", "g2 ahead (%)", "L back", "L ahead"] {
         assert!(h.query_by_label(header).is_some(), "{header}");
     }
     for old in ["Grade in", "Grade out", "L in", "L out"] {
@@ -392,4 +394,150 @@ fn editor_saves_keep_permissions_and_links() {
         assert_eq!(mode, 0o600, "{}", file.display());
     }
     assert!(!h.state_mut().save_to(std::path::Path::new("/dev/null")), "a device is refused");
+}
+
+/// Drags a PVI by the pointer from its place by `offset` screen points,
+/// holding `modifiers`.
+fn drag_pvi(
+    h: &mut Harness<'_, GradewrightApp>,
+    index: usize,
+    offset: egui::Vec2,
+    modifiers: egui::Modifiers,
+) {
+    let pvi = h.state().project().pvis[index];
+    let transform = h.state().view.last_transform.unwrap_or_else(|| panic!("plot not shown"));
+    let from = transform.position_from_point(&PlotPoint::new(pvi.station.0, pvi.elevation));
+    let to = from + offset;
+    h.hover_at(from);
+    h.run();
+    h.drag_at(from);
+    h.run();
+    // Held for the whole drag, as a user holds the key.
+    h.event(egui::Event::ModifiersChanged(modifiers));
+    for step in 1..=5u8 {
+        let t = f32::from(step) / 5.0;
+        h.hover_at(from + (to - from) * t);
+        h.step();
+    }
+    h.drop_at(to);
+    h.run();
+    h.event(egui::Event::ModifiersChanged(egui::Modifiers::NONE));
+    h.run();
+}
+
+/// Snap is on by default: a drag lands on a whole metre and a hundredth.
+#[test]
+fn a_snapped_drag_lands_on_whole_units() {
+    let mut h = demo();
+    assert!(h.state().project().snap.on, "snap is on by default");
+    drag_pvi(&mut h, 2, egui::vec2(23.0, -37.0), egui::Modifiers::NONE);
+    let p = h.state().project().pvis[2];
+    assert!((p.station.0 - p.station.0.round()).abs() < 1e-9, "station {}", p.station.0);
+    let hundredths = p.elevation * 100.0;
+    assert!((hundredths - hundredths.round()).abs() < 1e-6, "elevation {}", p.elevation);
+    assert!((p.station.0 - 700.0).abs() > 0.5, "it moved along the station too");
+}
+
+/// Holding Shift drags up and down only: the station stays exactly.
+#[test]
+fn a_vertical_only_drag_keeps_the_station_exactly() {
+    let mut h = demo();
+    let before = h.state().project().pvis[2];
+    drag_pvi(&mut h, 2, egui::vec2(40.0, -40.0), egui::Modifiers::SHIFT);
+    let after = h.state().project().pvis[2];
+    assert_eq!(after.station.0.to_bits(), before.station.0.to_bits());
+    assert!(after.elevation > before.elevation + 0.5, "{} vs {}", after.elevation, before.elevation);
+}
+
+/// Selecting a row never moves the view; Zoom to selection does.
+#[test]
+fn selecting_a_row_leaves_the_view_unchanged() {
+    let mut h = demo();
+    let before = *h.state().view.last_transform.unwrap_or_else(|| panic!("plot")).bounds();
+    h.get_by_label("2").click();
+    h.run();
+    assert_eq!(h.state().view.selected, Some(1));
+    let after = *h.state().view.last_transform.unwrap_or_else(|| panic!("plot")).bounds();
+    assert_eq!(format!("{before:?}"), format!("{after:?}"));
+    h.get_by_label("Zoom to selection").click();
+    h.run();
+    let zoomed = *h.state().view.last_transform.unwrap_or_else(|| panic!("plot")).bounds();
+    assert_ne!(format!("{before:?}"), format!("{zoomed:?}"));
+}
+
+/// Typing a K sets the length to K·A: 30 m/% on the demo's A = 5 % crest
+/// gives 150 m (K = L/A, Green Book 2018 §3.4.6).
+#[test]
+fn typing_k_sets_the_length() {
+    let mut h = demo();
+    replace_text(&mut h, "PVI 4 K", "30");
+    let curve = crest_check(&h);
+    assert!((curve.curve.length() - 150.0).abs() < 1e-9, "{}", curve.curve.length());
+    assert!(curve.ok);
+}
+
+/// Typing the grade ahead moves the next PVI's elevation on that grade.
+#[test]
+fn typing_a_grade_sets_the_next_elevation() {
+    let mut h = demo();
+    let (a, b) = (h.state().project().pvis[0], h.state().project().pvis[1]);
+    replace_text(&mut h, "PVI 1 grade ahead", "+2.0");
+    let moved = h.state().project().pvis[1];
+    assert!((moved.elevation - (a.elevation + 0.02 * (b.station - a.station))).abs() < 1e-9);
+    assert_eq!(moved.station, b.station);
+}
+
+/// "Make symmetric" turns the demo's 60/80 m curve at PVI 5 into a 140 m
+/// symmetric one, one undo step; the table marks unequal curves.
+#[test]
+fn make_symmetric_from_the_table() {
+    let mut h = demo();
+    assert!(h.query_by_label("⚖ unequal").is_some());
+    h.get_by_label("Make symmetric").click();
+    h.run();
+    let curve = h.state().project().pvis[4].curve;
+    assert_eq!(curve, gradewright_geometry::VerticalCurve::Symmetric { length: 140.0 });
+    assert!(h.query_by_label("⚖ unequal").is_none());
+    h.state_mut().push(Action::Undo);
+    h.run();
+    assert!(matches!(h.state().project().pvis[4].curve, gradewright_geometry::VerticalCurve::Unequal { .. }));
+}
+
+/// A PVI inserted on a tangent starts with a curve that passes: the minimum
+/// length (0.6V = 48 m at 80 km/h, the Green Book's appearance rule; from
+/// memory) rounded up to the 5 m increment, 50 m; the status line says so.
+#[test]
+fn an_inserted_pvi_gets_a_passing_curve() {
+    let mut h = demo();
+    h.get_by_label("1").click();
+    h.run();
+    h.get_by_label("Insert after selected").click();
+    h.run();
+    let project = h.state().project().clone();
+    assert_eq!(project.pvis.len(), 7);
+    let new = project.pvis[1];
+    assert!((new.curve.length() - 50.0).abs() < 1e-9, "{:?}", new.curve);
+    assert!(h.state().derived().report.worst_at(1) != Some(Severity::Fail));
+    let notice = h.state().notice.clone().map(|n| n.text).unwrap_or_default();
+    assert!(notice.contains("50.00 m curve") && notice.contains("minimum length"), "{notice}");
+    // The next edit clears the message.
+    replace_text(&mut h, "PVI 4 curve length", "95");
+    assert!(h.state().notice.is_none(), "{:?}", h.state().notice);
+}
+
+/// A saved project never reads `r#None`: a PVI without a curve leaves the
+/// field out, and files written before still open.
+#[test]
+fn saved_files_have_no_raw_identifiers() {
+    let text = h_text();
+    assert!(!text.contains("r#None"), "{text}");
+    let old = text.replacen("elevation: 212.4,\n", "elevation: 212.4,\n            curve: r#None,\n", 1);
+    assert_ne!(old, text, "the first PVI is written without a curve: {text}");
+    let project = gradewright_geometry::Project::from_ron(&old, std::path::Path::new("old.ron"))
+        .unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(project.pvis[0].curve, gradewright_geometry::VerticalCurve::None);
+}
+
+fn h_text() -> String {
+    demo().state().project().to_ron().unwrap_or_else(|e| panic!("{e}"))
 }

@@ -233,3 +233,34 @@ fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool 
         }
     })
 }
+
+/// The curve a new interior PVI at `index` starts with: the shortest length
+/// that meets the curve criteria for the grades it makes (the minimum length
+/// when the grades are equal), rounded up to `increment`, and no longer than
+/// the room its neighbours leave. `None` when no curve fits or the PVI is an
+/// end. The second value says which rule set the length.
+pub fn default_curve_length(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    index: usize,
+    increment: f64,
+) -> Option<(f64, &'static str)> {
+    let mut probe = profile.clone();
+    set_length(&mut probe, index, 0.0);
+    let curve = geometry_at(&probe, index)?;
+    let room = room(&probe, index)?;
+    let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
+    let min_length = criteria.get(CriterionId::MinCurveLength);
+    let (needed, rule) = if curve.kind == CurveKind::None {
+        (min_length, "the minimum length")
+    } else {
+        let mut scratch = Vec::new();
+        // As a curve (not a bare break), so K and the sight formulas apply.
+        set_length(&mut probe, index, increment);
+        let curve = geometry_at(&probe, index)?;
+        let check = check_curve(&curve, criteria, &mut scratch);
+        (check.length_required.max(min_length), "the shortest length that meets the criteria")
+    };
+    let length = ceil_to(needed.max(increment), increment);
+    (length <= room && length > 0.0).then_some((length, rule))
+}

@@ -9,8 +9,10 @@ use crate::{Station, Units};
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize, Default)]
 #[serde(deny_unknown_fields)]
 pub enum VerticalCurve {
-    /// A plain grade break (or the first/last PVI).
+    /// A plain grade break (or the first/last PVI). Written `NoCurve` (a
+    /// file never needs it: the field is left out); `None` still reads.
     #[default]
+    #[serde(rename = "NoCurve", alias = "None")]
     None,
     /// An equal-tangent parabola of total length `length`, centred on the PVI.
     Symmetric {
@@ -37,6 +39,11 @@ impl VerticalCurve {
         } else {
             Self::Unequal { length_in, length_out }
         }
+    }
+
+    /// Whether there is no curve at all (for leaving the field out of files).
+    pub fn is_none(&self) -> bool {
+        matches!(self, Self::None)
     }
 
     /// Length before the PVI (PVC→PVI).
@@ -103,8 +110,8 @@ pub struct Pvi {
     pub station: Station,
     /// Elevation of the PVI (the grade lines' intersection, not the curve).
     pub elevation: f64,
-    /// The vertical curve at this PVI.
-    #[serde(default)]
+    /// The vertical curve at this PVI (left out of files when there is none).
+    #[serde(default, skip_serializing_if = "VerticalCurve::is_none")]
     pub curve: VerticalCurve,
 }
 

@@ -41,6 +41,40 @@ pub struct ControlPoint {
     pub above: f64,
 }
 
+/// How the editor snaps dragged and inserted PVIs, kept with the project.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(default, deny_unknown_fields)]
+pub struct Snap {
+    /// Whether snapping is on.
+    pub on: bool,
+    /// Station increment (a whole metre or foot by default).
+    pub station: f64,
+    /// Elevation increment.
+    pub elevation: f64,
+}
+
+impl Default for Snap {
+    fn default() -> Self {
+        Self { on: true, station: 1.0, elevation: 0.01 }
+    }
+}
+
+impl Snap {
+    /// `(station, elevation)` rounded to the increments when snapping is on.
+    pub fn apply(self, station: f64, elevation: f64) -> (f64, f64) {
+        if !self.on {
+            return (station, elevation);
+        }
+        let round =
+            |v: f64, step: f64| if step > 0.0 && step.is_finite() { (v / step).round() * step } else { v };
+        (round(station, self.station), round(elevation, self.elevation))
+    }
+
+    fn is_default(&self) -> bool {
+        *self == Self::default()
+    }
+}
+
 /// A Gradewright project.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -63,6 +97,9 @@ pub struct Project {
     /// Fixed elevations the profile must meet.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub controls: Vec<ControlPoint>,
+    /// How the editor snaps PVIs in this project.
+    #[serde(default, skip_serializing_if = "Snap::is_default")]
+    pub snap: Snap,
 }
 
 impl Project {
@@ -76,6 +113,7 @@ impl Project {
             pvis: Vec::new(),
             ground: Vec::new(),
             controls: Vec::new(),
+            snap: Snap::default(),
         }
     }
 

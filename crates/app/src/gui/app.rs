@@ -2,7 +2,7 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_geometry::{Project, Pvi, Units};
+use gradewright_geometry::{Project, Pvi, Units, VerticalCurve};
 
 use super::command::{Action, Edit, REDO_ALT, UiCommand};
 use super::derived::Derived;
@@ -15,6 +15,17 @@ pub const DEMO_PROJECT: &str = include_str!("../../../../assets/alder-brook-road
 
 /// How often unsaved work is written to the recovery file, seconds.
 const AUTOSAVE_SECONDS: f64 = 30.0;
+
+/// What a drag may change: both coordinates, or only one.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum DragLock {
+    /// Station and elevation.
+    Free,
+    /// Elevation only: the station stays (Shift held).
+    Vertical,
+    /// Station only: the elevation stays (Ctrl held).
+    Horizontal,
+}
 
 /// A message shown in the window.
 #[derive(Clone, Debug, PartialEq)]
@@ -234,6 +245,8 @@ impl GradewrightApp {
         if !(renaming && self.renaming) {
             self.history.record(before);
         }
+        // A message about the old project would mislead now.
+        self.notice = None;
         self.renaming = renaming;
         self.changed();
         true
@@ -250,12 +263,27 @@ impl GradewrightApp {
 
     /// Moves the dragged PVI towards a point, within its limits; live.
     pub fn drag_to(&mut self, index: usize, station: f64, elevation: f64) {
-        let (station, elevation) = self.view.snap(station, elevation);
+        self.drag_locked(index, station, elevation, DragLock::Free);
+    }
+
+    /// As [`Self::drag_to`], keeping the station (vertical only) or the
+    /// elevation (horizontal only) the PVI had when the drag began.
+    pub fn drag_locked(&mut self, index: usize, station: f64, elevation: f64, lock: DragLock) {
+        let (mut station, mut elevation) = self.project.snap.apply(station, elevation);
+        let origin = self.drag_origin.as_ref().and_then(|p| p.pvis.get(index)).copied();
+        if let Some(origin) = origin {
+            match lock {
+                DragLock::Free => {}
+                DragLock::Vertical => station = origin.station.0,
+                DragLock::Horizontal => elevation = origin.elevation,
+            }
+        }
         let Some(pvi) = self.project.profile().move_pvi_clamped(index, station, elevation) else { return };
         if let Some(slot) = self.project.pvis.get_mut(index)
             && *slot != pvi
         {
             *slot = pvi;
+            self.notice = None;
             self.changed();
         }
     }
@@ -467,6 +495,22 @@ impl GradewrightApp {
                 self.view.selected = Some(index);
                 self.view.request_focus(&self.project, &self.derived, index);
             }
+            Action::Select(index) => {
+                self.view.selected = (index < self.project.pvis.len()).then_some(index);
+            }
+            Action::ZoomToSelection => {
+                if let Some(index) = self.view.selected {
+                    self.view.request_focus(&self.project, &self.derived, index);
+                }
+            }
+            Action::MakeSymmetric(index) => {
+                if let Some(pvi) = self.project.pvis.get(index).copied()
+                    && matches!(pvi.curve, VerticalCurve::Unequal { .. })
+                {
+                    let curve = VerticalCurve::Symmetric { length: pvi.curve.length() };
+                    self.apply_edit(Edit::SetPvi { index, pvi: Pvi { curve, ..pvi } });
+                }
+            }
             Action::DeleteSelected => {
                 if let Some(index) = self.view.selected {
                     self.apply_edit(Edit::Delete { index });
@@ -526,10 +570,33 @@ impl GradewrightApp {
             });
             return;
         };
-        let (station, _) = self.view.snap(station, 0.0);
+        let (station, _) = self.project.snap.apply(station, 0.0);
         match alignment.insertion(station) {
-            Ok((index, pvi)) => {
+            Ok((index, mut pvi)) => {
+                // A new PVI starts with a curve that passes for the grades it
+                // makes, so it is not flagged the moment it appears.
+                let mut probe = self.project.profile();
+                probe.pvis.insert(index, pvi);
+                let units = self.project.units;
+                let len = units.length_symbol();
+                let increment = self.view.lengthen_increment;
+                let chosen =
+                    self.derived.criteria.as_ref().ok().and_then(|c| {
+                        gradewright_geometry::default_curve_length(&probe, c, index, increment)
+                    });
+                let at = gradewright_geometry::format_station(pvi.station.0, units, units.station_decimals());
+                let text = match chosen {
+                    Some((length, rule)) => {
+                        pvi.curve = VerticalCurve::Symmetric { length };
+                        format!(
+                            "Inserted PVI {} at {at} with a {length:.2} {len} curve ({rule}, rounded up to {increment} {len})",
+                            index + 1
+                        )
+                    }
+                    None => format!("Inserted PVI {} at {at} without a curve (none fits here)", index + 1),
+                };
                 self.apply_edit(Edit::Insert { index, pvi });
+                self.notice = Some(Notice { error: false, text });
             }
             Err(e) => self.notice = Some(Notice { error: true, text: format!("Cannot insert: {e}") }),
         }

@@ -65,6 +65,12 @@ pub enum Action {
     FitView,
     /// Select a PVI and bring its curve into view.
     Focus(usize),
+    /// Select a PVI; the view stays as it is.
+    Select(usize),
+    /// Bring the selected PVI and its curve into view.
+    ZoomToSelection,
+    /// Make the unequal-tangent curve at a PVI symmetric, keeping its length.
+    MakeSymmetric(usize),
     /// Delete the selected PVI.
     DeleteSelected,
     /// Insert a PVI in the middle of the tangent after the selected PVI.
@@ -110,6 +116,8 @@ pub enum UiCommand {
     Next,
     /// Fit to profile.
     Fit,
+    /// Zoom to the selected PVI.
+    ZoomToSelection,
     /// Lengthen selected curve to clear.
     LengthenSelected,
     /// Lengthen all failing curves.
@@ -122,7 +130,7 @@ pub enum UiCommand {
 
 impl UiCommand {
     /// Every command, in menu order.
-    pub const ALL: [Self; 16] = [
+    pub const ALL: [Self; 17] = [
         Self::NewMetric,
         Self::NewUs,
         Self::Open,
@@ -135,6 +143,7 @@ impl UiCommand {
         Self::Previous,
         Self::Next,
         Self::Fit,
+        Self::ZoomToSelection,
         Self::LengthenSelected,
         Self::LengthenAll,
         Self::About,
@@ -156,6 +165,7 @@ impl UiCommand {
             Self::Previous => "Select previous PVI",
             Self::Next => "Select next PVI",
             Self::Fit => "Fit to profile",
+            Self::ZoomToSelection => "Zoom to selection",
             Self::LengthenSelected => "Lengthen selected curve to clear",
             Self::LengthenAll => "Lengthen all failing curves to clear",
             Self::About => "About & cautions",
@@ -180,6 +190,7 @@ impl UiCommand {
             Self::Previous => shortcut(Modifiers::NONE, Key::PageUp),
             Self::Next => shortcut(Modifiers::NONE, Key::PageDown),
             Self::Fit => shortcut(Modifiers::NONE, Key::F),
+            Self::ZoomToSelection => shortcut(Modifiers::NONE, Key::Z),
             Self::LengthenSelected => shortcut(Modifiers::NONE, Key::L),
             Self::LengthenAll => shortcut(Modifiers::SHIFT, Key::L),
             Self::About => shortcut(Modifiers::NONE, Key::F1),
@@ -208,6 +219,7 @@ impl UiCommand {
             Self::Previous => Action::SelectPrevious,
             Self::Next => Action::SelectNext,
             Self::Fit => Action::FitView,
+            Self::ZoomToSelection => Action::ZoomToSelection,
             Self::LengthenSelected => Action::LengthenSelected,
             Self::LengthenAll => Action::LengthenAll,
             Self::About => Action::ToggleAbout,

@@ -33,7 +33,8 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         b.severity.cmp(&a.severity).then(a.station_start.total_cmp(&b.station_start))
     });
     let mut clicked = None;
-    let row_height = 2.0 * ui.text_style_height(&egui::TextStyle::Body) + 14.0;
+    // Room for the whole reason: wrapped over up to four lines.
+    let row_height = 5.0 * ui.text_style_height(&egui::TextStyle::Body) + 14.0;
     egui::ScrollArea::vertical().id_salt("findings").auto_shrink([false, true]).max_height(300.0).show_rows(
         ui,
         row_height,
@@ -60,7 +61,7 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                             ui.label(RichText::new(&range).monospace());
                             ui.label(RichText::new(f.code).weak());
                         });
-                        ui.add(egui::Label::new(&f.message).truncate());
+                        ui.add(egui::Label::new(&f.message).wrap());
                     })
                     .response
                     .interact(egui::Sense::click());

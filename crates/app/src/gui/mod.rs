@@ -21,7 +21,7 @@ mod view;
 use std::path::{Path, PathBuf};
 
 pub use about_ui::CAUTION_SHORT;
-pub use app::{DEMO_PROJECT, GradewrightApp, Notice, Pending};
+pub use app::{DEMO_PROJECT, DragLock, GradewrightApp, Notice, Pending};
 pub use command::{Action, Edit, UiCommand};
 pub use derived::Derived;
 pub use files::{AppFiles, default_config_dir};
@@ -126,6 +126,8 @@ impl GradewrightApp {
             });
             ui.menu_button("View", |ui| {
                 self.command_button(ui, UiCommand::Fit, true);
+                let selected = self.view.selected.is_some();
+                self.command_button(ui, UiCommand::ZoomToSelection, selected);
                 ui.checkbox(&mut self.view.show_sight_strip, "Sight-distance strip");
                 ui.separator();
                 egui::widgets::global_theme_preference_buttons(ui);
@@ -144,6 +146,11 @@ impl GradewrightApp {
     /// Open or save by typing a path: works where no file dialog is available.
     fn path_dialog_ui(&mut self, ctx: &egui::Context) {
         let mut open = self.view.show_path_dialog;
+        // Start from the project's own file, or its folder and a name made
+        // from the project name.
+        if open && self.view.path_text.trim().is_empty() {
+            self.view.path_text = suggested_path(self.path(), &self.project().name).display().to_string();
+        }
         let mut close = false;
         egui::Window::new("Open or save by path").open(&mut open).collapsible(false).show(ctx, |ui| {
             ui.label("Project file (.ron):");
@@ -276,4 +283,20 @@ pub fn run(path: Option<&Path>) -> anyhow::Result<()> {
     };
     eframe::run_native("Gradewright", options, Box::new(move |_cc| Ok(Box::new(Shell { app, title }))))
         .map_err(|e| anyhow::anyhow!("could not open the window: {e}"))
+}
+
+/// Where to save a project by default: its own file, else a file named after
+/// the project in the current folder.
+fn suggested_path(current: Option<&Path>, name: &str) -> PathBuf {
+    if let Some(path) = current {
+        return path.to_owned();
+    }
+    let stem: String = name
+        .chars()
+        .map(|c| if c.is_alphanumeric() || c == '-' || c == '_' { c.to_ascii_lowercase() } else { '-' })
+        .collect();
+    let stem = stem.split('-').filter(|p| !p.is_empty()).collect::<Vec<_>>().join("-");
+    let stem = if stem.is_empty() { "profile".to_owned() } else { stem };
+    let folder = std::env::current_dir().unwrap_or_default();
+    folder.join(format!("{stem}.ron"))
 }

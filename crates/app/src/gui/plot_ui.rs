@@ -16,6 +16,9 @@ use super::view::ViewRequest;
 /// How close (in points) the pointer must be to grab a PVI handle.
 const GRAB_RADIUS: f32 = 12.0;
 
+/// Text size of the plot's labels, points (readable at any exaggeration).
+const LABEL_SIZE: f32 = 14.0;
+
 /// The PVI nearest to `pointer` within the grab radius, by last frame's transform.
 fn hit_test(app: &GradewrightApp, pointer: Option<Pos2>) -> Option<usize> {
     let transform = app.view.last_transform.as_ref()?;
@@ -42,25 +45,40 @@ pub fn plot_toolbar_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         ui.label("Vertical exaggeration");
         ui.add(egui::DragValue::new(&mut app.view.exaggeration).range(1.0..=50.0).speed(0.2).suffix(" : 1"));
         ui.separator();
-        ui.checkbox(&mut app.view.snap, "Snap drags to");
+        // Snapping is a setting of the project (saved with it).
+        let mut snap = app.project().snap;
+        ui.checkbox(&mut snap.on, "Snap to")
+            .on_hover_text("Dragged and inserted PVIs land on these increments");
         let len = app.project().units.length_symbol();
         ui.add(
-            egui::DragValue::new(&mut app.view.snap_station)
+            egui::DragValue::new(&mut snap.station)
                 .range(0.001..=1000.0)
                 .speed(0.1)
                 .suffix(format!(" {len}")),
         );
         ui.label("stations,");
         ui.add(
-            egui::DragValue::new(&mut app.view.snap_elevation)
+            egui::DragValue::new(&mut snap.elevation)
                 .range(0.001..=100.0)
                 .speed(0.01)
                 .suffix(format!(" {len}")),
         );
         ui.label("elevations");
+        if snap != app.project().snap {
+            let mut project = app.project().clone();
+            project.snap = snap;
+            app.push(Action::edit(super::command::Edit::Replace(Box::new(project))));
+        }
         ui.separator();
         if ui.button("Fit to profile").on_hover_text("F").clicked() {
             app.push(Action::FitView);
+        }
+        if ui
+            .add_enabled(app.view.selected.is_some(), egui::Button::new("Zoom to selection"))
+            .on_hover_text("Z")
+            .clicked()
+        {
+            app.push(Action::ZoomToSelection);
         }
         ui.separator();
         ui.label("Lengthen to clear:");
@@ -84,7 +102,7 @@ pub fn plot_toolbar_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         );
     });
     ui.label(
-        RichText::new("Drag a PVI to move it · double-click a tangent to add a PVI · right-click for more · hover for station, elevation and grade")
+        RichText::new("Drag a PVI to move it (hold Shift: up and down only · Ctrl: along the station only) · double-click a tangent to add a PVI · right-click for more · scroll pans, Ctrl+scroll zooms")
             .weak()
             .small(),
     );
@@ -131,6 +149,11 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
             })
         });
     let response = plot.show(ui, |pui| {
+        let requested = app.view.view_request.is_some();
+        if requested {
+            // The view asked for is the view in force: nothing to bring back.
+            app.view.checked_revision = app.revision();
+        }
         if let Some(request) = app.view.view_request.take() {
             let bounds = match request {
                 ViewRequest::Fit => fit_bounds(app),
@@ -150,7 +173,15 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
         if let Some(i) = app.view.dragging {
             if let Some(pos) = resp.interact_pointer_pos() {
                 let p = pui.plot_from_screen(pos);
-                app.drag_to(i, p.x, p.y);
+                let modifiers = pui.ctx().input(|input| input.modifiers);
+                let lock = if modifiers.shift {
+                    super::app::DragLock::Vertical
+                } else if modifiers.command || modifiers.ctrl {
+                    super::app::DragLock::Horizontal
+                } else {
+                    super::app::DragLock::Free
+                };
+                app.drag_locked(i, p.x, p.y, lock);
             }
             if resp.drag_stopped() {
                 app.end_drag();
@@ -159,6 +190,24 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
         }
         if resp.clicked() {
             app.view.selected = hit;
+        }
+        // After an edit that moved the whole profile out of sight, bring it back.
+        if !requested && app.view.dragging.is_none() && app.view.checked_revision != app.revision() {
+            app.view.checked_revision = app.revision();
+            let bounds = pui.plot_bounds();
+            let pvis = &app.project().pvis;
+            let inside = pvis.iter().any(|p| {
+                p.station.0 >= bounds.min()[0]
+                    && p.station.0 <= bounds.max()[0]
+                    && p.elevation >= bounds.min()[1]
+                    && p.elevation <= bounds.max()[1]
+            });
+            if !inside
+                && !pvis.is_empty()
+                && let Some(b) = fit_bounds(app)
+            {
+                pui.set_plot_bounds(b);
+            }
         }
         if resp.double_clicked()
             && hit.is_none()
@@ -194,6 +243,17 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
             && ui.button(format!("Zoom to PVI {}", i + 1)).clicked()
         {
             app.push(Action::Focus(i));
+            ui.close();
+        }
+        if let Some(i) = selected
+            && app
+                .project()
+                .pvis
+                .get(i)
+                .is_some_and(|p| matches!(p.curve, gradewright_geometry::VerticalCurve::Unequal { .. }))
+            && ui.button(format!("Make curve at PVI {} symmetric", i + 1)).clicked()
+        {
+            app.push(Action::MakeSymmetric(i));
             ui.close();
         }
         if ui.button("Fit to profile").clicked() {
@@ -335,7 +395,7 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
                 Text::new(
                     "",
                     PlotPoint::new(s.0 + right(8.0), e + offset),
-                    RichText::new(label).color(palette.marks),
+                    RichText::new(label).size(LABEL_SIZE).color(palette.marks),
                 )
                 .anchor(anchor)
                 .color(palette.marks),
@@ -355,7 +415,7 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
         }
         let y = 0.5 * (a.elevation + b.elevation) - up(10.0);
         pui.text(
-            Text::new("", PlotPoint::new(x, y), RichText::new(format!("{grade:+.2} %")).size(13.0))
+            Text::new("", PlotPoint::new(x, y), RichText::new(format!("{grade:+.2} %")).size(LABEL_SIZE))
                 .anchor(Align2::CENTER_TOP)
                 .color(palette.text),
         );
@@ -384,7 +444,7 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             Text::new(
                 "",
                 PlotPoint::new(p.station.0, p.elevation + up(12.0)),
-                RichText::new(text).strong().color(color),
+                RichText::new(text).strong().size(LABEL_SIZE).color(color),
             )
             .anchor(Align2::CENTER_BOTTOM)
             .color(color),
@@ -398,7 +458,36 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             );
         }
     }
+    // While dragging: where the PVI is and the grades it makes, by the pointer.
+    if let Some(i) = app.view.dragging
+        && let Some(p) = project.pvis.get(i)
+    {
+        let grade = |a: &gradewright_geometry::Pvi, b: &gradewright_geometry::Pvi| {
+            (b.elevation - a.elevation) / (b.station - a.station) * 100.0
+        };
+        let g1 = i.checked_sub(1).and_then(|j| project.pvis.get(j)).map(|a| grade(a, p));
+        let g2 = project.pvis.get(i + 1).map(|b| grade(p, b));
+        let pct = |g: Option<f64>| g.map_or_else(|| "—".to_owned(), |g| format!("{g:+.3} %"));
+        let text = format!(
+            "{}\nel. {:.3} {}\ng1 {} · g2 {}",
+            format_station(p.station.0, units, units.station_decimals()),
+            p.elevation,
+            units.length_symbol(),
+            pct(g1),
+            pct(g2)
+        );
+        pui.text(
+            Text::new(
+                "",
+                PlotPoint::new(p.station.0 + right(18.0), p.elevation - up(18.0)),
+                RichText::new(text).size(LABEL_SIZE).strong().color(palette.selected),
+            )
+            .anchor(Align2::LEFT_TOP)
+            .color(palette.selected),
+        );
+    }
     if let Some(i) = app.view.selected
+        && app.view.dragging != Some(i)
         && let Some(p) = project.pvis.get(i)
     {
         pui.points(
@@ -419,7 +508,7 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             Text::new(
                 "",
                 PlotPoint::new(p.station.0 - right(14.0), p.elevation),
-                RichText::new(label).color(palette.selected),
+                RichText::new(label).size(LABEL_SIZE).color(palette.selected),
             )
             .anchor(Align2::RIGHT_CENTER)
             .color(palette.selected),

@@ -42,10 +42,20 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let units = app.project().units;
     let len = units.length_symbol();
     let Some(sight) = app.derived().sight.clone() else {
-        ui.label(
-            RichText::new("Sight distance: set a design speed and fix the profile's problems to see it")
-                .weak(),
-        );
+        // Say what stops it: the criteria, or the first problem of the profile.
+        let derived = app.derived();
+        let reason = match (&derived.criteria, derived.problems.first()) {
+            (Err(e), _) => format!("Sight distance is not shown: {e}"),
+            (Ok(_), Some(problem)) => {
+                let more = derived.problems.len() - 1;
+                let more = if more > 0 { format!(" (and {more} more problem(s))") } else { String::new() };
+                format!("Sight distance is not shown until this is fixed: {problem}{more}")
+            }
+            (Ok(_), None) => {
+                "Sight distance was not computed: the sight-distance step is too small".to_owned()
+            }
+        };
+        ui.label(RichText::new(reason).color(palette.warn));
         return;
     };
     let x_range = app

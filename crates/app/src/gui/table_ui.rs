@@ -41,6 +41,7 @@ pub fn table_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             ))
             .weak(),
         );
+        ui.checkbox(&mut app.view.show_curve_points, "PVC, PVT, high/low columns");
         if ui.button("Insert after selected").on_hover_text("Insert").clicked() {
             app.push(Action::InsertAfterSelected);
         }
@@ -61,14 +62,24 @@ pub fn table_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         format!("Curve L ({len})"),
         "L back".to_owned(),
         "L ahead".to_owned(),
-        "g1 back".to_owned(),
-        "g2 ahead".to_owned(),
+        "Shape".to_owned(),
+        "g1 back (%)".to_owned(),
+        "g2 ahead (%)".to_owned(),
         "A".to_owned(),
         format!("K ({ks})"),
+        String::new(),
         "K min".to_owned(),
         format!("L req ({len})"),
         "Status".to_owned(),
     ];
+    let mut headers = headers.to_vec();
+    if app.view.show_curve_points {
+        for h in
+            ["PVC station", "PVC elev.", "PVT station", "PVT elev.", "High/low station", "High/low elev."]
+        {
+            headers.push(h.to_owned());
+        }
+    }
     if let Some(i) = app.view.scroll_to_row.take() {
         app.view.table_scroll = Some(row_height * i.saturating_sub(2) as f32);
     }
@@ -105,7 +116,9 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     let interior = i > 0 && i + 1 < n;
     let selected = app.view.selected == Some(i);
     if ui.selectable_label(selected, format!("{}", i + 1)).clicked() {
-        app.push(Action::Focus(i));
+        // Selecting never moves the view; Zoom to selection (Z) does.
+        app.push(Action::Select(i));
+        app.view.scroll_to_row = None;
     }
     let number = i + 1;
     // Station.
@@ -178,44 +191,156 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
             ui.label(RichText::new("—").weak()).on_hover_text("The first and last PVI carry no curve");
         }
     }
-    // Derived columns.
+    // Derived columns; the grades and K may be typed too.
     let derived = app.derived();
-    let curve = derived.curves.iter().find(|c| c.index == i);
-    let check = derived.report.curves.iter().find(|c| c.curve.index == i);
+    let curve = derived.curves.iter().find(|c| c.index == i).copied();
+    let check = derived.report.curves.iter().find(|c| c.curve.index == i).cloned();
     let grade = |a: &Pvi, b: &Pvi| (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
-    let pvis = &app.project().pvis;
-    let g_in = i.checked_sub(1).and_then(|j| pvis.get(j)).map(|a| grade(a, &pvi));
-    let g_out = pvis.get(i + 1).map(|b| grade(&pvi, b));
-    let pct =
-        |v: Option<f64>| v.filter(|v| v.is_finite()).map_or_else(|| "—".to_owned(), |v| format!("{v:+.3} %"));
-    ui.label(pct(g_in));
-    ui.label(pct(g_out));
-    ui.label(curve.map_or_else(|| "—".to_owned(), |c| format!("{:.3} %", c.a_percent())));
-    let k = curve.and_then(gradewright_geometry::CurveGeometry::k);
-    let k_min = check.and_then(|c| c.k_required);
-    let k_text = RichText::new(optional(k, 1));
-    // The checks' own comparison, so a K shown equal to its minimum is not red.
-    let k_text = match (k, k_min) {
-        (Some(k), Some(m)) if gradewright_geometry::tolerance::below(k, m) => {
-            k_text.color(palette.fail).strong()
+    let pvis = app.project().pvis.clone();
+    let previous = i.checked_sub(1).and_then(|j| pvis.get(j)).copied();
+    let following = pvis.get(i + 1).copied();
+    // Shape: symmetric or unequal, with a one-click way back to symmetric.
+    match pvi.curve {
+        VerticalCurve::Unequal { length_in, length_out } if interior => {
+            ui.horizontal(|ui| {
+                ui.label(RichText::new("⚖ unequal").color(palette.warn))
+                    .on_hover_text(format!("Unequal tangents: {length_in:.2} back, {length_out:.2} ahead"));
+                if ui
+                    .small_button("Make symmetric")
+                    .on_hover_text(format!("PVI {number}: same total length, centred"))
+                    .clicked()
+                {
+                    app.push(Action::MakeSymmetric(i));
+                }
+            });
         }
-        _ => k_text,
-    };
-    let k_cell = ui.label(k_text);
-    if let Some(c) = curve.filter(|c| c.ratio_factor() > 1.0) {
-        k_cell.on_hover_text(format!(
-            "Unequal tangents: K of the sharper branch (checked); L/A = {}",
-            optional(c.k_overall(), 1)
-        ));
+        VerticalCurve::Symmetric { .. } if interior => {
+            ui.label("symmetric");
+        }
+        _ => {
+            ui.label(RichText::new("—").weak());
+        }
+    }
+    let pct = |v: Option<f64>| v.filter(|v| v.is_finite()).map_or_else(String::new, |v| format!("{v:+.3}"));
+    // g1 back: typing it moves this PVI's elevation on the grade from the previous PVI.
+    match previous {
+        Some(a) => {
+            let id = CellId::Pvi(i, PviColumn::GradeBack);
+            if let Some(text) = edit_cell(
+                ui,
+                &mut app.view,
+                id,
+                &pct(Some(grade(&a, &pvi))),
+                60.0,
+                &format!("PVI {number} grade back"),
+            ) && let Some(g) = settle(&mut app.view, id, &text, parse_number(text.trim_end_matches('%')))
+            {
+                let elevation = a.elevation + g / 100.0 * (pvi.station - a.station);
+                app.push(Action::edit(Edit::SetPvi { index: i, pvi: Pvi { elevation, ..pvi } }));
+            }
+        }
+        None => {
+            ui.label(RichText::new("—").weak());
+        }
+    }
+    // g2 ahead: typing it moves the next PVI's elevation on the grade from this one.
+    match following {
+        Some(b) => {
+            let id = CellId::Pvi(i, PviColumn::GradeAhead);
+            if let Some(text) = edit_cell(
+                ui,
+                &mut app.view,
+                id,
+                &pct(Some(grade(&pvi, &b))),
+                60.0,
+                &format!("PVI {number} grade ahead"),
+            ) && let Some(g) = settle(&mut app.view, id, &text, parse_number(text.trim_end_matches('%')))
+            {
+                let elevation = pvi.elevation + g / 100.0 * (b.station - pvi.station);
+                app.push(Action::edit(Edit::SetPvi { index: i + 1, pvi: Pvi { elevation, ..b } }));
+            }
+        }
+        None => {
+            ui.label(RichText::new("—").weak());
+        }
+    }
+    ui.label(curve.map_or_else(|| "—".to_owned(), |c| format!("{:.3} %", c.a_percent())));
+    let k = curve.and_then(|c| c.k());
+    let k_min = check.as_ref().and_then(|c| c.k_required);
+    // K: typing it sets the length to K·A (times the ratio factor when unequal).
+    match curve.filter(|c| c.kind != gradewright_geometry::CurveKind::None) {
+        Some(c) => {
+            let id = CellId::Pvi(i, PviColumn::K);
+            let failing =
+                matches!((k, k_min), (Some(k), Some(m)) if gradewright_geometry::tolerance::below(k, m));
+            if failing {
+                ui.visuals_mut().override_text_color = Some(palette.fail);
+            }
+            let typed = edit_cell(ui, &mut app.view, id, &optional(k, 1), 55.0, &format!("PVI {number} K"));
+            ui.visuals_mut().override_text_color = None;
+            if let Some(text) = typed {
+                let parsed = parse_number(&text)
+                    .and_then(|k| if k > 0.0 { Ok(k) } else { Err(format!("K {k} is not positive")) });
+                if let Some(k) = settle(&mut app.view, id, &text, parsed) {
+                    let length = k * c.a_percent() * c.ratio_factor();
+                    let curve = if pvi.curve.is_curve() {
+                        pvi.curve.with_length(length)
+                    } else {
+                        VerticalCurve::Symmetric { length }
+                    };
+                    app.push(Action::edit(Edit::SetPvi { index: i, pvi: Pvi { curve, ..pvi } }));
+                }
+            }
+            if c.ratio_factor() > 1.0 {
+                ui.label(RichText::new(format!("L/A {}", optional(c.k_overall(), 1))).weak().small())
+                    .on_hover_text(
+                        "Unequal tangents: K is that of the sharper branch (checked); L/A of the whole curve",
+                    );
+            } else {
+                ui.label("");
+            }
+        }
+        None => {
+            ui.label(RichText::new("—").weak());
+            ui.label("");
+        }
     }
     ui.label(optional(k_min, 0));
-    ui.label(optional(check.map(|c| c.length_required).filter(|l| *l > 0.0), 1))
+    ui.label(optional(check.as_ref().map(|c| c.length_required).filter(|l| *l > 0.0), 1))
         .on_hover_text("Total length the criteria ask for, at this curve's back:ahead ratio");
+    let derived = app.derived();
     let messages: Vec<String> =
         derived.findings_at(i).map(|f| format!("[{}] {}", f.severity.key(), f.message)).collect();
     let worst = derived.report.worst_at(i);
     let status = ui.label(status_text(worst, palette));
     if !messages.is_empty() {
         status.on_hover_text(messages.join("\n"));
+    }
+    if app.view.show_curve_points {
+        let units = app.project().units;
+        let station = |s: f64| format_station(s, units, units.station_decimals());
+        match curve.filter(|c| c.length() > 0.0) {
+            Some(c) => {
+                ui.label(station(c.pvc.0));
+                ui.label(format!("{:.3}", c.pvc_elevation));
+                ui.label(station(c.pvt.0));
+                ui.label(format!("{:.3}", c.pvt_elevation));
+                match c.turning {
+                    Some((s, e)) => {
+                        ui.label(station(s.0));
+                        ui.label(format!("{e:.3}"));
+                    }
+                    None => {
+                        ui.label(RichText::new("none on the curve").weak());
+                        ui.label("");
+                    }
+                }
+            }
+            None => {
+                for _ in 0..6 {
+                    ui.label(RichText::new("—").weak());
+                }
+            }
+        }
     }
 }

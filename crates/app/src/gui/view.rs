@@ -58,6 +58,12 @@ pub enum PviColumn {
     LengthIn,
     /// Length after the PVI.
     LengthOut,
+    /// Grade from the previous PVI (typed: moves this PVI's elevation).
+    GradeBack,
+    /// Grade to the next PVI (typed: moves the next PVI's elevation).
+    GradeAhead,
+    /// K (typed: sets the curve length to K·A).
+    K,
 }
 
 /// View state of the editor.
@@ -67,12 +73,6 @@ pub struct ViewState {
     pub selected: Option<usize>,
     /// Vertical exaggeration of the plot (10 = 10:1).
     pub exaggeration: f32,
-    /// Whether dragging snaps to the increments.
-    pub snap: bool,
-    /// Station snap increment.
-    pub snap_station: f64,
-    /// Elevation snap increment.
-    pub snap_elevation: f64,
     /// About & cautions window open.
     pub show_about: bool,
     /// Pending change of the plot view.
@@ -97,6 +97,10 @@ pub struct ViewState {
     pub scroll_to_row: Option<usize>,
     /// A table scroll offset to apply on the next frame.
     pub table_scroll: Option<f32>,
+    /// The project revision the plot last checked is in view.
+    pub checked_revision: u64,
+    /// Whether the table shows the PVC, PVT and high/low point columns.
+    pub show_curve_points: bool,
 }
 
 impl Default for ViewState {
@@ -104,9 +108,6 @@ impl Default for ViewState {
         Self {
             selected: None,
             exaggeration: 10.0,
-            snap: false,
-            snap_station: 1.0,
-            snap_elevation: 0.01,
             show_about: false,
             view_request: None,
             cells: HashMap::new(),
@@ -119,6 +120,8 @@ impl Default for ViewState {
             lengthen_increment: 5.0,
             scroll_to_row: None,
             table_scroll: None,
+            checked_revision: 0,
+            show_curve_points: true,
         }
     }
 }
@@ -151,15 +154,6 @@ impl ViewState {
         let y0 = ys.iter().copied().fold(f64::INFINITY, f64::min);
         let y1 = ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
         self.view_request = Some(ViewRequest::Range { x: (x0, x1), y: (y0 - 2.0, y1 + 2.0) });
-    }
-
-    /// Snaps a point to the increments when snapping is on.
-    pub fn snap(&self, station: f64, elevation: f64) -> (f64, f64) {
-        if !self.snap {
-            return (station, elevation);
-        }
-        let round = |v: f64, step: f64| if step > 0.0 { (v / step).round() * step } else { v };
-        (round(station, self.snap_station), round(elevation, self.snap_elevation))
     }
 
     /// Forgets everything tied to the old project.
