@@ -541,3 +541,14 @@ fn saved_files_have_no_raw_identifiers() {
 fn h_text() -> String {
     demo().state().project().to_ron().unwrap_or_else(|e| panic!("{e}"))
 }
+
+/// Typing a point the tangent must pass through (station = elevation) sets
+/// the grade ahead through it: from PVI 1 at 0+000 / 212.400 through
+/// 0+100 / 215.400 is +3 %, which puts PVI 2 (0+320) at 222.000.
+#[test]
+fn typing_a_point_on_the_tangent_sets_the_grade() {
+    let mut h = demo();
+    replace_text(&mut h, "PVI 1 grade ahead", "0+100 = 215.4");
+    let moved = h.state().project().pvis[1];
+    assert!((moved.elevation - 222.0).abs() < 1e-9, "{}", moved.elevation);
+}

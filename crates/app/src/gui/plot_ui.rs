@@ -123,6 +123,7 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
     }
     let alignment = app.derived().alignment.clone();
     let station_decimals = units.station_decimals();
+    let dragging = app.view.dragging.is_some();
     let plot = Plot::new("profile-plot")
         .height(height.max(120.0))
         .link_axis(egui::Id::unique(super::sight_ui::STATION_AXIS), [true, false])
@@ -134,6 +135,10 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
         .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
         .legend(Legend::default().position(egui_plot::Corner::RightBottom))
         .label_formatter(move |hover| {
+            // While dragging, the readout beside the PVI says it all.
+            if dragging {
+                return None;
+            }
             let p = match hover {
                 egui_plot::HoverPosition::NearDataPoint { position, .. }
                 | egui_plot::HoverPosition::Elsewhere { position } => *position,
@@ -394,7 +399,7 @@ fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Pa
             pui.text(
                 Text::new(
                     "",
-                    PlotPoint::new(s.0 + right(8.0), e + offset),
+                    PlotPoint::new(s.0 + right(14.0), e + offset),
                     RichText::new(label).size(LABEL_SIZE).color(palette.marks),
                 )
                 .anchor(anchor)

@@ -233,7 +233,8 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
                 &pct(Some(grade(&a, &pvi))),
                 60.0,
                 &format!("PVI {number} grade back"),
-            ) && let Some(g) = settle(&mut app.view, id, &text, parse_number(text.trim_end_matches('%')))
+            ) && let Some(g) =
+                settle(&mut app.view, id, &text, parse_grade(&text, (a.station.0, a.elevation), units))
             {
                 let elevation = a.elevation + g / 100.0 * (pvi.station - a.station);
                 app.push(Action::edit(Edit::SetPvi { index: i, pvi: Pvi { elevation, ..pvi } }));
@@ -254,7 +255,8 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
                 &pct(Some(grade(&pvi, &b))),
                 60.0,
                 &format!("PVI {number} grade ahead"),
-            ) && let Some(g) = settle(&mut app.view, id, &text, parse_number(text.trim_end_matches('%')))
+            ) && let Some(g) =
+                settle(&mut app.view, id, &text, parse_grade(&text, (pvi.station.0, pvi.elevation), units))
             {
                 let elevation = pvi.elevation + g / 100.0 * (b.station - pvi.station);
                 app.push(Action::edit(Edit::SetPvi { index: i + 1, pvi: Pvi { elevation, ..b } }));
@@ -343,4 +345,19 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
             }
         }
     }
+}
+
+/// A typed grade: a percentage (`+2.5`, `-1 %`), or a point the tangent must
+/// pass through, `STATION = ELEVATION` (`1+050 = 221.3`), from the fixed PVI
+/// at `from` (station, elevation).
+fn parse_grade(text: &str, from: (f64, f64), units: gradewright_geometry::Units) -> Result<f64, String> {
+    if let Some((station, elevation)) = text.split_once('=') {
+        let station = parse_station(station, units).map_err(|e| e.to_string())?;
+        let elevation = parse_number(elevation)?;
+        if (station - from.0).abs() <= 0.0 {
+            return Err("the point must lie at another station than the PVI".to_owned());
+        }
+        return Ok((elevation - from.1) / (station - from.0) * 100.0);
+    }
+    parse_number(text.trim().trim_end_matches('%'))
 }
