@@ -36,6 +36,16 @@ fn sheet_has_no_gui_dependency() {
     }
 }
 
+#[test]
+fn draw_has_no_gui_dependency() {
+    let deps = normal_dependencies("gradewright-draw");
+    assert!(deps.iter().any(|d| d == "gradewright-geometry"), "{deps:?}");
+    assert!(!deps.iter().any(|d| d == "gradewright-sheet"), "the drawing model needs no exchange format");
+    for gui in GUI {
+        assert!(!deps.iter().any(|d| d == gui), "draw depends on {gui}");
+    }
+}
+
 /// The check above is not vacuous: the app does pull in the GUI stack.
 #[test]
 fn app_does_depend_on_the_gui() {

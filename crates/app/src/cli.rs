@@ -50,6 +50,7 @@ pub enum Format {
 
 /// The subcommands.
 #[derive(Debug, Subcommand)]
+#[allow(clippy::large_enum_variant)] // parsed once per run
 pub enum Command {
     /// Open the editor (on FILE, or on the demo project)
     Edit {
@@ -100,6 +101,65 @@ pub enum Command {
         /// Round lengths up to this increment (default 5 m or 10 ft)
         #[arg(long, allow_negative_numbers = true)]
         increment: Option<f64>,
+        /// Design speed (km/h or mph); overrides the project's
+        #[arg(long, allow_negative_numbers = true)]
+        design_speed: Option<f64>,
+    },
+    /// Hand the design over: the profile sheet (SVG, PNG, PDF) and the tables (CSV)
+    Export {
+        /// Project file (.ron) or PVI table (.csv)
+        input: PathBuf,
+        /// Write the sheet as PNG (numbered NAME-1.png, … when there are several sheets)
+        #[arg(long, value_name = "FILE")]
+        png: Option<PathBuf>,
+        /// Write the sheet as SVG (numbered like PNG)
+        #[arg(long, value_name = "FILE")]
+        svg: Option<PathBuf>,
+        /// Write the sheets as one PDF, one page per sheet
+        #[arg(long, value_name = "FILE")]
+        pdf: Option<PathBuf>,
+        /// Write stations.csv, curves.csv and findings.csv into this folder
+        #[arg(long, value_name = "DIR")]
+        csv_dir: Option<PathBuf>,
+        /// Sheet size: ansi-b, ansi-d, a3, a1, or WxHmm / WxHin
+        #[arg(long, default_value = "ansi-b")]
+        sheet: String,
+        /// PNG resolution, 10 to 1200 dpi
+        #[arg(long, default_value_t = 150.0, allow_negative_numbers = true)]
+        dpi: f64,
+        /// Horizontal scale: 1:N in metric, 1 in = N ft in US units (default: fits one sheet)
+        #[arg(long, value_name = "N", allow_negative_numbers = true)]
+        h_scale: Option<f64>,
+        /// Vertical scale, the same way (default: a tenth of the horizontal)
+        #[arg(long, value_name = "N", allow_negative_numbers = true)]
+        v_scale: Option<f64>,
+        /// Stations repeated at the start of each following sheet
+        #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]
+        overlap: f64,
+        /// Station interval of stations.csv (default 20 m or 50 ft)
+        #[arg(long, allow_negative_numbers = true)]
+        interval: Option<f64>,
+        /// Title block: road or section
+        #[arg(long, default_value = "")]
+        road: String,
+        /// Title block: designer
+        #[arg(long, default_value = "")]
+        designer: String,
+        /// Title block: checker
+        #[arg(long, default_value = "")]
+        checker: String,
+        /// Title block: date
+        #[arg(long, default_value = "")]
+        date: String,
+        /// Title block: revision
+        #[arg(long, default_value = "")]
+        revision: String,
+        /// Leave the sight-distance band off the sheet
+        #[arg(long)]
+        no_sight_band: bool,
+        /// Units of a CSV input
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
         /// Design speed (km/h or mph); overrides the project's
         #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
@@ -300,6 +360,82 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             text.push_str(&format!("Wrote {} ({remaining} failing finding(s) remain).\n", output.display()));
             print(text.as_bytes())?;
             Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
+        }
+        Some(Command::Export {
+            input,
+            png,
+            svg,
+            pdf,
+            csv_dir,
+            sheet,
+            dpi,
+            h_scale,
+            v_scale,
+            overlap,
+            interval,
+            road,
+            designer,
+            checker,
+            date,
+            revision,
+            no_sight_band,
+            units,
+            design_speed,
+        }) => {
+            let request = crate::export::Request {
+                png,
+                svg,
+                pdf,
+                csv_dir,
+                sheet,
+                dpi,
+                h_scale,
+                v_scale,
+                overlap,
+                interval,
+                title: gradewright_draw::TitleBlock {
+                    project: String::new(),
+                    road,
+                    designer,
+                    checker,
+                    date,
+                    revision,
+                },
+                sight_band: !no_sight_band,
+            };
+            if let Some(v) = design_speed {
+                positive("--design-speed", "the design speed", v)?;
+            }
+            let plan = crate::export::plan(&request)?;
+            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let criteria = resolve(&mut loaded.project, design_speed, &input)?;
+            if let Some(problem) = loaded.project.profile().problems().into_iter().next() {
+                bail!("{}: {problem}", loaded.locate(&problem));
+            }
+            let alignment = build(&loaded)?;
+            refuse_unchecked_sight(&alignment, &criteria, &input)?;
+            let analysis =
+                gradewright_geometry::Analysis::with_criteria(loaded.project.profile(), Ok(criteria));
+            let files = crate::export::render(&plan, &request, &analysis, &loaded.project)
+                .map_err(|e| anyhow!("{}: {e}", input.display()))?;
+            crate::export::write_all(&files)?;
+            let mut text = String::new();
+            for (path, _) in &files {
+                text.push_str(&format!("Wrote {}\n", path.display()));
+            }
+            let fails = analysis
+                .report
+                .findings
+                .iter()
+                .filter(|f| f.severity == gradewright_geometry::Severity::Fail)
+                .count();
+            if fails > 0 {
+                text.push_str(&format!(
+                    "{fails} failing finding(s), marked on the sheet and listed in the findings\n"
+                ));
+            }
+            print(text.as_bytes())?;
+            Ok(if analysis.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
         Some(Command::Check { input, units, design_speed, format }) => {
             if let Some(v) = design_speed {

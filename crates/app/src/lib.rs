@@ -2,6 +2,7 @@
 //! editor in [`gui`], loading of input files in [`input`].
 
 pub mod cli;
+pub mod export;
 pub mod gui;
 pub mod input;
 mod report;

@@ -163,6 +163,48 @@ impl Alignment {
     }
 }
 
+impl Alignment {
+    /// The profile between stations `range` as a polyline whose chords stray
+    /// at most `tolerance` (in elevation units) from the true parabolas: a
+    /// piece of length L and rate y″ gets n = L·√(|y″|/(8·tol)) chords (the
+    /// chord error of a parabola is |y″|·h²/8). Tangents are one chord.
+    pub fn flatten(&self, range: (f64, f64), tolerance: f64) -> Vec<[f64; 2]> {
+        flatten_segments(&self.segments, range, tolerance)
+    }
+}
+
+/// Most chords one parabolic piece is drawn with.
+const MAX_CHORDS: f64 = 4000.0;
+
+/// [`Alignment::flatten`] on any end-to-end pieces (also one curve's own).
+pub fn flatten_segments(segments: &[Segment], range: (f64, f64), tolerance: f64) -> Vec<[f64; 2]> {
+    let tolerance = tolerance.max(1e-9);
+    let first = segments.partition_point(|s| s.end < range.0);
+    let mut points = Vec::new();
+    for seg in segments.get(first..).unwrap_or(&[]) {
+        if seg.start > range.1 {
+            break;
+        }
+        let length = seg.end - seg.start;
+        let chords = if seg.rate == 0.0 {
+            1.0
+        } else {
+            (length * (seg.rate.abs() / (8.0 * tolerance)).sqrt()).ceil().clamp(2.0, MAX_CHORDS)
+        };
+        #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+        let n = chords as usize;
+        for i in 0..=n {
+            if i == 0 && !points.is_empty() {
+                continue;
+            }
+            #[allow(clippy::cast_precision_loss)]
+            let s = seg.start + length * i as f64 / n as f64;
+            points.push([s, seg.elevation_at(s)]);
+        }
+    }
+    points
+}
+
 /// The curve geometry at every interior PVI. Needs finite values and strictly
 /// increasing stations; curves may overlap (they are computed one by one).
 pub fn interior_curves(pvis: &[Pvi]) -> Vec<CurveGeometry> {

@@ -13,6 +13,7 @@
 //! This crate has no GUI dependency and never will.
 
 mod alignment;
+mod analysis;
 mod checks;
 mod criteria;
 mod curve;
@@ -29,7 +30,8 @@ mod units;
 pub mod visibility;
 mod write;
 
-pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, interior_curves};
+pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
+pub use analysis::{Analysis, is_design_problem};
 pub use checks::{
     CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, Severity, check_curve, check_profile,
     check_profile_with_sight, compute_sight, structural_findings,

@@ -34,7 +34,7 @@ pub fn interval_stations(alignment: &Alignment, interval: f64) -> Vec<f64> {
     stations
 }
 
-fn number(value: f64, decimals: Option<usize>) -> String {
+pub(crate) fn number(value: f64, decimals: Option<usize>) -> String {
     let value = if value == 0.0 { 0.0 } else { value }; // no "-0"
     match decimals {
         Some(d) => {

@@ -178,42 +178,15 @@ fn sight_after(
 }
 
 /// Samples pieces so that no chord strays more than [`DRAW_TOLERANCE`] from
-/// the parabola: n = L·√(|y″|/(8·tol)) chords per piece (chord error of a
-/// parabola is |y″|·h²/8).
+/// the parabola ([`gradewright_geometry::flatten_segments`]).
 pub fn polyline(segments: &[Segment]) -> Vec<[f64; 2]> {
     polyline_within(segments, (f64::NEG_INFINITY, f64::INFINITY), DRAW_TOLERANCE)
 }
 
-/// The pieces overlapping the stations `x`, sampled to a chord error of at
-/// most `tolerance` (in elevation units): the plot asks for half a screen
-/// point, so curves look smooth at any zoom without drawing more points than
-/// the screen can show.
+/// The pieces overlapping the stations `x`, to a chord error of at most
+/// `tolerance` (the plot asks for half a screen point).
 pub fn polyline_within(segments: &[Segment], x: (f64, f64), tolerance: f64) -> Vec<[f64; 2]> {
-    let tolerance = tolerance.max(1e-9);
-    let first = segments.partition_point(|s| s.end < x.0);
-    let mut points = Vec::new();
-    for seg in segments.get(first..).unwrap_or(&[]) {
-        if seg.start > x.1 {
-            break;
-        }
-        let length = seg.end - seg.start;
-        let chords = if seg.rate == 0.0 {
-            1.0
-        } else {
-            (length * (seg.rate.abs() / (8.0 * tolerance)).sqrt()).ceil().clamp(2.0, 4000.0)
-        };
-        #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
-        let n = chords as usize;
-        for i in 0..=n {
-            if i == 0 && !points.is_empty() {
-                continue;
-            }
-            #[allow(clippy::cast_precision_loss)]
-            let s = seg.start + length * i as f64 / n as f64;
-            points.push([s, seg.elevation_at(s)]);
-        }
-    }
-    points
+    gradewright_geometry::flatten_segments(segments, x, tolerance)
 }
 
 /// The parabola of one curve on its own (to draw curves of a profile whose

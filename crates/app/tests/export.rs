@@ -1,0 +1,221 @@
+//! `gradewright export`: the sheet as SVG, PNG and PDF and the hand-over
+//! tables, checked by reading them back.
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+use gradewright_geometry::{Analysis, Project, Station};
+
+fn root() -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
+}
+
+fn demo() -> PathBuf {
+    root().join("assets/alder-brook-road.ron")
+}
+
+fn scratch(name: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("gradewright-export-{name}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    dir
+}
+
+fn run(args: &[&str]) -> (Option<i32>, String, String) {
+    let out =
+        Command::new(env!("CARGO_BIN_EXE_gradewright")).args(args).output().unwrap_or_else(|e| panic!("{e}"));
+    (
+        out.status.code(),
+        String::from_utf8_lossy(&out.stdout).into_owned(),
+        String::from_utf8_lossy(&out.stderr).into_owned(),
+    )
+}
+
+fn s(p: &Path) -> String {
+    p.to_string_lossy().into_owned()
+}
+
+#[test]
+fn the_demo_sheet_in_every_format() {
+    let dir = scratch("all");
+    let (png, svg, pdf, csv) = (dir.join("a.png"), dir.join("a.svg"), dir.join("a.pdf"), dir.join("tables"));
+    let (code, stdout, stderr) = run(&[
+        "export",
+        &s(&demo()),
+        "--png",
+        &s(&png),
+        "--svg",
+        &s(&svg),
+        "--pdf",
+        &s(&pdf),
+        "--csv-dir",
+        &s(&csv),
+        "--dpi",
+        "100",
+        "--designer",
+        "T. Tester",
+    ]);
+    // The demo's crest fails: the files are written and the status says so.
+    assert_eq!(code, Some(1), "{stdout}{stderr}");
+    // SVG: real text, the failure marked, the cautions and the title block.
+    let text = std::fs::read_to_string(&svg).unwrap_or_default();
+    for part in [
+        "PVI 4",
+        "1+100.000",
+        "× FAILS: crest.k-min",
+        "K 18.0 &lt; 26",
+        "CAUTION:",
+        "licensed professional engineer",
+        "T. Tester",
+        "1 of 1",
+        "H 1:10000",
+        "Alder Brook Road",
+        "+3.000 %",
+        "Proposed",
+    ] {
+        assert!(text.contains(part), "{part:?} not in the SVG");
+    }
+    assert!(text.matches("<text").count() > 60, "{} text elements", text.matches("<text").count());
+    assert_eq!(text.matches(r#"class="Profile""#).count(), 1);
+    assert_eq!(text.matches(r#"class="FailingCurve""#).count(), 1);
+    // PNG: 17 × 11 in at 100 dpi, not blank, the profile where the geometry says.
+    let decoder = png::Decoder::new(std::io::BufReader::new(
+        std::fs::File::open(&png).unwrap_or_else(|e| panic!("{e}")),
+    ));
+    let mut reader = decoder.read_info().unwrap_or_else(|e| panic!("{e}"));
+    let mut pixels = vec![0; reader.output_buffer_size()];
+    let info = reader.next_frame(&mut pixels).unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!((info.width, info.height), (1700, 1100));
+    let channels = info.line_size / info.width as usize;
+    let dark = |x: u32, y: u32| -> bool {
+        let at = y as usize * info.line_size + x as usize * channels;
+        pixels.get(at..at + 3).is_some_and(|p| p.iter().map(|&c| u32::from(c)).sum::<u32>() < 200)
+    };
+    let project = Project::load(&demo()).unwrap_or_else(|e| panic!("{e}"));
+    let analysis = Analysis::of(&project);
+    let options = gradewright_draw::SheetOptions::default();
+    let layout = gradewright_draw::layout(&analysis, &options).unwrap_or_else(|e| panic!("{e}"));
+    let alignment = analysis.alignment.as_ref().unwrap_or_else(|| panic!("alignment"));
+    // The profile is drawn where the geometry says, within 2 px, at three
+    // stations (the line is 0.5 mm wide: look for its dark pixels nearby).
+    for station in [150.0, 500.0, 1800.0] {
+        let elevation = alignment.sample(Station(station)).map(|p| p.elevation).unwrap_or(f64::NAN);
+        let (x_mm, y_mm) = layout.paper(0, station, elevation).unwrap_or_else(|| panic!("page"));
+        let (x, y) = ((x_mm / 25.4 * 100.0).round() as u32, y_mm / 25.4 * 100.0);
+        let near: Vec<u32> = ((y - 6.0) as u32..=(y + 6.0) as u32).filter(|&py| dark(x, py)).collect();
+        let centre = f64::from(near.iter().sum::<u32>()) / near.len().max(1) as f64;
+        assert!(
+            !near.is_empty() && (centre - y).abs() <= 2.0,
+            "station {station}: expected y {y:.1}, dark at {near:?}"
+        );
+    }
+    // PDF: one page, 17 × 11 in.
+    let bytes = std::fs::read(&pdf).unwrap_or_default();
+    let body = String::from_utf8_lossy(&bytes);
+    assert!(body.starts_with("%PDF-"));
+    assert_eq!(
+        body.matches("/Type /Page\n").count()
+            + body.matches("/Type /Page ").count()
+            + body.matches("/Type /Page/").count(),
+        1,
+        "one page"
+    );
+    let media = body.split("/MediaBox [").nth(1).and_then(|r| r.split(']').next()).unwrap_or("");
+    let numbers: Vec<f64> = media.split_whitespace().filter_map(|v| v.parse().ok()).collect();
+    assert_eq!(numbers.len(), 4, "{media}");
+    assert!(
+        (numbers[2] - 1224.0).abs() < 0.01 && (numbers[3] - 792.0).abs() < 0.01,
+        "17 × 11 in in points: {media}"
+    );
+    // CSV read back: every curve value equals the geometry crate's.
+    let mut curves = csv::Reader::from_path(csv.join("curves.csv")).unwrap_or_else(|e| panic!("{e}"));
+    let headers = curves.headers().unwrap_or_else(|e| panic!("{e}")).clone();
+    let col = |name: &str| headers.iter().position(|h| h == name).unwrap_or_else(|| panic!("{name}"));
+    for (i, row) in curves.records().enumerate() {
+        let row = row.unwrap_or_else(|e| panic!("{e}"));
+        let number = |name: &str| row.get(col(name)).and_then(|v| v.parse::<f64>().ok());
+        assert_eq!(number("station_m"), Some(project.pvis[i].station.0));
+        if let Some(check) = analysis.report.curves.iter().find(|c| c.curve.index == i) {
+            assert_eq!(number("k_m_per_percent"), check.curve.k());
+            assert_eq!(number("length_required_m"), Some(check.length_required));
+            assert_eq!(number("pvc_station_m"), Some(check.curve.pvc.0));
+        }
+    }
+    let findings =
+        csv::Reader::from_path(csv.join("findings.csv")).unwrap_or_else(|e| panic!("{e}")).records().count();
+    assert_eq!(findings, analysis.report.findings.len());
+    let stations = csv::Reader::from_path(csv.join("stations.csv")).unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(stations.into_records().count(), gradewright_sheet::interval_stations(alignment, 20.0).len());
+}
+
+/// At 1:1000 the 2 km demo needs several sheets: numbered files, one PDF page
+/// each, match lines, and every station on a sheet, overlaps apart.
+#[test]
+fn a_long_profile_splits_over_numbered_sheets() {
+    let dir = scratch("split");
+    let (svg, pdf) = (dir.join("road.svg"), dir.join("road.pdf"));
+    let (code, _, stderr) = run(&[
+        "export",
+        &s(&demo()),
+        "--svg",
+        &s(&svg),
+        "--pdf",
+        &s(&pdf),
+        "--h-scale",
+        "1000",
+        "--overlap",
+        "50",
+    ]);
+    assert_eq!(code, Some(1), "{stderr}");
+    let project = Project::load(&demo()).unwrap_or_else(|e| panic!("{e}"));
+    let analysis = Analysis::of(&project);
+    let options =
+        gradewright_draw::SheetOptions { h_scale: Some(1000.0), overlap: 50.0, ..Default::default() };
+    let layout = gradewright_draw::layout(&analysis, &options).unwrap_or_else(|e| panic!("{e}"));
+    let n = layout.pages.len();
+    assert!(n >= 5, "{n} sheets");
+    for k in 1..=n {
+        let file = dir.join(format!("road-{k}.svg"));
+        let text = std::fs::read_to_string(&file).unwrap_or_else(|e| panic!("{}: {e}", file.display()));
+        assert!(text.contains(&format!("{k} of {n}")));
+        assert!(text.contains("MATCH LINE"), "sheet {k}");
+    }
+    let body = String::from_utf8_lossy(&std::fs::read(&pdf).unwrap_or_default()).into_owned();
+    assert!(body.contains(&format!("/Count {n}")), "{n} pages");
+    // Coverage: consecutive sheets overlap by exactly 50 m; the first starts
+    // at the first PVI and the last reaches the last one.
+    assert!((layout.pages[0].0 - 0.0).abs() < 1e-9);
+    for w in layout.pages.windows(2) {
+        assert!((w[0].1 - w[1].0 - 50.0).abs() < 1e-6, "{w:?}");
+    }
+    assert!(layout.pages[n - 1].1 >= 2000.0);
+}
+
+/// Refused options stop before anything is written (exit 2, one line).
+#[test]
+fn refused_options_write_nothing() {
+    let dir = scratch("refused");
+    let out = dir.join("x.png");
+    for args in [
+        vec!["--png", &*out.to_string_lossy(), "--sheet", "letterhead"],
+        vec!["--png", &*out.to_string_lossy(), "--dpi", "0"],
+        vec!["--png", &*out.to_string_lossy(), "--dpi", "100000"],
+        vec!["--png", "/nonexistent-folder/x.png"],
+        vec!["--png", "/dev/null"],
+        vec!["--png", &*out.to_string_lossy(), "--h-scale", "-5"],
+        vec![],
+    ] {
+        let mut full = vec!["export", &*demo().to_string_lossy().into_owned().leak()];
+        full.extend(args.iter().copied());
+        let (code, stdout, stderr) = run(&full);
+        assert_eq!(code, Some(2), "{args:?}: {stdout}{stderr}");
+        assert_eq!(stderr.lines().count(), 1, "{args:?}: {stderr}");
+        assert!(!out.exists(), "{args:?} wrote a file");
+    }
+    // A dpi that would make an absurd image is refused with the reason.
+    let (code, _, stderr) =
+        run(&["export", &s(&demo()), "--png", &s(&out), "--sheet", "2000x2000mm", "--dpi", "1200"]);
+    assert_eq!(code, Some(2));
+    assert!(stderr.contains("million"), "{stderr}");
+    assert!(!out.exists());
+}

@@ -1,0 +1,13 @@
+//! Gradewright drawing: what to draw of a profile, decided once in a scene
+//! tagged by role ([`scene`]), and the profile sheet built from it
+//! ([`sheet`]) as SVG, rasterised to PNG and converted to PDF ([`render`]).
+//!
+//! No GUI dependency: the editor and the sheet only translate the scene.
+
+pub mod render;
+pub mod scene;
+pub mod sheet;
+
+pub use render::{RenderError, pdf, png};
+pub use scene::{Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene};
+pub use sheet::{CAUTION, Layout, SheetError, SheetOptions, SheetSize, TitleBlock, layout, sheet_svgs};

@@ -1,0 +1,166 @@
+//! The hand-over tables: stations, curves and findings as CSV (RFC 4180, by
+//! the `csv` crate), with the unit in every length column's name.
+
+use std::io::Write;
+
+use gradewright_geometry::{Alignment, Analysis, Severity, Station, Units, format_station};
+
+use crate::TableError;
+use crate::table::number;
+
+fn unit(units: Units) -> &'static str {
+    match units {
+        Units::Metric => "m",
+        Units::UsCustomary => "ft",
+    }
+}
+
+fn finite(value: f64, station: f64) -> Result<String, TableError> {
+    if value.is_finite() { Ok(number(value, None)) } else { Err(TableError::NotFinite { station }) }
+}
+
+/// `stations.csv`: station, label, proposed elevation and grade at every
+/// station of `stations` (e.g. [`crate::interval_stations`]).
+///
+/// # Errors
+/// [`TableError`] for a station outside the profile or an I/O error.
+pub fn write_stations_csv(
+    out: impl Write,
+    alignment: &Alignment,
+    stations: &[f64],
+) -> Result<(), TableError> {
+    let units = alignment.units();
+    let u = unit(units);
+    let mut csv = csv::Writer::from_writer(out);
+    csv.write_record([
+        format!("station_{u}"),
+        "station_label".to_owned(),
+        format!("elevation_{u}"),
+        "grade_percent".to_owned(),
+    ])?;
+    let mut cursor = alignment.cursor();
+    for &s in stations {
+        let sample = cursor.sample(Station(s))?;
+        csv.write_record([
+            finite(s, s)?,
+            format_station(s, units, units.station_decimals()),
+            finite(sample.elevation, s)?,
+            finite(sample.grade_percent, s)?,
+        ])?;
+    }
+    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    Ok(())
+}
+
+/// The header of `curves.csv` for `units`.
+pub fn curves_header(units: Units) -> Vec<String> {
+    let u = unit(units);
+    [
+        "pvi".to_owned(),
+        format!("station_{u}"),
+        "station_label".to_owned(),
+        format!("elevation_{u}"),
+        "grade_back_percent".to_owned(),
+        "grade_ahead_percent".to_owned(),
+        "kind".to_owned(),
+        format!("length_{u}"),
+        format!("length_back_{u}"),
+        format!("length_ahead_{u}"),
+        "a_percent".to_owned(),
+        format!("k_{u}_per_percent"),
+        format!("k_overall_{u}_per_percent"),
+        format!("k_min_{u}_per_percent"),
+        format!("length_required_{u}"),
+        format!("pvc_station_{u}"),
+        format!("pvc_elevation_{u}"),
+        format!("pvt_station_{u}"),
+        format!("pvt_elevation_{u}"),
+        format!("high_low_station_{u}"),
+        format!("high_low_elevation_{u}"),
+        "status".to_owned(),
+    ]
+    .to_vec()
+}
+
+/// `curves.csv`: every PVI with its grades, curve and what the criteria ask.
+///
+/// # Errors
+/// An I/O error of `out`.
+pub fn write_curves_csv(out: impl Write, analysis: &Analysis) -> Result<(), TableError> {
+    let units = analysis.profile.units;
+    let mut csv = csv::Writer::from_writer(out);
+    csv.write_record(curves_header(units))?;
+    let pvis = &analysis.profile.pvis;
+    let opt = |v: Option<f64>| v.filter(|v| v.is_finite()).map_or_else(String::new, |v| number(v, None));
+    for (i, p) in pvis.iter().enumerate() {
+        let grade = |a: &gradewright_geometry::Pvi, b: &gradewright_geometry::Pvi| {
+            (b.elevation - a.elevation) / (b.station - a.station) * 100.0
+        };
+        let back = i.checked_sub(1).and_then(|j| pvis.get(j)).map(|a| grade(a, p));
+        let ahead = pvis.get(i + 1).map(|b| grade(p, b));
+        let check = analysis.report.curves.iter().find(|c| c.curve.index == i);
+        let c = check.map(|c| c.curve);
+        let status = match analysis.report.worst_at(i) {
+            Some(Severity::Fail) => "fail",
+            Some(Severity::Warn) => "warn",
+            Some(Severity::Info) => "info",
+            None => "ok",
+        };
+        let real = c.filter(|c| c.length() > 0.0);
+        csv.write_record([
+            (i + 1).to_string(),
+            number(p.station.0, None),
+            format_station(p.station.0, units, units.station_decimals()),
+            number(p.elevation, None),
+            opt(back),
+            opt(ahead),
+            c.map_or(String::new(), |c| c.kind.key().to_owned()),
+            number(p.curve.length(), None),
+            number(p.curve.length_in(), None),
+            number(p.curve.length_out(), None),
+            opt(c.map(|c| c.a_percent())),
+            opt(c.and_then(|c| c.k())),
+            opt(c.and_then(|c| c.k_overall())),
+            opt(check.and_then(|c| c.k_required)),
+            opt(check.map(|c| c.length_required)),
+            opt(real.map(|c| c.pvc.0)),
+            opt(real.map(|c| c.pvc_elevation)),
+            opt(real.map(|c| c.pvt.0)),
+            opt(real.map(|c| c.pvt_elevation)),
+            opt(real.and_then(|c| c.turning.map(|t| t.0.0))),
+            opt(real.and_then(|c| c.turning.map(|t| t.1))),
+            status.to_owned(),
+        ])?;
+    }
+    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    Ok(())
+}
+
+/// `findings.csv`: every check result.
+///
+/// # Errors
+/// An I/O error of `out`.
+pub fn write_findings_csv(out: impl Write, analysis: &Analysis) -> Result<(), TableError> {
+    let u = unit(analysis.profile.units);
+    let mut csv = csv::Writer::from_writer(out);
+    csv.write_record([
+        "severity".to_owned(),
+        "code".to_owned(),
+        format!("station_start_{u}"),
+        format!("station_end_{u}"),
+        "pvi".to_owned(),
+        "message".to_owned(),
+    ])?;
+    for f in &analysis.report.findings {
+        csv.write_record([
+            f.severity.key().to_owned(),
+            f.code.to_owned(),
+            number(f.station_start.0, None),
+            number(f.station_end.0, None),
+            f.pvi.map_or(String::new(), |i| (i + 1).to_string()),
+            f.message.clone(),
+        ])?;
+    }
+    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    Ok(())
+}
