@@ -552,3 +552,34 @@ fn typing_a_point_on_the_tangent_sets_the_grade() {
     let moved = h.state().project().pvis[1];
     assert!((moved.elevation - 222.0).abs() < 1e-9, "{}", moved.elevation);
 }
+
+/// File ▸ Export sheet and tables…: the preview is the sheet that will be
+/// written, the choices are kept with the project, and Export writes them.
+#[test]
+fn export_window_previews_and_writes_the_sheet() {
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-export-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let mut h = demo();
+    h.state_mut().view.show_export = true;
+    h.run();
+    assert!(h.query_by_label_contains("Preview of sheet 1 of 1").is_some());
+    let mut project = h.state().project().clone();
+    project.export.path = dir.join("alder").to_string_lossy().into_owned();
+    project.export.designer = "Q. Checker".to_owned();
+    h.state_mut().apply_edit(gradewright::gui::Edit::Replace(Box::new(project)));
+    h.run();
+    h.get_by_label("Export").click();
+    h.run();
+    for file in [
+        "alder.pdf",
+        "alder.png",
+        "alder-tables/curves.csv",
+        "alder-tables/findings.csv",
+        "alder-tables/stations.csv",
+    ] {
+        assert!(dir.join(file).exists(), "{file}");
+    }
+    let text = h.state().project().to_ron().unwrap_or_default();
+    assert!(text.contains("designer: \"Q. Checker\""), "the choices are saved with the project");
+}

@@ -8,6 +8,6 @@ pub mod render;
 pub mod scene;
 pub mod sheet;
 
-pub use render::{RenderError, pdf, png};
+pub use render::{RenderError, pdf, png, raster};
 pub use scene::{Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene};
 pub use sheet::{CAUTION, Layout, SheetError, SheetOptions, SheetSize, TitleBlock, layout, sheet_svgs};

@@ -44,11 +44,7 @@ fn tree(svg: &str) -> Result<usvg::Tree, RenderError> {
     usvg::Tree::from_str(svg, &options()).map_err(|e| RenderError::Failed(e.to_string()))
 }
 
-/// The sheet `svg` (sized in mm) as PNG bytes at `dpi`.
-///
-/// # Errors
-/// [`RenderError`] for a dpi out of range or an image over [`MAX_PIXELS`].
-pub fn png(svg: &str, dpi: f64) -> Result<Vec<u8>, RenderError> {
+fn pixmap(svg: &str, dpi: f64) -> Result<resvg::tiny_skia::Pixmap, RenderError> {
     if !(dpi.is_finite() && dpi >= DPI_RANGE.0 && dpi <= DPI_RANGE.1) {
         return Err(RenderError::Dpi(dpi));
     }
@@ -69,7 +65,25 @@ pub fn png(svg: &str, dpi: f64) -> Result<Vec<u8>, RenderError> {
     #[allow(clippy::cast_possible_truncation)]
     let transform = resvg::tiny_skia::Transform::from_scale(scale as f32, scale as f32);
     resvg::render(&tree, transform, &mut pixmap.as_mut());
-    pixmap.encode_png().map_err(|e| RenderError::Failed(e.to_string()))
+    Ok(pixmap)
+}
+
+/// The sheet `svg` (sized in mm) as PNG bytes at `dpi`.
+///
+/// # Errors
+/// [`RenderError`] for a dpi out of range or an image over [`MAX_PIXELS`].
+pub fn png(svg: &str, dpi: f64) -> Result<Vec<u8>, RenderError> {
+    pixmap(svg, dpi)?.encode_png().map_err(|e| RenderError::Failed(e.to_string()))
+}
+
+/// The sheet `svg` as premultiplied RGBA pixels at `dpi` (for an on-screen
+/// preview): (width, height, pixels).
+///
+/// # Errors
+/// As [`png`].
+pub fn raster(svg: &str, dpi: f64) -> Result<(u32, u32, Vec<u8>), RenderError> {
+    let pixmap = pixmap(svg, dpi)?;
+    Ok((pixmap.width(), pixmap.height(), pixmap.take()))
 }
 
 /// Every sheet as one PDF, one page per sheet, each page the sheet's size,

@@ -44,7 +44,9 @@ pub use edit::InsertError;
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
-pub use project::{ControlPoint, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions};
+pub use project::{
+    ControlPoint, ExportSettings, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions,
+};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};
 pub use units::Units;
 pub use write::write_atomic;

@@ -75,6 +75,74 @@ impl Snap {
     }
 }
 
+/// How the sheet and tables are exported, kept with the project.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(default, deny_unknown_fields)]
+pub struct ExportSettings {
+    /// Sheet size: `ansi-b`, `ansi-d`, `a3`, `a1`, `WxHmm`, `WxHin`.
+    pub sheet: String,
+    /// PNG resolution, dpi.
+    pub dpi: f64,
+    /// Horizontal scale (1:N, or 1 in = N ft); `None` fits one sheet.
+    pub h_scale: Option<f64>,
+    /// Vertical scale; `None` is a tenth of the horizontal.
+    pub v_scale: Option<f64>,
+    /// Overlap between sheets.
+    pub overlap: f64,
+    /// Title block: road or section.
+    pub road: String,
+    /// Title block: designer.
+    pub designer: String,
+    /// Title block: checker.
+    pub checker: String,
+    /// Title block: date.
+    pub date: String,
+    /// Title block: revision.
+    pub revision: String,
+    /// Whether the sight-distance band is drawn.
+    pub sight_band: bool,
+    /// Write PNG.
+    pub png: bool,
+    /// Write SVG.
+    pub svg: bool,
+    /// Write PDF.
+    pub pdf: bool,
+    /// Write the CSV tables.
+    pub tables: bool,
+    /// Where: the sheet files are this path with each format's extension, the
+    /// tables go in a folder of this name.
+    pub path: String,
+}
+
+impl Default for ExportSettings {
+    fn default() -> Self {
+        Self {
+            sheet: "ansi-b".to_owned(),
+            dpi: 150.0,
+            h_scale: None,
+            v_scale: None,
+            overlap: 0.0,
+            road: String::new(),
+            designer: String::new(),
+            checker: String::new(),
+            date: String::new(),
+            revision: String::new(),
+            sight_band: true,
+            png: true,
+            svg: false,
+            pdf: true,
+            tables: true,
+            path: String::new(),
+        }
+    }
+}
+
+impl ExportSettings {
+    fn is_default(&self) -> bool {
+        *self == Self::default()
+    }
+}
+
 /// A Gradewright project.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -100,6 +168,9 @@ pub struct Project {
     /// How the editor snaps PVIs in this project.
     #[serde(default, skip_serializing_if = "Snap::is_default")]
     pub snap: Snap,
+    /// How the sheet and tables are exported.
+    #[serde(default, skip_serializing_if = "ExportSettings::is_default")]
+    pub export: ExportSettings,
 }
 
 impl Project {
@@ -114,6 +185,7 @@ impl Project {
             ground: Vec::new(),
             controls: Vec::new(),
             snap: Snap::default(),
+            export: ExportSettings::default(),
         }
     }
 

@@ -9,6 +9,7 @@ mod cell;
 mod command;
 mod criteria_ui;
 mod derived;
+mod export_ui;
 mod files;
 mod findings_ui;
 mod history;
@@ -64,6 +65,7 @@ impl GradewrightApp {
         });
         about_ui::about_ui(self, &ctx);
         self.path_dialog_ui(&ctx);
+        export_ui::export_ui(self, &ctx);
         self.dialogs_ui(&ctx);
         self.apply_queued(&ctx);
         self.autosave(ctx.input(|i| i.time));
@@ -103,6 +105,10 @@ impl GradewrightApp {
                         }
                     }
                 });
+                if ui.button("Export sheet and tables…").clicked() {
+                    self.view.show_export = true;
+                    ui.close();
+                }
                 if ui.button("Open or save by path…").clicked() {
                     self.view.show_path_dialog = true;
                     ui.close();

@@ -101,6 +101,10 @@ pub struct ViewState {
     pub checked_revision: u64,
     /// Whether the table shows the PVC, PVT and high/low point columns.
     pub show_curve_points: bool,
+    /// Whether the export window is open.
+    pub show_export: bool,
+    /// The export window's preview.
+    pub preview: super::export_ui::Preview,
 }
 
 impl Default for ViewState {
@@ -122,6 +126,8 @@ impl Default for ViewState {
             table_scroll: None,
             checked_revision: 0,
             show_curve_points: true,
+            show_export: false,
+            preview: super::export_ui::Preview::default(),
         }
     }
 }

@@ -1,0 +1,266 @@
+//! File ▸ Export sheet and tables…: the choices (saved with the project), a
+//! live preview of the very sheet that will be written, and the export.
+
+use std::path::PathBuf;
+
+use egui::RichText;
+use gradewright_geometry::{Analysis, ExportSettings};
+
+use super::app::{GradewrightApp, Notice};
+use super::command::{Action, Edit};
+
+/// The preview shown, and what it was drawn from.
+#[derive(Clone, Default)]
+pub struct Preview {
+    /// Project revision and settings it shows.
+    key: Option<(u64, String)>,
+    /// The texture.
+    texture: Option<egui::TextureHandle>,
+    /// Why there is none.
+    error: Option<String>,
+    /// How many sheets the export makes.
+    pub sheets: usize,
+}
+
+impl std::fmt::Debug for Preview {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("Preview")
+            .field("sheets", &self.sheets)
+            .field("error", &self.error)
+            .finish_non_exhaustive()
+    }
+}
+
+/// The export request for the project's settings.
+pub fn request(settings: &ExportSettings, base: &std::path::Path) -> crate::export::Request {
+    let with = |ext: &str| base.with_extension(ext);
+    crate::export::Request {
+        png: settings.png.then(|| with("png")),
+        svg: settings.svg.then(|| with("svg")),
+        pdf: settings.pdf.then(|| with("pdf")),
+        csv_dir: settings.tables.then(|| {
+            let mut dir = base.as_os_str().to_owned();
+            dir.push("-tables");
+            PathBuf::from(dir)
+        }),
+        sheet: settings.sheet.clone(),
+        dpi: settings.dpi,
+        h_scale: settings.h_scale,
+        v_scale: settings.v_scale,
+        overlap: settings.overlap,
+        interval: None,
+        title: gradewright_draw::TitleBlock {
+            project: String::new(),
+            road: settings.road.clone(),
+            designer: settings.designer.clone(),
+            checker: settings.checker.clone(),
+            date: settings.date.clone(),
+            revision: settings.revision.clone(),
+        },
+        sight_band: settings.sight_band,
+    }
+}
+
+impl GradewrightApp {
+    /// Where the export goes: the settings' path, else beside the project file.
+    pub fn export_base(&self) -> PathBuf {
+        let settings = &self.project().export;
+        if !settings.path.trim().is_empty() {
+            return PathBuf::from(settings.path.trim());
+        }
+        match self.path() {
+            Some(p) => p.with_extension(""),
+            None => std::env::current_dir().unwrap_or_default().join("profile"),
+        }
+    }
+
+    /// Exports as the settings say; the outcome is shown in the status line.
+    pub fn export_now(&mut self) -> bool {
+        let base = self.export_base();
+        let request = request(&self.project().export, &base);
+        let result = crate::export::plan(&request).and_then(|plan| {
+            let analysis = Analysis::of(self.project());
+            if let Some(problem) = analysis.problems.first() {
+                anyhow::bail!("the profile has problems to fix first: {problem}");
+            }
+            let files = crate::export::render(&plan, &request, &analysis, self.project())?;
+            crate::export::write_all(&files)?;
+            Ok(files.len())
+        });
+        match result {
+            Ok(n) => {
+                self.notice = Some(Notice {
+                    error: false,
+                    text: format!("Exported {n} file(s) to {}", base.display()),
+                });
+                true
+            }
+            Err(e) => {
+                self.notice = Some(Notice { error: true, text: format!("Export failed: {e:#}") });
+                false
+            }
+        }
+    }
+}
+
+/// The export window.
+#[allow(clippy::too_many_lines)]
+pub fn export_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
+    let mut open = app.view.show_export;
+    if !open {
+        return;
+    }
+    let mut settings = app.project().export.clone();
+    let mut export = false;
+    egui::Window::new("Export sheet and tables").open(&mut open).default_width(720.0).show(ctx, |ui| {
+        egui::Grid::new("export-grid").num_columns(2).spacing([8.0, 4.0]).show(ui, |ui| {
+            let label = ui.label("Sheet size");
+            let combo = egui::ComboBox::from_id_salt("sheet-size")
+                .selected_text(settings.sheet.clone())
+                .show_ui(ui, |ui| {
+                    for size in ["ansi-b", "ansi-d", "a3", "a1"] {
+                        ui.selectable_value(&mut settings.sheet, size.to_owned(), size);
+                    }
+                });
+            let _ = combo.response.labelled_by(label.id);
+            ui.end_row();
+            let units = app.project().units;
+            let (h_hint, v_hint) = match units {
+                gradewright_geometry::Units::Metric => {
+                    ("1:N, e.g. 1000 (empty: fits one sheet)", "1:N, e.g. 100 (empty: H/10)")
+                }
+                gradewright_geometry::Units::UsCustomary => {
+                    ("1 in = N ft, e.g. 50 (empty: fits)", "1 in = N ft, e.g. 5 (empty: H/10)")
+                }
+            };
+            for (label, value, hint) in [
+                ("Horizontal scale", &mut settings.h_scale, h_hint),
+                ("Vertical scale", &mut settings.v_scale, v_hint),
+            ] {
+                let name = ui.label(label);
+                let mut text = value.map_or_else(String::new, |v| format!("{v}"));
+                if ui
+                    .add(egui::TextEdit::singleline(&mut text).hint_text(hint).desired_width(260.0))
+                    .labelled_by(name.id)
+                    .changed()
+                {
+                    *value = text.trim().parse::<f64>().ok().filter(|v| v.is_finite() && *v > 0.0);
+                }
+                ui.end_row();
+            }
+            let name = ui.label("Overlap between sheets");
+            let _ = ui
+                .add(
+                    egui::DragValue::new(&mut settings.overlap)
+                        .range(0.0..=10000.0)
+                        .suffix(format!(" {}", units.length_symbol())),
+                )
+                .labelled_by(name.id);
+            ui.end_row();
+            let name2 = ui.label("PNG resolution");
+            let _ = ui
+                .add(egui::DragValue::new(&mut settings.dpi).range(10.0..=600.0).suffix(" dpi"))
+                .labelled_by(name2.id);
+            ui.end_row();
+            for (label, value) in [
+                ("Road / section", &mut settings.road),
+                ("Designed", &mut settings.designer),
+                ("Checked", &mut settings.checker),
+                ("Date", &mut settings.date),
+                ("Revision", &mut settings.revision),
+            ] {
+                let name = ui.label(label);
+                let _ = ui.add(egui::TextEdit::singleline(value).desired_width(260.0)).labelled_by(name.id);
+                ui.end_row();
+            }
+            ui.label("Formats");
+            ui.horizontal(|ui| {
+                ui.checkbox(&mut settings.pdf, "PDF");
+                ui.checkbox(&mut settings.png, "PNG");
+                ui.checkbox(&mut settings.svg, "SVG");
+                ui.checkbox(&mut settings.tables, "Tables (CSV)");
+                ui.checkbox(&mut settings.sight_band, "Sight-distance band");
+            });
+            ui.end_row();
+            let target = ui.label("Write to");
+            let mut path = if settings.path.is_empty() {
+                app.export_base().display().to_string()
+            } else {
+                settings.path.clone()
+            };
+            if ui
+                .add(egui::TextEdit::singleline(&mut path).desired_width(420.0))
+                .labelled_by(target.id)
+                .on_hover_text("Each format adds its extension; the tables go in NAME-tables/")
+                .changed()
+            {
+                settings.path = path;
+            }
+            ui.end_row();
+        });
+        // The preview: sheet 1, drawn from the same SVG the export writes.
+        let key = (app.revision(), format!("{settings:?}"));
+        if app.view.preview.key.as_ref() != Some(&key) {
+            let analysis = Analysis::of(app.project());
+            let req = request(&settings, &app.export_base());
+            let drawn = crate::export::plan(&req).and_then(|plan| {
+                let options = crate::export::sheet_options(&plan, &req, app.project());
+                let svgs = gradewright_draw::sheet_svgs(&analysis, &options)?;
+                let first = svgs.first().ok_or_else(|| anyhow::anyhow!("no sheet"))?;
+                let (w, h, pixels) = gradewright_draw::raster(first, 40.0)?;
+                Ok((svgs.len(), w, h, pixels))
+            });
+            match drawn {
+                Ok((sheets, w, h, pixels)) => {
+                    #[allow(clippy::cast_possible_truncation)]
+                    let image = egui::ColorImage::from_rgba_premultiplied([w as usize, h as usize], &pixels);
+                    app.view.preview.texture =
+                        Some(ctx.load_texture("sheet-preview", image, egui::TextureOptions::LINEAR));
+                    app.view.preview.sheets = sheets;
+                    app.view.preview.error = None;
+                }
+                Err(e) => {
+                    app.view.preview.texture = None;
+                    app.view.preview.error = Some(format!("{e:#}"));
+                }
+            }
+            app.view.preview.key = Some(key);
+        }
+        ui.separator();
+        match (&app.view.preview.texture, &app.view.preview.error) {
+            (_, Some(e)) => {
+                ui.label(RichText::new(format!("⚠ {e}")).color(ui.visuals().warn_fg_color));
+            }
+            (Some(texture), None) => {
+                ui.label(format!("Preview of sheet 1 of {}", app.view.preview.sheets));
+                let size = texture.size_vec2();
+                let width = ui.available_width().min(700.0);
+                ui.add(
+                    egui::Image::new(texture)
+                        .fit_to_exact_size(egui::vec2(width, width * size.y / size.x.max(1.0))),
+                );
+            }
+            (None, None) => {}
+        }
+        ui.horizontal(|ui| {
+            if ui.button("Export").clicked() {
+                export = true;
+            }
+            ui.label(
+                RichText::new(
+                    "Every sheet carries the cautions: results must be checked by a licensed engineer.",
+                )
+                .weak(),
+            );
+        });
+    });
+    if settings != app.project().export {
+        let mut project = app.project().clone();
+        project.export = settings;
+        app.push(Action::edit(Edit::Replace(Box::new(project))));
+    }
+    if export {
+        app.export_now();
+    }
+    app.view.show_export = open;
+}
