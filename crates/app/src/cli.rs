@@ -446,8 +446,12 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             // Input that cannot be evaluated at all is bad input (exit 2), as
             // for every other command; curves that overlap or do not fit are
             // design failures and are listed as findings.
-            if let Some(problem) =
-                loaded.project.profile().problems().into_iter().find(|p| !is_design_problem(p))
+            if let Some(problem) = loaded
+                .project
+                .profile()
+                .problems()
+                .into_iter()
+                .find(|p| !gradewright_geometry::is_design_problem(p))
             {
                 let more = loaded.project.profile().problems().len() - 1;
                 let more = if more == 0 { String::new() } else { format!(" (and {more} more problem(s))") };
@@ -466,12 +470,6 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
     }
-}
-
-/// Problems that are the design's (reported as findings), not unusable input.
-fn is_design_problem(problem: &gradewright_geometry::ProfileProblem) -> bool {
-    use gradewright_geometry::ProfileProblem as P;
-    matches!(problem, P::Overlap { .. } | P::CurveExceedsTangent { .. } | P::CurveAtEnd { .. })
 }
 
 /// A check that could not run must not pass: the sight distance at the step

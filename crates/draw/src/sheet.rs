@@ -527,11 +527,19 @@ fn one_sheet(
     // from the line with a leader, and is dropped only when nothing fits.
     let mut taken: Vec<Rect> = Vec::new();
     // The profile line itself is kept clear: a box per chord.
+    // Long chords (tangents) are cut into short pieces so their boxes hug the line.
     for pair in points.windows(2) {
         let [a, b] = pair else { continue };
-        let (x0, x1) = (px(a[0]).min(px(b[0])), px(a[0]).max(px(b[0])));
-        let (y0, y1) = (py(a[1]).min(py(b[1])), py(a[1]).max(py(b[1])));
-        taken.push(Rect { x0, y0: y0 - 0.4, x1, y1: y1 + 0.4 });
+        let (ax, ay, bx, by) = (px(a[0]), py(a[1]), px(b[0]), py(b[1]));
+        let pieces = ((bx - ax).hypot(by - ay) / 2.0).ceil().clamp(1.0, 10_000.0);
+        let mut k = 0.0;
+        while k < pieces {
+            let (t0, t1) = (k / pieces, (k + 1.0) / pieces);
+            let (x0, x1) = (ax + (bx - ax) * t0, ax + (bx - ax) * t1);
+            let (y0, y1) = (ay + (by - ay) * t0, ay + (by - ay) * t1);
+            taken.push(Rect { x0: x0.min(x1), y0: y0.min(y1) - 0.4, x1: x0.max(x1), y1: y0.max(y1) + 0.4 });
+            k += 1.0;
+        }
     }
     let mut labels: Vec<&Label> = scene.labels.iter().collect();
     labels.sort_by_key(|l| l.priority);

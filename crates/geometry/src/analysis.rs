@@ -37,6 +37,21 @@ pub fn is_design_problem(problem: &ProfileProblem) -> bool {
     )
 }
 
+/// The report of a profile whose criteria are not usable: its structural
+/// problems, and a note saying the design checks are off and why.
+pub fn unchecked_report(profile: &Profile, why: &CriteriaError) -> CheckReport {
+    let mut findings = structural_findings(profile);
+    findings.push(Finding {
+        severity: Severity::Info,
+        code: "criteria.incomplete",
+        station_start: profile.start().unwrap_or_default(),
+        station_end: profile.end().unwrap_or_default(),
+        pvi: None,
+        message: format!("Design checks are off: {why}"),
+    });
+    CheckReport { findings, curves: Vec::new(), sight: None }
+}
+
 impl Analysis {
     /// Analyses `project` with its own criteria.
     pub fn of(project: &Project) -> Self {
@@ -52,18 +67,7 @@ impl Analysis {
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
         let report = match &criteria {
             Ok(c) => check_profile(&profile, c),
-            Err(e) => {
-                let mut findings = structural_findings(&profile);
-                findings.push(Finding {
-                    severity: Severity::Info,
-                    code: "criteria.incomplete",
-                    station_start: profile.start().unwrap_or_default(),
-                    station_end: profile.end().unwrap_or_default(),
-                    pvi: None,
-                    message: format!("Design checks are off: {e}"),
-                });
-                CheckReport { findings, curves: Vec::new(), sight: None }
-            }
+            Err(e) => unchecked_report(&profile, e),
         };
         Self { profile, problems, alignment, curves, criteria, report }
     }

@@ -31,7 +31,7 @@ pub mod visibility;
 mod write;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
-pub use analysis::{Analysis, is_design_problem};
+pub use analysis::{Analysis, is_design_problem, unchecked_report};
 pub use checks::{
     CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, Severity, check_curve, check_profile,
     check_profile_with_sight, compute_sight, structural_findings,

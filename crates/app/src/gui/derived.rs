@@ -7,7 +7,6 @@ use gradewright_geometry::visibility::SightProfile;
 use gradewright_geometry::{
     Alignment, CheckReport, CriteriaError, CurveGeometry, Finding, Profile, ProfileProblem, Project,
     ResolvedCriteria, Segment, Severity, check_profile_with_sight, compute_sight, interior_curves,
-    structural_findings,
 };
 
 /// Largest chord error allowed when a parabola is drawn as a polyline, in the
@@ -70,14 +69,7 @@ impl Derived {
         let profile: Profile = project.profile();
         let problems = profile.problems();
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
-        let usable = problems.iter().all(|p| {
-            matches!(
-                p,
-                ProfileProblem::Overlap { .. }
-                    | ProfileProblem::CurveExceedsTangent { .. }
-                    | ProfileProblem::CurveAtEnd { .. }
-            )
-        });
+        let usable = problems.iter().all(gradewright_geometry::is_design_problem);
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
         let criteria = project.criteria.resolve(project.units);
         let sight = match (&alignment, &criteria) {
@@ -86,18 +78,7 @@ impl Derived {
         };
         let mut report = match &criteria {
             Ok(c) => check_profile_with_sight(&profile, c, sight),
-            Err(e) => {
-                let mut findings = structural_findings(&profile);
-                findings.push(Finding {
-                    severity: Severity::Info,
-                    code: "criteria.incomplete",
-                    station_start: profile.start().unwrap_or_default(),
-                    station_end: profile.end().unwrap_or_default(),
-                    pvi: None,
-                    message: format!("Design checks are off: {e}"),
-                });
-                CheckReport { findings, curves: Vec::new(), sight: None }
-            }
+            Err(e) => gradewright_geometry::unchecked_report(&profile, e),
         };
         let grade_line = profile.pvis.iter().map(|p| [p.station.0, p.elevation]).collect();
         let sight = report.sight.take().map(Arc::new);
