@@ -12,6 +12,8 @@ fn frame(c: &mut Criterion) {
     let mut project = Project::new("Benchmark", Units::Metric);
     project.pvis = profile.pvis;
     project.criteria.design_speed = Some(90.0);
+    // Unsnapped, so every frame really moves the PVI (and recomputes).
+    project.snap.on = false;
     let mut app = GradewrightApp::new(project, None, AppFiles::new(None));
     let ctx = egui::Context::default();
     let input = || egui::RawInput {
