@@ -42,7 +42,7 @@ fn frame(c: &mut Criterion) {
             step = step.wrapping_add(1);
             let wiggle = f64::from(step % 20) * 0.05;
             app.drag_to(index, base.station.0 + wiggle, base.elevation + wiggle);
-            black_box(app.derived().report.findings.len())
+            black_box(app.analysis().report.findings.len())
         });
     });
     app.end_drag();

@@ -6,7 +6,7 @@ use std::process::ExitCode;
 
 use anyhow::{Context as _, anyhow, bail};
 use clap::{Parser, Subcommand, ValueEnum};
-use gradewright_geometry::{Alignment, Units, check_profile, parse_station};
+use gradewright_geometry::{Alignment, Analysis, Units, parse_station};
 
 use crate::input::{Input, load_input};
 use crate::report;
@@ -328,7 +328,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             if let Some(v) = increment {
                 positive("--increment", "the length increment", v)?;
             }
-            check_output(&output)?;
+            crate::export::check_file("-o", &output)?;
             let mut loaded = load_input(&input, units.map(Into::into))?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             let alignment = build(&loaded)?;
@@ -338,14 +338,13 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 Units::Metric => 5.0,
                 Units::UsCustomary => 10.0,
             });
-            let profile = project.profile();
-            let report = check_profile(&profile, &criteria);
-            let targets = report.failing_curves();
+            let before = Analysis::of(project);
+            let targets = before.report.failing_curves();
             let (fitted, outcomes) =
-                gradewright_geometry::lengthen_to_clear(&profile, &criteria, &targets, increment);
+                gradewright_geometry::lengthen_to_clear(&before.profile, &criteria, &targets, increment);
             let mut out = project.clone();
             out.pvis = fitted.pvis;
-            let after = check_profile(&out.profile(), &criteria);
+            let after = Analysis::of(&out).report;
             write_like_input(&out, &input, &output)?;
             let mut text = String::new();
             if outcomes.is_empty() {
@@ -414,8 +413,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             }
             let alignment = build(&loaded)?;
             refuse_unchecked_sight(&alignment, &criteria, &input)?;
-            let analysis =
-                gradewright_geometry::Analysis::with_criteria(loaded.project.profile(), Ok(criteria));
+            let analysis = Analysis::of(&loaded.project);
             let files = crate::export::render(&plan, &request, &analysis, &loaded.project)
                 .map_err(|e| anyhow!("{}: {e}", input.display()))?;
             crate::export::write_all(&files)?;
@@ -461,7 +459,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 refuse_unchecked_sight(&alignment, &criteria, &input)?;
             }
             let project = loaded.project;
-            let checks = check_profile(&project.profile(), &criteria);
+            let checks = Analysis::of(&project).report;
             let text = match format {
                 Format::Text => report::text(&project, &criteria, &checks),
                 Format::Json => report::json(&project, &criteria, &checks)?,
@@ -493,23 +491,6 @@ fn refuse_unchecked_sight(
         );
     }
     Ok(())
-}
-
-/// Refuses an output that is not a regular file (or a new path) before any
-/// work is done, so a device or a folder never costs a run.
-fn check_output(output: &std::path::Path) -> anyhow::Result<()> {
-    match std::fs::metadata(output) {
-        Ok(meta) if meta.is_file() => Ok(()),
-        Ok(meta) if meta.is_dir() => {
-            bail!("{}: -o: is a folder, not a file; give a file name", output.display())
-        }
-        Ok(_) => bail!(
-            "{}: -o: is not a regular file (a device, pipe or socket); Gradewright writes only to regular files",
-            output.display()
-        ),
-        Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(()),
-        Err(e) => bail!("{}: -o: {e}", output.display()),
-    }
 }
 
 /// Resolves the criteria, with `--design-speed` taking precedence.

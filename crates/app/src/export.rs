@@ -44,7 +44,12 @@ pub struct Plan {
     pub size: SheetSize,
 }
 
-fn check_file(option: &str, path: &Path) -> anyhow::Result<()> {
+/// Refuses an output (named by its command-line `option`) that is not a
+/// regular file or a new path in an existing folder, before any work is done.
+///
+/// # Errors
+/// The reason, naming the path and the option.
+pub fn check_file(option: &str, path: &Path) -> anyhow::Result<()> {
     match std::fs::metadata(path) {
         Ok(meta) if meta.is_file() => {}
         Ok(meta) if meta.is_dir() => bail!("{}: {option}: is a folder, not a file", path.display()),

@@ -26,7 +26,7 @@ fn demo() -> Harness<'static, GradewrightApp> {
 /// minimum at 80 km/h (Table 3-34, from memory).
 fn crest_check(h: &Harness<'_, GradewrightApp>) -> gradewright_geometry::CurveCheck {
     h.state()
-        .derived()
+        .analysis()
         .report
         .curves
         .iter()
@@ -53,7 +53,7 @@ fn typing_a_longer_length_fixes_the_failing_crest() {
     assert_eq!(before.curve.kind, CurveKind::Crest);
     // K, exact SSD length, and sight distance both ways: four failing findings,
     // shown in the findings list, plus the status cell of PVI 4.
-    let fails = h.state().derived().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    let fails = h.state().analysis().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
     assert_eq!(fails, 4);
     assert_eq!(h.query_all_by_label("✖ fail").count(), 1 + fails, "one status cell and the findings");
     replace_text(&mut h, "PVI 4 curve length", "140");
@@ -62,7 +62,7 @@ fn typing_a_longer_length_fixes_the_failing_crest() {
     // K = 140/5 = 28 ≥ 26: the status turns to ok.
     assert!((after.curve.k().unwrap_or(0.0) - 28.0).abs() < 1e-9);
     assert!(after.ok);
-    assert!(!h.state().derived().report.has_failures());
+    assert!(!h.state().analysis().report.has_failures());
     assert_eq!(h.query_all_by_label("✖ fail").count(), 0);
     // One undo step brings back the failing length.
     h.state_mut().push(Action::Undo);
@@ -88,7 +88,7 @@ fn a_bad_entry_is_refused_in_place_and_never_reaches_the_model() {
 fn raising_the_design_speed_flags_a_curve() {
     let mut h = demo();
     let sag_at_pvi_3 = |h: &Harness<'_, GradewrightApp>| {
-        h.state().derived().report.curves.iter().find(|c| c.curve.index == 2).map(|c| c.ok)
+        h.state().analysis().report.curves.iter().find(|c| c.curve.index == 2).map(|c| c.ok)
     };
     assert_eq!(sag_at_pvi_3(&h), Some(true));
     replace_text(&mut h, "Design speed value", "100");
@@ -96,7 +96,7 @@ fn raising_the_design_speed_flags_a_curve() {
     // 100 km/h: sag K 45 (AASHTO metric Table 3-36, from memory); 160/4 = 40 < 45.
     assert_eq!(sag_at_pvi_3(&h), Some(false));
     let flagged =
-        h.state().derived().report.findings.iter().any(|f| f.code == "sag.k-min" && f.pvi == Some(2));
+        h.state().analysis().report.findings.iter().any(|f| f.code == "sag.k-min" && f.pvi == Some(2));
     assert!(flagged);
 }
 
@@ -223,7 +223,7 @@ fn delete_and_insert_keep_at_least_two_pvis() {
 #[test]
 fn findings_list_and_cautions_are_shown() {
     let mut h = demo();
-    let fails = h.state().derived().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    let fails = h.state().analysis().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
     assert_eq!(fails, 4);
     for code in ["crest.k-min", "crest.ssd-length", "sight.forward", "sight.backward"] {
         assert!(h.query_by_label_contains(code).is_some(), "{code}");
@@ -243,7 +243,7 @@ fn lengthen_all_failing_clears_the_demo_in_one_undo_step() {
     h.run();
     // K 26 · A 5 = 130 m (AASHTO metric Table 3-34 at 80 km/h, from memory).
     assert!((crest_check(&h).curve.length() - 130.0).abs() < 1e-9);
-    assert!(!h.state().derived().report.has_failures(), "{:?}", h.state().derived().report.findings);
+    assert!(!h.state().analysis().report.has_failures(), "{:?}", h.state().analysis().report.findings);
     let notice = h.state().notice.clone().map(|n| n.text).unwrap_or_default();
     assert!(notice.contains("lengthened from 90.00 m to 130.00 m"), "{notice}");
     h.state_mut().push(Action::Undo);
@@ -265,10 +265,10 @@ fn incremental_sight_distance_equals_a_full_computation() {
             app.drag_to(index, pvi.station.0 + 7.0 * k, pvi.elevation + 0.9 * k);
         }
         app.end_drag();
-        let full = gradewright::gui::Derived::compute(app.project());
-        assert!(app.derived().sight().is_some());
-        assert_eq!(app.derived().sight(), full.sight(), "PVI {}", index + 1);
-        assert_eq!(app.derived().report.findings, full.report.findings, "PVI {}", index + 1);
+        let full = gradewright_geometry::Analysis::of(app.project());
+        assert!(app.analysis().sight().is_some());
+        assert_eq!(app.analysis().sight(), full.sight(), "PVI {}", index + 1);
+        assert_eq!(app.analysis().report.findings, full.report.findings, "PVI {}", index + 1);
     }
 }
 
@@ -348,7 +348,7 @@ fn table_names_severity_word_and_sag_rule_are_shown() {
     project.pvis[2].elevation = a.elevation + t * (b.elevation - a.elevation);
     h.state_mut().apply_edit(gradewright::gui::Edit::Replace(Box::new(project)));
     h.run();
-    assert!(h.state().derived().report.findings.iter().any(|f| f.severity == Severity::Info));
+    assert!(h.state().analysis().report.findings.iter().any(|f| f.severity == Severity::Info));
     assert!(h.query_all_by_label("ℹ info").count() >= 1);
     assert!(h.query_by_label_contains("1 info").is_some(), "the findings count says info");
     assert_eq!(h.query_all_by_label("ℹ note").count(), 0);
@@ -517,7 +517,7 @@ fn an_inserted_pvi_gets_a_passing_curve() {
     assert_eq!(project.pvis.len(), 7);
     let new = project.pvis[1];
     assert!((new.curve.length() - 50.0).abs() < 1e-9, "{:?}", new.curve);
-    assert!(h.state().derived().report.worst_at(1) != Some(Severity::Fail));
+    assert!(h.state().analysis().report.worst_at(1) != Some(Severity::Fail));
     let notice = h.state().notice.clone().map(|n| n.text).unwrap_or_default();
     assert!(notice.contains("50.00 m curve") && notice.contains("minimum length"), "{notice}");
     // The next edit clears the message.

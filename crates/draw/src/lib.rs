@@ -4,10 +4,12 @@
 //!
 //! No GUI dependency: the editor and the sheet only translate the scene.
 
+pub mod place;
 pub mod render;
 pub mod scene;
 pub mod sheet;
 
+pub use place::{Placed, Placement, Rect, Spacing, place_labels};
 pub use render::{RenderError, pdf, png, raster};
 pub use scene::{Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene};
 pub use sheet::{CAUTION, Layout, SheetError, SheetOptions, SheetSize, TitleBlock, layout, sheet_svgs};

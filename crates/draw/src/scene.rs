@@ -2,7 +2,7 @@
 //! (station, elevation), each item tagged by its role and never by a colour.
 //! The sheet maps roles to print styles; a screen maps them to its theme.
 
-use gradewright_geometry::{Analysis, CurveKind, KeyPoint, Units, format_station};
+use gradewright_geometry::{Analysis, CurveKind, Units, format_station};
 
 /// What a drawn item is, for the front end to style.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
@@ -29,6 +29,11 @@ pub enum Role {
     CurveLabel,
     /// The reason a curve fails.
     FailLabel,
+    /// The existing ground line.
+    Ground,
+    /// A curve of a profile that cannot be evaluated (curves overlap or do
+    /// not fit), drawn on its own.
+    InvalidCurve,
 }
 
 /// A polyline.
@@ -105,6 +110,7 @@ pub struct Scene {
 
 /// The scene of `analysis` between stations `range`, its curves flattened to
 /// `tolerance` (elevation units).
+#[allow(clippy::too_many_lines)]
 pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> Scene {
     let mut scene = Scene::default();
     let pvis = &analysis.profile.pvis;
@@ -112,46 +118,57 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
     let len = units.length_symbol();
     let label = |s: f64| format_station(s, units, units.station_decimals());
     let within = |s: f64| s >= range.0 && s <= range.1;
+    if analysis.ground.len() >= 2 {
+        // The ground in range and one point beyond each end, so it reaches the edges.
+        let g = &analysis.ground;
+        let first = g.partition_point(|p| p.station < range.0).saturating_sub(1);
+        let last = (g.partition_point(|p| p.station <= range.1) + 1).min(g.len());
+        scene.lines.push(Polyline {
+            role: Role::Ground,
+            points: g.get(first..last).unwrap_or(&[]).iter().map(|p| [p.station, p.elevation]).collect(),
+        });
+    }
     scene.lines.push(Polyline {
         role: Role::GradeLine,
         points: pvis.iter().map(|p| [p.station.0, p.elevation]).collect(),
     });
-    let Some(alignment) = analysis.alignment.as_ref() else { return scene };
-    scene.lines.push(Polyline { role: Role::Profile, points: alignment.flatten(range, tolerance) });
     let failing: Vec<usize> =
         analysis.report.curves.iter().filter(|c| !c.ok).map(|c| c.curve.index).collect();
-    for c in alignment.curves() {
-        if c.length() > 0.0 && failing.contains(&c.index) && c.pvt.0 >= range.0 && c.pvc.0 <= range.1 {
-            let segments: Vec<_> = c.segments().into_iter().flatten().collect();
-            scene.lines.push(Polyline {
-                role: Role::FailingCurve,
-                points: gradewright_geometry::flatten_segments(&segments, range, tolerance),
-            });
+    let in_view = |c: &gradewright_geometry::CurveGeometry| c.pvt.0 >= range.0 && c.pvc.0 <= range.1;
+    let flatten_curve = |c: &gradewright_geometry::CurveGeometry| {
+        let segments: Vec<_> = c.segments().into_iter().flatten().collect();
+        gradewright_geometry::flatten_segments(&segments, range, tolerance)
+    };
+    if let Some(alignment) = analysis.alignment.as_ref() {
+        for f in analysis.report.findings.iter().filter(|f| f.code.starts_with("sight.")) {
+            let (a, b) = (f.station_start.0.max(range.0), f.station_end.0.min(range.1));
+            if b > a {
+                scene
+                    .lines
+                    .push(Polyline { role: Role::Shortfall, points: alignment.flatten((a, b), tolerance) });
+            }
+        }
+        scene.lines.push(Polyline { role: Role::Profile, points: alignment.flatten(range, tolerance) });
+    } else {
+        // Curves that overlap or do not fit: each drawn on its own, so the
+        // designer sees where they clash.
+        for c in analysis.curves.iter().filter(|c| c.length() > 0.0 && in_view(c)) {
+            scene.lines.push(Polyline { role: Role::InvalidCurve, points: flatten_curve(c) });
         }
     }
-    for f in analysis.report.findings.iter().filter(|f| f.code.starts_with("sight.")) {
-        let (a, b) = (f.station_start.0.max(range.0), f.station_end.0.min(range.1));
-        if b > a {
-            scene
-                .lines
-                .push(Polyline { role: Role::Shortfall, points: alignment.flatten((a, b), tolerance) });
-        }
+    for c in analysis.curves.iter().filter(|c| c.length() > 0.0 && failing.contains(&c.index) && in_view(c)) {
+        scene.lines.push(Polyline { role: Role::FailingCurve, points: flatten_curve(c) });
     }
-    for (s, kind) in alignment.key_stations() {
-        if !within(s.0) || kind == KeyPoint::Pvi {
-            continue;
-        }
-        if let Ok(sample) = alignment.sample(s) {
-            scene.markers.push(Marker {
-                role: Role::CurveEnd,
-                at: [s.0, sample.elevation],
-                shape: Shape::Tick,
-            });
-            let name = if kind == KeyPoint::Pvc { "PVC" } else { "PVT" };
+    for c in analysis.curves.iter().filter(|c| c.length() > 0.0) {
+        for (name, s, e) in [("PVC", c.pvc.0, c.pvc_elevation), ("PVT", c.pvt.0, c.pvt_elevation)] {
+            if !within(s) {
+                continue;
+            }
+            scene.markers.push(Marker { role: Role::CurveEnd, at: [s, e], shape: Shape::Tick });
             scene.labels.push(Label {
                 role: Role::CurveLabel,
-                at: [s.0, sample.elevation],
-                lines: vec![format!("{name} {}", label(s.0))],
+                at: [s, e],
+                lines: vec![format!("{name} {}", label(s))],
                 side: Side::Below,
                 priority: 4,
             });
@@ -170,11 +187,11 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
             priority: 1,
         });
     }
-    for check in &analysis.report.curves {
-        let c = &check.curve;
+    for c in &analysis.curves {
         if !within(c.pvi.0) || c.kind == CurveKind::None {
             continue;
         }
+        let check = analysis.report.curves.iter().find(|k| k.curve.index == c.index);
         let y = c.pvi_elevation + c.offset_at_pvi;
         let mut lines = vec![if c.length() > 0.0 {
             if c.ratio_factor() > 1.0 {
@@ -195,12 +212,10 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
             side: Side::Below,
             priority: 2,
         });
-        if !check.ok {
+        if let Some(check) = check.filter(|k| !k.ok) {
             let reason = analysis
-                .report
-                .findings
-                .iter()
-                .find(|f| f.pvi == Some(c.index) && f.severity == gradewright_geometry::Severity::Fail)
+                .findings_at(c.index)
+                .find(|f| f.severity == gradewright_geometry::Severity::Fail)
                 .map_or("fails", |f| f.code);
             let mut text = vec![format!("× FAILS: {reason}")];
             if let (Some(k), Some(min)) = (c.k(), check.k_required)
@@ -234,10 +249,10 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
     for w in pvis.windows(2) {
         let [a, b] = w else { continue };
         let mid = 0.5 * (a.station.0 + b.station.0);
-        if !within(mid) {
+        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
+        if !within(mid) || !grade.is_finite() {
             continue;
         }
-        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
         scene.labels.push(Label {
             role: Role::GradeLabel,
             at: [mid, 0.5 * (a.elevation + b.elevation)],

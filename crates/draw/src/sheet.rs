@@ -5,6 +5,7 @@ use std::fmt::Write as _;
 
 use gradewright_geometry::{Analysis, Severity, Station, Units, format_station};
 
+use crate::place::{Rect, Spacing, place_labels};
 use crate::scene::{Label, Role, Shape, Side, profile_scene};
 
 /// The cautions printed on every sheet.
@@ -146,6 +147,10 @@ const TEXT: f64 = 2.4;
 const SMALL: f64 = 2.0;
 /// The one accent colour (failures); everything else is black and greys.
 const ACCENT: &str = "#b3261e";
+/// Labels on paper: 2.5 mm from their point, stepping 3.9 mm (a line of text
+/// and a millimetre) up to five times; 0.4 mm kept clear each side of the line.
+const LABEL_SPACING: Spacing =
+    Spacing { gap: 2.5, step: TEXT * 1.2 + 1.0, tries: 6, line_clearance: 0.4, piece: 2.0 };
 
 /// Where everything goes on one sheet.
 #[derive(Clone, Debug, PartialEq)]
@@ -220,7 +225,7 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
     };
     let units = analysis.profile.units;
     let (w, h) = (options.size.width_mm, options.size.height_mm);
-    let sight = if options.sight_band && analysis.report.sight.is_some() { SIGHT_BAND } else { 0.0 };
+    let sight = if options.sight_band && analysis.sight.is_some() { SIGHT_BAND } else { 0.0 };
     let frame_w = w - 2.0 * MARGIN - 2.0 * SIDE_LABELS;
     let frame_h = h - 2.0 * MARGIN - TOP - BOTTOM_BLOCK - BAND_ROW - AXIS_LABELS - sight;
     let (start, end) = (alignment.start().0, alignment.end().0);
@@ -320,21 +325,6 @@ fn grid_step(units_per_mm: f64, min_mm: f64) -> f64 {
 
 fn esc(text: &str) -> String {
     text.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
-}
-
-/// A paper rectangle, for keeping labels apart.
-#[derive(Clone, Copy)]
-struct Rect {
-    x0: f64,
-    y0: f64,
-    x1: f64,
-    y1: f64,
-}
-
-impl Rect {
-    fn hits(&self, o: &Self) -> bool {
-        self.x0 < o.x1 && o.x0 < self.x1 && self.y0 < o.y1 && o.y0 < self.y1
-    }
 }
 
 /// Every sheet of the profile as SVG text (mm units).
@@ -478,6 +468,8 @@ fn one_sheet(
                 format!(r#"stroke="{ACCENT}" stroke-width="0.9" stroke-dasharray="1.6 0.8""#)
             }
             Role::Shortfall => format!(r#"stroke="{ACCENT}" stroke-opacity="0.35" stroke-width="2.2""#),
+            Role::Ground => r##"stroke="#555" stroke-width="0.25""##.to_owned(),
+            Role::InvalidCurve => format!(r#"stroke="{ACCENT}" stroke-width="0.5""#),
             _ => r##"stroke="#000" stroke-width="0.2""##.to_owned(),
         };
         let _ = write!(svg, r#"<path class="{:?}" d="{}" {style}/>"#, line.role, path(&line.points));
@@ -525,55 +517,33 @@ fn one_sheet(
     let _ = write!(svg, "</g>");
     // Labels: most important first; each tries its place, then steps away
     // from the line with a leader, and is dropped only when nothing fits.
-    let mut taken: Vec<Rect> = Vec::new();
-    // The profile line itself is kept clear: a box per chord.
-    // Long chords (tangents) are cut into short pieces so their boxes hug the line.
-    for pair in points.windows(2) {
-        let [a, b] = pair else { continue };
-        let (ax, ay, bx, by) = (px(a[0]), py(a[1]), px(b[0]), py(b[1]));
-        let pieces = ((bx - ax).hypot(by - ay) / 2.0).ceil().clamp(1.0, 10_000.0);
-        let mut k = 0.0;
-        while k < pieces {
-            let (t0, t1) = (k / pieces, (k + 1.0) / pieces);
-            let (x0, x1) = (ax + (bx - ax) * t0, ax + (bx - ax) * t1);
-            let (y0, y1) = (ay + (by - ay) * t0, ay + (by - ay) * t1);
-            taken.push(Rect { x0: x0.min(x1), y0: y0.min(y1) - 0.4, x1: x0.max(x1), y1: y0.max(y1) + 0.4 });
-            k += 1.0;
-        }
-    }
-    let mut labels: Vec<&Label> = scene.labels.iter().collect();
-    labels.sort_by_key(|l| l.priority);
-    let mut dropped = 0;
-    for label in labels {
-        let (x, y) = (px(label.at[0]), py(label.at[1]));
-        if x < fx || x > fx + fw {
-            continue;
-        }
-        let size = if label.priority >= 3 { SMALL } else { TEXT };
+    let paper: Vec<[f64; 2]> = points.iter().map(|p| [px(p[0]), py(p[1])]).collect();
+    let size_of = |label: &Label| if label.priority >= 3 { SMALL } else { TEXT };
+    let sizes: Vec<[f64; 2]> = scene
+        .labels
+        .iter()
+        .map(|label| {
+            let size = size_of(label);
+            let chars = label.lines.iter().map(|l| l.chars().count()).max().unwrap_or(0);
+            [chars as f64 * size * 0.52, label.lines.len() as f64 * size * 1.2]
+        })
+        .collect();
+    let placement = place_labels(
+        &scene.labels,
+        &sizes,
+        |a| [px(a[0]), py(a[1])],
+        Rect { x0: fx, y0: fy, x1: fx + fw, y1: fy + fh },
+        &[&paper],
+        LABEL_SPACING,
+    );
+    let dropped = placement.dropped;
+    for placed in &placement.placed {
+        let label = &scene.labels[placed.label];
+        let (rect, [x, y]) = (placed.rect, placed.anchor);
+        let size = size_of(label);
         let line_h = size * 1.2;
-        let width = label.lines.iter().map(|l| l.chars().count()).max().unwrap_or(0) as f64 * size * 0.52;
-        let height = label.lines.len() as f64 * line_h;
-        let mut placed = None;
-        for step in 0..6 {
-            let gap = 2.5 + f64::from(step) * (line_h + 1.0);
-            let top = match label.side {
-                Side::Above => y - gap - height,
-                Side::Below => y + gap,
-            };
-            let rect = Rect { x0: x - width / 2.0, y0: top, x1: x + width / 2.0, y1: top + height };
-            let inside = rect.y0 >= fy && rect.y1 <= fy + fh && rect.x0 >= fx && rect.x1 <= fx + fw;
-            if inside && !taken.iter().any(|t| t.hits(&rect)) {
-                placed = Some((rect, step));
-                break;
-            }
-        }
-        let Some((rect, step)) = placed else {
-            dropped += 1;
-            continue;
-        };
-        taken.push(rect);
         let colour = if label.role == Role::FailLabel { ACCENT } else { "#000" };
-        if step > 0 {
+        if placed.leader {
             let ly = match label.side {
                 Side::Above => rect.y1,
                 Side::Below => rect.y0,
@@ -628,7 +598,7 @@ fn one_sheet(
     }
     // Sight-distance band.
     if options.sight_band
-        && let Some(sight) = analysis.report.sight.as_ref()
+        && let Some(sight) = analysis.sight.as_deref()
     {
         let top = band_y + BAND_ROW + 2.0;
         let height = SIGHT_BAND - 4.0;

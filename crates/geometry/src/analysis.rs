@@ -1,9 +1,13 @@
 //! One analysis of a project, built once and used by every front end: the
 //! command line, the editor and the sheet.
 
+use std::sync::Arc;
+
+use crate::visibility::SightProfile;
 use crate::{
-    Alignment, CheckReport, CriteriaError, CurveGeometry, Finding, Profile, ProfileProblem, Project,
-    ResolvedCriteria, Severity, check_profile, interior_curves, structural_findings,
+    Alignment, CheckReport, CriteriaError, CurveGeometry, Finding, GroundPoint, Profile, ProfileProblem,
+    Project, Pvi, ResolvedCriteria, Severity, check_profile_with_sight, compute_sight, interior_curves,
+    structural_findings,
 };
 
 /// Everything computed from a project: the validated alignment (when the
@@ -14,16 +18,24 @@ use crate::{
 pub struct Analysis {
     /// The profile analysed.
     pub profile: Profile,
+    /// The existing ground line, in station order (empty when there is none).
+    pub ground: Vec<GroundPoint>,
     /// Problems that stop the profile being evaluated.
     pub problems: Vec<ProfileProblem>,
     /// The evaluated profile, when it has no problems.
-    pub alignment: Option<Alignment>,
+    pub alignment: Option<Arc<Alignment>>,
     /// Every interior curve, when the stations are usable.
     pub curves: Vec<CurveGeometry>,
     /// The criteria in force, or why there are none.
     pub criteria: Result<ResolvedCriteria, CriteriaError>,
-    /// Findings, per-curve requirements and the sight distance.
+    /// Findings and per-curve requirements (its `sight` is always `None`:
+    /// the sight distance is [`Analysis::sight`], shared).
     pub report: CheckReport,
+    /// Available and required sight distance along the profile, when the
+    /// profile and the criteria allow it.
+    pub sight: Option<Arc<SightProfile>>,
+    /// The project analysed (kept to tell what a later edit changed).
+    source: Option<Project>,
 }
 
 /// Whether a problem still lets every curve be computed (curves that
@@ -55,25 +67,157 @@ pub fn unchecked_report(profile: &Profile, why: &CriteriaError) -> CheckReport {
 impl Analysis {
     /// Analyses `project` with its own criteria.
     pub fn of(project: &Project) -> Self {
+        Self::after(project, None)
+    }
+
+    /// Analyses `project`, reusing the sight distance of `previous` (the
+    /// analysis of the project before an edit) outside the stretch the edit
+    /// can affect. The result equals [`Analysis::of`] (see the tests).
+    pub fn after(project: &Project, previous: Option<Self>) -> Self {
+        let profile = project.profile();
         let criteria = project.criteria.resolve(project.units);
-        Self::with_criteria(project.profile(), criteria)
+        let alignment = Alignment::new(&profile).ok().map(Arc::new);
+        let sight = match (&alignment, &criteria) {
+            (Some(a), Ok(c)) => sight_after(project, previous, a, c),
+            _ => None,
+        };
+        let mut analysis = Self::assemble(profile, criteria, alignment, sight);
+        analysis.ground.clone_from(&project.ground);
+        analysis.source = Some(project.clone());
+        analysis
+    }
+
+    /// Replaces `self` by the analysis of `project` (the same project after
+    /// an edit), reusing what the edit cannot have changed.
+    pub fn refresh(&mut self, project: &Project) {
+        let empty = Self {
+            profile: Profile::default(),
+            ground: Vec::new(),
+            problems: Vec::new(),
+            alignment: None,
+            curves: Vec::new(),
+            criteria: Err(CriteriaError::NoDesignSpeed),
+            report: CheckReport::default(),
+            sight: None,
+            source: None,
+        };
+        let previous = std::mem::replace(self, empty);
+        *self = Self::after(project, Some(previous));
     }
 
     /// Analyses `profile` against `criteria` (or reports why there are none).
     pub fn with_criteria(profile: Profile, criteria: Result<ResolvedCriteria, CriteriaError>) -> Self {
+        let alignment = Alignment::new(&profile).ok().map(Arc::new);
+        let sight = match (&alignment, &criteria) {
+            (Some(a), Ok(c)) => compute_sight(a, c),
+            _ => None,
+        };
+        Self::assemble(profile, criteria, alignment, sight)
+    }
+
+    fn assemble(
+        profile: Profile,
+        criteria: Result<ResolvedCriteria, CriteriaError>,
+        alignment: Option<Arc<Alignment>>,
+        sight: Option<SightProfile>,
+    ) -> Self {
         let problems = profile.problems();
-        let alignment = Alignment::new(&profile).ok();
         let usable = problems.iter().all(is_design_problem);
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
-        let report = match &criteria {
-            Ok(c) => check_profile(&profile, c),
+        let mut report = match &criteria {
+            Ok(c) => check_profile_with_sight(&profile, c, sight),
             Err(e) => unchecked_report(&profile, e),
         };
-        Self { profile, problems, alignment, curves, criteria, report }
+        let sight = report.sight.take().map(Arc::new);
+        Self {
+            profile,
+            ground: Vec::new(),
+            problems,
+            alignment,
+            curves,
+            criteria,
+            report,
+            sight,
+            source: None,
+        }
     }
 
     /// Whether any finding is a failure.
     pub fn has_failures(&self) -> bool {
         self.report.has_failures()
     }
+
+    /// The sight distance along the profile, when it could be computed.
+    pub fn sight(&self) -> Option<&SightProfile> {
+        self.sight.as_deref()
+    }
+
+    /// Findings that name PVI `index`.
+    pub fn findings_at(&self, index: usize) -> impl Iterator<Item = &Finding> {
+        self.report.findings.iter().filter(move |f| f.pvi == Some(index))
+    }
+
+    /// A short reason a curve fails, for labels: `K 18.0 < 26` or the first
+    /// failing finding's code; empty when it does not fail.
+    pub fn fail_summary(&self, index: usize) -> String {
+        let Some(check) = self.report.curves.iter().find(|c| c.curve.index == index) else {
+            return String::new();
+        };
+        match (check.curve.k(), check.k_required) {
+            (Some(k), Some(min)) if crate::tolerance::below(k, min) => format!("K {k:.1} < {min:.0}"),
+            _ => self
+                .findings_at(index)
+                .find(|f| f.severity == Severity::Fail)
+                .map_or_else(String::new, |f| f.code.to_owned()),
+        }
+    }
+}
+
+/// The sight distance of `project`, recomputed only where an edit since
+/// `previous` can have changed it.
+fn sight_after(
+    project: &Project,
+    previous: Option<Analysis>,
+    alignment: &Alignment,
+    criteria: &ResolvedCriteria,
+) -> Option<SightProfile> {
+    let full = || compute_sight(alignment, criteria);
+    let Some(prev) = previous else { return full() };
+    let Some(old) = prev.source.as_ref() else { return full() };
+    let new = project;
+    let same_frame = old.units == new.units
+        && old.criteria == new.criteria
+        && old.pvis.len() == new.pvis.len()
+        && old.pvis.first().map(|p| p.station) == new.pvis.first().map(|p| p.station)
+        && old.pvis.last().map(|p| p.station) == new.pvis.last().map(|p| p.station);
+    if !same_frame {
+        return full();
+    }
+    let changed: Vec<usize> = (0..new.pvis.len()).filter(|&i| old.pvis.get(i) != new.pvis.get(i)).collect();
+    let unshare = |s: Arc<SightProfile>| Arc::try_unwrap(s).unwrap_or_else(|shared| (*shared).clone());
+    let (Some(&first), Some(&last)) = (changed.first(), changed.last()) else {
+        return prev.sight.map(unshare).or_else(full);
+    };
+    // Moving PVIs first..=last changes the road from the start of the curve at
+    // PVI first − 1 to the end of the curve at PVI last + 1, in the old and the
+    // new profile alike.
+    let extent = |pvis: &[Pvi]| {
+        let lo = first
+            .checked_sub(1)
+            .and_then(|i| pvis.get(i))
+            .map_or(f64::NEG_INFINITY, |p| p.station.0 - p.curve.length_in());
+        let hi = pvis.get(last + 1).map_or(f64::INFINITY, |p| p.station.0 + p.curve.length_out());
+        (lo, hi)
+    };
+    let (a, b) = (extent(&old.pvis), extent(&new.pvis));
+    let Some(shared) = prev.sight else { return full() };
+    let mut sight = unshare(shared);
+    sight.update_after_change(
+        alignment,
+        &criteria.sight_setup(),
+        criteria.sight_requirement(),
+        a.0.min(b.0),
+        a.1.max(b.1),
+    );
+    Some(sight)
 }

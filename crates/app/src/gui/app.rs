@@ -2,10 +2,9 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_geometry::{Project, Pvi, Units, VerticalCurve};
+use gradewright_geometry::{Analysis, Project, Pvi, Units, VerticalCurve};
 
 use super::command::{Action, Edit, REDO_ALT, UiCommand};
-use super::derived::Derived;
 use super::files::AppFiles;
 use super::history::History;
 use super::view::ViewState;
@@ -45,14 +44,14 @@ pub enum Pending {
     Recovery(Box<Project>),
 }
 
-/// The Gradewright editor: project, history, derived data and view state.
+/// The Gradewright editor: project, history, analysis and view state.
 pub struct GradewrightApp {
     project: Project,
     path: Option<PathBuf>,
     saved: Option<Project>,
     history: History,
     drag_origin: Option<Project>,
-    derived: Derived,
+    analysis: Analysis,
     revision: u64,
     /// View state (selection, plot settings, cell buffers).
     pub view: ViewState,
@@ -74,7 +73,7 @@ pub struct GradewrightApp {
 impl GradewrightApp {
     /// The editor on `project`, keeping its own files in `files`.
     pub fn new(project: Project, path: Option<PathBuf>, files: AppFiles) -> Self {
-        let derived = Derived::compute(&project);
+        let analysis = Analysis::of(&project);
         let recent = files.recent();
         // The project as given is the clean state: nothing to lose yet.
         let saved = Some(project.clone());
@@ -84,7 +83,7 @@ impl GradewrightApp {
             saved,
             history: History::default(),
             drag_origin: None,
-            derived,
+            analysis,
             revision: 0,
             view: ViewState::default(),
             files,
@@ -140,9 +139,10 @@ impl GradewrightApp {
         self.path.as_deref()
     }
 
-    /// Derived data for the current project.
-    pub fn derived(&self) -> &Derived {
-        &self.derived
+    /// The analysis of the current project (alignment, curves, criteria,
+    /// findings, sight distance), refreshed on every change.
+    pub fn analysis(&self) -> &Analysis {
+        &self.analysis
     }
 
     /// Recent files, newest first.
@@ -182,7 +182,7 @@ impl GradewrightApp {
 
     fn changed(&mut self) {
         self.revision += 1;
-        self.derived.refresh(&self.project);
+        self.analysis.refresh(&self.project);
         if let Some(sel) = self.view.selected
             && sel >= self.project.pvis.len()
         {
@@ -493,14 +493,14 @@ impl GradewrightApp {
             Action::FitView => self.view.request_fit(),
             Action::Focus(index) => {
                 self.view.selected = Some(index);
-                self.view.request_focus(&self.project, &self.derived, index);
+                self.view.request_focus(&self.project, &self.analysis, index);
             }
             Action::Select(index) => {
                 self.view.selected = (index < self.project.pvis.len()).then_some(index);
             }
             Action::ZoomToSelection => {
                 if let Some(index) = self.view.selected {
-                    self.view.request_focus(&self.project, &self.derived, index);
+                    self.view.request_focus(&self.project, &self.analysis, index);
                 }
             }
             Action::MakeSymmetric(index) => {
@@ -532,7 +532,7 @@ impl GradewrightApp {
                 }
             },
             Action::LengthenAll => {
-                let targets = self.derived.report.failing_curves();
+                let targets = self.analysis.report.failing_curves();
                 if targets.is_empty() {
                     self.notice =
                         Some(Notice { error: false, text: "No curve fails; nothing to lengthen".to_owned() });
@@ -546,7 +546,7 @@ impl GradewrightApp {
     /// "Lengthen to clear" on the curves at `targets`, as one undo step; the
     /// outcome of each curve is shown.
     pub fn lengthen(&mut self, targets: &[usize]) {
-        let Ok(criteria) = self.derived.criteria.clone() else {
+        let Ok(criteria) = self.analysis.criteria.clone() else {
             self.notice = Some(Notice { error: true, text: "Set a design speed first".to_owned() });
             return;
         };
@@ -563,7 +563,7 @@ impl GradewrightApp {
 
     /// Inserts a PVI at `station` on the profile (refused on a curve).
     pub fn insert_at(&mut self, station: f64) {
-        let Some(alignment) = self.derived.alignment.clone() else {
+        let Some(alignment) = self.analysis.alignment.clone() else {
             self.notice = Some(Notice {
                 error: true,
                 text: "Fix the profile's problems before inserting PVIs".to_owned(),
@@ -581,7 +581,7 @@ impl GradewrightApp {
                 let len = units.length_symbol();
                 let increment = self.view.lengthen_increment;
                 let chosen =
-                    self.derived.criteria.as_ref().ok().and_then(|c| {
+                    self.analysis.criteria.as_ref().ok().and_then(|c| {
                         gradewright_geometry::default_curve_length(&probe, c, index, increment)
                     });
                 let at = gradewright_geometry::format_station(pvi.station.0, units, units.station_decimals());

@@ -121,7 +121,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             ui.end_row();
         }
 
-        let resolved = app.derived().criteria.clone();
+        let resolved = app.analysis().criteria.clone();
         if let Ok(r) = &resolved {
             ui.label("Sag rule in force").on_hover_text("Follows the headlight check");
             ui.label(RichText::new(r.sag_rule().label()).strong());
@@ -169,7 +169,7 @@ pub fn criteria_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             ui.end_row();
         }
     });
-    if let Err(e) = &app.derived().criteria {
+    if let Err(e) = &app.analysis().criteria {
         ui.label(RichText::new(format!("⚠ Checks are off: {e}")).color(palette.warn));
     }
 }

@@ -15,7 +15,7 @@ use super::theme::Palette;
 pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let palette = Palette::of(ui);
     let units = app.project().units;
-    let findings = &app.derived().report.findings;
+    let findings = &app.analysis().report.findings;
     let count = |s| findings.iter().filter(|f| f.severity == s).count();
     ui.label(format!(
         "{} fail · {} warn · {} info",

@@ -8,7 +8,6 @@ mod app;
 mod cell;
 mod command;
 mod criteria_ui;
-mod derived;
 mod export_ui;
 mod files;
 mod findings_ui;
@@ -24,7 +23,6 @@ use std::path::{Path, PathBuf};
 pub use about_ui::CAUTION_SHORT;
 pub use app::{DEMO_PROJECT, DragLock, GradewrightApp, Notice, Pending};
 pub use command::{Action, Edit, UiCommand};
-pub use derived::Derived;
 pub use files::{AppFiles, default_config_dir};
 pub use view::{CellId, PviColumn, ViewState};
 

@@ -5,11 +5,13 @@ use egui::{Align2, Pos2, RichText};
 use egui_plot::{
     Legend, Line, LineStyle, MarkerShape, Plot, PlotBounds, PlotPoint, PlotPoints, Points, Text,
 };
-use gradewright_geometry::{CurveKind, Station, format_station};
+use gradewright_draw::{
+    Label, Placement, Rect, Role, Scene, Shape, Side, Spacing, place_labels, profile_scene,
+};
+use gradewright_geometry::{Station, format_station};
 
 use super::app::GradewrightApp;
 use super::command::Action;
-use super::derived::curve_polyline;
 use super::theme::Palette;
 use super::view::ViewRequest;
 
@@ -121,7 +123,7 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
     if hovering_handle {
         ui.ctx().set_cursor_icon(egui::CursorIcon::Grab);
     }
-    let alignment = app.derived().alignment.clone();
+    let alignment = app.analysis().alignment.clone();
     let station_decimals = units.station_decimals();
     let dragging = app.view.dragging.is_some();
     let plot = Plot::new("profile-plot")
@@ -285,184 +287,184 @@ fn fit_bounds(app: &GradewrightApp) -> Option<PlotBounds> {
     Some(PlotBounds::from_min_max([x0 - dx, y0 - dy], [x1 + dx, y1 + dy]))
 }
 
-#[allow(clippy::too_many_lines)]
-fn draw_items(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Palette) {
+/// What the plot draws for one revision and view: the scene (decided in the
+/// drawing crate) and its labels placed in screen points.
+#[derive(Clone, Debug)]
+pub struct PlotScene {
+    key: (u64, [u64; 4], [u32; 4]),
+    scene: Scene,
+    placement: Placement,
+    line_height: Vec<f32>,
+}
+
+/// Text size of labels by priority (the most important a little larger).
+fn label_size(label: &Label) -> f32 {
+    if label.priority <= 1 { LABEL_SIZE } else { LABEL_SIZE - 1.0 }
+}
+
+/// Labels on screen: 8 points from their point, stepping 16 points up to
+/// five times; 3 points kept clear each side of the profile.
+const LABEL_SPACING: Spacing = Spacing { gap: 8.0, step: 16.0, tries: 6, line_clearance: 3.0, piece: 6.0 };
+
+/// The scene for the view in force, rebuilt only when the project, the view
+/// or the plot's size changed.
+fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<PlotScene>) -> PlotScene {
+    let transform = *pui.transform();
+    let bounds = transform.bounds();
+    let frame = *transform.frame();
+    let key = (
+        app.revision(),
+        [bounds.min()[0], bounds.min()[1], bounds.max()[0], bounds.max()[1]].map(f64::to_bits),
+        [frame.min.x, frame.min.y, frame.max.x, frame.max.y].map(f32::to_bits),
+    );
+    if let Some(c) = cached
+        && c.key == key
+    {
+        return c;
+    }
+    // The profile in view, to half a screen point of chord error.
+    let dy = 1.0 / transform.dpos_dvalue_y().abs().max(1e-12);
+    let scene = profile_scene(app.analysis(), (bounds.min()[0], bounds.max()[0]), 0.5 * dy);
+    let (sizes, line_height): (Vec<[f64; 2]>, Vec<f32>) = pui.ctx().fonts_mut(|fonts| {
+        scene
+            .labels
+            .iter()
+            .map(|label| {
+                let font = egui::FontId::proportional(label_size(label));
+                let row = fonts.row_height(&font);
+                let width = label
+                    .lines
+                    .iter()
+                    .map(|l| l.chars().map(|c| fonts.glyph_width(&font, c)).sum::<f32>())
+                    .fold(0.0, f32::max);
+                #[allow(clippy::cast_precision_loss)]
+                let height = row * label.lines.len() as f32;
+                ([f64::from(width + 4.0), f64::from(height)], row)
+            })
+            .unzip()
+    });
+    let to_screen = |a: [f64; 2]| {
+        let p = transform.position_from_point(&PlotPoint::new(a[0], a[1]));
+        [f64::from(p.x), f64::from(p.y)]
+    };
+    let kept_clear: Vec<Vec<[f64; 2]>> = scene
+        .lines
+        .iter()
+        .filter(|l| matches!(l.role, Role::Profile | Role::InvalidCurve))
+        .map(|l| l.points.iter().map(|&p| to_screen(p)).collect())
+        .collect();
+    let lines: Vec<&[[f64; 2]]> = kept_clear.iter().map(Vec::as_slice).collect();
+    let screen = Rect {
+        x0: f64::from(frame.min.x),
+        y0: f64::from(frame.min.y),
+        x1: f64::from(frame.max.x),
+        y1: f64::from(frame.max.y),
+    };
+    let placement = place_labels(&scene.labels, &sizes, to_screen, screen, &lines, LABEL_SPACING);
+    PlotScene { key, scene, placement, line_height }
+}
+
+/// The legend name and look of a line role.
+fn line_style(role: Role, palette: Palette) -> (&'static str, egui::Color32, f32, LineStyle) {
+    match role {
+        Role::Ground => ("Existing ground", palette.ground, 1.5, LineStyle::Solid),
+        Role::GradeLine => ("Grade lines", palette.grade_line, 1.0, LineStyle::dashed_loose()),
+        Role::Shortfall => ("Sight falls short", palette.shortfall, 7.0, LineStyle::Solid),
+        Role::InvalidCurve => ("Profile (invalid)", palette.fail, 2.0, LineStyle::Solid),
+        Role::FailingCurve => ("Failing curve", palette.fail, 4.0, LineStyle::dashed_dense()),
+        _ => ("Profile", palette.profile, 2.0, LineStyle::Solid),
+    }
+}
+
+/// The legend name, look and size of a marker.
+fn marker_style(
+    role: Role,
+    shape: Shape,
+    palette: Palette,
+) -> (&'static str, MarkerShape, egui::Color32, f32) {
+    let shape = match shape {
+        Shape::Circle => MarkerShape::Circle,
+        Shape::Tick => MarkerShape::Square,
+        Shape::Triangle { up: true } => MarkerShape::Up,
+        Shape::Triangle { up: false } => MarkerShape::Down,
+        Shape::Cross => MarkerShape::Cross,
+    };
+    match role {
+        Role::Pvi => ("PVI", shape, palette.handle, 5.0),
+        Role::CurveEnd => ("PVC / PVT", shape, palette.marks, 3.0),
+        Role::HighLow => ("High / low point", shape, palette.marks, 5.0),
+        _ => ("Failing curve", shape, palette.fail, 9.0),
+    }
+}
+
+fn draw_items(app: &mut GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Palette) {
+    let cached = app.view.plot_scene.take();
+    let drawn = plot_scene(app, pui, cached);
+    let transform = *pui.transform();
+    let scene = &drawn.scene;
+    for line in &scene.lines {
+        if line.points.len() < 2 {
+            continue;
+        }
+        let (name, colour, width, style) = line_style(line.role, palette);
+        pui.line(
+            Line::new(name, PlotPoints::from(line.points.clone())).color(colour).width(width).style(style),
+        );
+    }
+    // Markers grouped by role and shape: one plot item each.
+    let mut groups: Vec<(Role, Shape, Vec<[f64; 2]>)> = Vec::new();
+    for m in &scene.markers {
+        match groups.iter_mut().find(|g| g.0 == m.role && g.1 == m.shape) {
+            Some(g) => g.2.push(m.at),
+            None => groups.push((m.role, m.shape, vec![m.at])),
+        }
+    }
+    for (role, shape, at) in groups {
+        let (name, shape, colour, radius) = marker_style(role, shape, palette);
+        pui.points(Points::new(name, PlotPoints::from(at)).shape(shape).radius(radius).color(colour));
+    }
+    let to_plot = |x: f64, y: f64| {
+        #[allow(clippy::cast_possible_truncation)]
+        let pos = Pos2::new(x as f32, y as f32);
+        transform.value_from_position(pos)
+    };
+    for (placed, label) in drawn.placement.placed.iter().map(|p| (p, &scene.labels[p.label])) {
+        let colour = if label.role == Role::FailLabel { palette.fail } else { palette.text };
+        let (rect, [x, y]) = (placed.rect, placed.anchor);
+        if placed.leader {
+            let end = match label.side {
+                Side::Above => rect.y1,
+                Side::Below => rect.y0,
+            };
+            let (a, b) = (to_plot(x, y), to_plot(x, end));
+            pui.line(Line::new("", vec![[a.x, a.y], [b.x, b.y]]).color(palette.grade_line).width(0.7));
+        }
+        let row = f64::from(drawn.line_height.get(placed.label).copied().unwrap_or(LABEL_SIZE));
+        for (k, text) in label.lines.iter().enumerate() {
+            #[allow(clippy::cast_precision_loss)]
+            let at = to_plot(x, rect.y0 + row * k as f64);
+            let mut rich = RichText::new(text).size(label_size(label)).color(colour);
+            if k == 0 && label.priority <= 1 {
+                // The colour goes on the text itself: strong text would
+                // otherwise take the theme's strong colour.
+                rich = rich.strong();
+            }
+            pui.text(Text::new("", at, rich).anchor(Align2::CENTER_TOP).color(colour));
+        }
+    }
+    app.view.plot_scene = Some(drawn);
+    draw_overlays(app, pui, palette);
+}
+
+/// What belongs to the editor alone: the readout beside a dragged PVI and
+/// the ring round the selected one.
+fn draw_overlays(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Palette) {
     let project = app.project();
-    let derived = app.derived();
     let units = project.units;
-    // Screen offsets in plot units, for labels above and below points.
     let dy = 1.0 / pui.transform().dpos_dvalue_y().abs().max(1e-12);
     let up = |points: f64| points * dy;
     let dx = 1.0 / pui.transform().dpos_dvalue_x().abs().max(1e-12);
     let right = |points: f64| points * dx;
-    // Labels only where they can be read: in view and not crowded.
-    let bounds = pui.plot_bounds();
-    let (x_min, x_max) = (bounds.min()[0], bounds.max()[0]);
-    let points_per_unit = pui.transform().dpos_dvalue_x().abs();
-    let visible = |x: f64| x >= x_min && x <= x_max;
-    let spacing = |i: usize| {
-        let gap = |j: usize, k: usize| match (project.pvis.get(j), project.pvis.get(k)) {
-            (Some(a), Some(b)) => (b.station - a.station) * points_per_unit,
-            _ => f64::INFINITY,
-        };
-        gap(i.wrapping_sub(1), i).min(gap(i, i + 1))
-    };
-
-    if !project.ground.is_empty() {
-        let ground: Vec<[f64; 2]> = project.ground.iter().map(|g| [g.station, g.elevation]).collect();
-        pui.line(Line::new("Existing ground", PlotPoints::from(ground)).color(palette.ground).width(1.5));
-    }
-    pui.line(
-        Line::new("Grade lines", PlotPoints::from(derived.grade_line.clone()))
-            .color(palette.grade_line)
-            .style(LineStyle::dashed_loose())
-            .width(1.0),
-    );
-    // The profile in view, to half a screen point of chord error.
-    let view_line = derived
-        .alignment
-        .as_ref()
-        .map(|a| super::derived::polyline_within(a.segments(), (x_min, x_max), 0.5 * dy))
-        .unwrap_or_default();
-    if derived.alignment.is_none() {
-        // Curves that overlap: draw each on its own so the designer sees them.
-        for c in &derived.curves {
-            pui.line(
-                Line::new("Profile (invalid)", PlotPoints::from(curve_polyline(c)))
-                    .color(palette.fail)
-                    .width(2.0),
-            );
-        }
-    }
-    // Stretches where the sight distance falls short, along the profile.
-    for f in derived.report.findings.iter().filter(|f| f.code.starts_with("sight.")) {
-        let (a, b) = (f.station_start.0.min(f.station_end.0), f.station_start.0.max(f.station_end.0));
-        if b < x_min || a > x_max {
-            continue;
-        }
-        let Some(alignment) = derived.alignment.as_ref() else { break };
-        let at = |x: f64| alignment.sample(gradewright_geometry::Station(x)).ok().map(|p| [x, p.elevation]);
-        let range = view_line.partition_point(|p| p[0] <= a)..view_line.partition_point(|p| p[0] < b);
-        let inner = view_line.get(range).unwrap_or(&[]);
-        let stretch: Vec<[f64; 2]> = at(a).into_iter().chain(inner.iter().copied()).chain(at(b)).collect();
-        if stretch.len() >= 2 {
-            pui.line(
-                Line::new("Sight falls short", PlotPoints::from(stretch)).color(palette.shortfall).width(7.0),
-            );
-        }
-    }
-    if !view_line.is_empty() {
-        pui.line(Line::new("Profile", PlotPoints::from(view_line)).color(palette.profile).width(2.0));
-    }
-    let failing: Vec<usize> = derived.report.curves.iter().filter(|c| !c.ok).map(|c| c.curve.index).collect();
-    for c in derived
-        .curves
-        .iter()
-        .filter(|c| failing.contains(&c.index) && c.length() > 0.0 && c.pvt.0 >= x_min && c.pvc.0 <= x_max)
-    {
-        pui.line(
-            Line::new("Failing curve", PlotPoints::from(curve_polyline(c)))
-                .color(palette.fail)
-                .width(4.0)
-                .style(LineStyle::dashed_dense()),
-        );
-    }
-    // PVC and PVT marks.
-    let ends: Vec<[f64; 2]> = derived
-        .curves
-        .iter()
-        .filter(|c| c.length() > 0.0)
-        .flat_map(|c| [[c.pvc.0, c.pvc_elevation], [c.pvt.0, c.pvt_elevation]])
-        .collect();
-    pui.points(
-        Points::new("PVC / PVT", PlotPoints::from(ends))
-            .shape(MarkerShape::Square)
-            .radius(3.0)
-            .color(palette.marks),
-    );
-    // High and low points.
-    for c in &derived.curves {
-        if let Some((s, e)) = c.turning
-            && visible(s.0)
-            && spacing(c.index) >= 45.0
-        {
-            // The label goes to the right of the mark: clear of the PVI's own
-            // label above it and of the selection ring, whose label is on the left.
-            let (shape, label) = match c.kind {
-                CurveKind::Crest => (MarkerShape::Up, "HP"),
-                _ => (MarkerShape::Down, "LP"),
-            };
-            let (anchor, offset) = (Align2::LEFT_CENTER, 0.0);
-            pui.points(
-                Points::new("High / low point", vec![[s.0, e]]).shape(shape).radius(5.0).color(palette.marks),
-            );
-            pui.text(
-                Text::new(
-                    "",
-                    PlotPoint::new(s.0 + right(14.0), e + offset),
-                    RichText::new(label).size(LABEL_SIZE).color(palette.marks),
-                )
-                .anchor(anchor)
-                .color(palette.marks),
-            );
-        }
-    }
-    // Grade labels at the middle of each grade line.
-    for pair in project.pvis.windows(2) {
-        let [a, b] = pair else { continue };
-        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
-        if !grade.is_finite() {
-            continue;
-        }
-        let x = 0.5 * (a.station.0 + b.station.0);
-        if !visible(x) || (b.station - a.station) * points_per_unit < 70.0 {
-            continue;
-        }
-        let y = 0.5 * (a.elevation + b.elevation) - up(10.0);
-        pui.text(
-            Text::new("", PlotPoint::new(x, y), RichText::new(format!("{grade:+.2} %")).size(LABEL_SIZE))
-                .anchor(Align2::CENTER_TOP)
-                .color(palette.text),
-        );
-    }
-    // PVI handles and labels.
-    let handles: Vec<[f64; 2]> = project.pvis.iter().map(|p| [p.station.0, p.elevation]).collect();
-    pui.points(
-        Points::new("PVI", PlotPoints::from(handles))
-            .shape(MarkerShape::Circle)
-            .radius(5.0)
-            .color(palette.handle),
-    );
-    for (i, p) in project.pvis.iter().enumerate() {
-        let fails = failing.contains(&i);
-        if !visible(p.station.0) || (!fails && spacing(i) < 45.0) {
-            continue;
-        }
-        let (text, color) = if fails {
-            (format!("✖ PVI {} {}", i + 1, derived.fail_summary(i)), palette.fail)
-        } else {
-            (format!("PVI {}", i + 1), palette.text)
-        };
-        // The colour goes on the text itself: strong text would otherwise
-        // take the theme's strong colour, whatever the plot item says.
-        pui.text(
-            Text::new(
-                "",
-                PlotPoint::new(p.station.0, p.elevation + up(12.0)),
-                RichText::new(text).strong().size(LABEL_SIZE).color(color),
-            )
-            .anchor(Align2::CENTER_BOTTOM)
-            .color(color),
-        );
-        if failing.contains(&i) {
-            pui.points(
-                Points::new("Failing curve", vec![[p.station.0, p.elevation]])
-                    .shape(MarkerShape::Cross)
-                    .radius(9.0)
-                    .color(palette.fail),
-            );
-        }
-    }
     // While dragging: where the PVI is and the grades it makes, by the pointer.
     if let Some(i) = app.view.dragging
         && let Some(p) = project.pvis.get(i)

@@ -41,13 +41,13 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let palette = Palette::of(ui);
     let units = app.project().units;
     let len = units.length_symbol();
-    let Some(sight) = app.derived().sight.clone() else {
+    let Some(sight) = app.analysis().sight.clone() else {
         // Say what stops it: the criteria, or the first problem of the profile.
-        let derived = app.derived();
-        let reason = match (&derived.criteria, derived.problems.first()) {
+        let analysis = app.analysis();
+        let reason = match (&analysis.criteria, analysis.problems.first()) {
             (Err(e), _) => format!("Sight distance is not shown: {e}"),
             (Ok(_), Some(problem)) => {
-                let more = derived.problems.len() - 1;
+                let more = analysis.problems.len() - 1;
                 let more = if more > 0 { format!(" (and {more} more problem(s))") } else { String::new() };
                 format!("Sight distance is not shown until this is fixed: {problem}{more}")
             }
@@ -77,7 +77,7 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let cap = sight.cap;
     let top = sight.samples.iter().map(|s| s.forward.max(s.backward)).fold(0.0, f64::max);
     let shortfalls: Vec<(f64, f64)> = app
-        .derived()
+        .analysis()
         .report
         .findings
         .iter()

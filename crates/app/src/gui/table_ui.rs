@@ -192,9 +192,9 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
         }
     }
     // Derived columns; the grades and K may be typed too.
-    let derived = app.derived();
-    let curve = derived.curves.iter().find(|c| c.index == i).copied();
-    let check = derived.report.curves.iter().find(|c| c.curve.index == i).cloned();
+    let analysis = app.analysis();
+    let curve = analysis.curves.iter().find(|c| c.index == i).copied();
+    let check = analysis.report.curves.iter().find(|c| c.curve.index == i).cloned();
     let grade = |a: &Pvi, b: &Pvi| (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
     let pvis = app.project().pvis.clone();
     let previous = i.checked_sub(1).and_then(|j| pvis.get(j)).copied();
@@ -310,10 +310,10 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     ui.label(optional(k_min, 0));
     ui.label(optional(check.as_ref().map(|c| c.length_required).filter(|l| *l > 0.0), 1))
         .on_hover_text("Total length the criteria ask for, at this curve's back:ahead ratio");
-    let derived = app.derived();
+    let analysis = app.analysis();
     let messages: Vec<String> =
-        derived.findings_at(i).map(|f| format!("[{}] {}", f.severity.key(), f.message)).collect();
-    let worst = derived.report.worst_at(i);
+        analysis.findings_at(i).map(|f| format!("[{}] {}", f.severity.key(), f.message)).collect();
+    let worst = analysis.report.worst_at(i);
     let status = ui.label(status_text(worst, palette));
     if !messages.is_empty() {
         status.on_hover_text(messages.join("\n"));

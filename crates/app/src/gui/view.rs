@@ -5,8 +5,6 @@ use std::collections::HashMap;
 use egui_plot::PlotTransform;
 use gradewright_geometry::Project;
 
-use super::derived::Derived;
-
 /// What the plot should show on the next frame.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum ViewRequest {
@@ -105,6 +103,8 @@ pub struct ViewState {
     pub show_export: bool,
     /// The export window's preview.
     pub preview: super::export_ui::Preview,
+    /// What the plot drew last frame (reused while nothing changed).
+    pub plot_scene: Option<super::plot_ui::PlotScene>,
 }
 
 impl Default for ViewState {
@@ -128,6 +128,7 @@ impl Default for ViewState {
             show_curve_points: true,
             show_export: false,
             preview: super::export_ui::Preview::default(),
+            plot_scene: None,
         }
     }
 }
@@ -139,10 +140,15 @@ impl ViewState {
     }
 
     /// Brings PVI `index` and its curve into view on the next frame.
-    pub fn request_focus(&mut self, project: &Project, derived: &Derived, index: usize) {
+    pub fn request_focus(
+        &mut self,
+        project: &Project,
+        analysis: &gradewright_geometry::Analysis,
+        index: usize,
+    ) {
         let Some(pvi) = project.pvis.get(index) else { return };
         self.scroll_to_row = Some(index);
-        let curve = derived.curves.iter().find(|c| c.index == index);
+        let curve = analysis.curves.iter().find(|c| c.index == index);
         let (mut x0, mut x1) = match curve {
             Some(c) if c.length() > 0.0 => (c.pvc.0, c.pvt.0),
             _ => (pvi.station.0, pvi.station.0),
