@@ -29,10 +29,12 @@ fn geometry_has_no_gui_dependency() {
 }
 
 #[test]
-fn sheet_has_no_gui_dependency() {
-    let deps = normal_dependencies("gradewright-sheet");
+fn exchange_has_no_gui_dependency() {
+    let deps = normal_dependencies("gradewright-exchange");
+    assert!(deps.iter().any(|d| d == "gradewright-geometry"), "{deps:?}");
+    assert!(!deps.iter().any(|d| d == "gradewright-draw"), "exchange formats need no drawing");
     for gui in GUI {
-        assert!(!deps.iter().any(|d| d == gui), "sheet depends on {gui}");
+        assert!(!deps.iter().any(|d| d == gui), "exchange depends on {gui}");
     }
 }
 
@@ -40,7 +42,7 @@ fn sheet_has_no_gui_dependency() {
 fn draw_has_no_gui_dependency() {
     let deps = normal_dependencies("gradewright-draw");
     assert!(deps.iter().any(|d| d == "gradewright-geometry"), "{deps:?}");
-    assert!(!deps.iter().any(|d| d == "gradewright-sheet"), "the drawing model needs no exchange format");
+    assert!(!deps.iter().any(|d| d == "gradewright-exchange"), "the drawing model needs no exchange format");
     for gui in GUI {
         assert!(!deps.iter().any(|d| d == gui), "draw depends on {gui}");
     }

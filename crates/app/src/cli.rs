@@ -281,14 +281,14 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                         input.display()
                     );
                 }
-                gradewright_sheet::interval_stations(&alignment, interval)
+                gradewright_exchange::interval_stations(&alignment, interval)
             } else {
                 at.iter()
                     .map(|text| parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}")))
                     .collect::<anyhow::Result<Vec<_>>>()?
             };
             let mut buffer = Vec::new();
-            gradewright_sheet::write_station_table(&mut buffer, &alignment, &stations, decimals).map_err(
+            gradewright_exchange::write_station_table(&mut buffer, &alignment, &stations, decimals).map_err(
                 |e| {
                     if at.is_empty() { anyhow!("{}: {e}", input.display()) } else { anyhow!("--at: {e}") }
                 },
@@ -316,7 +316,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 );
             };
             let mut buffer = Vec::new();
-            gradewright_sheet::write_sight_table(&mut buffer, &sight)
+            gradewright_exchange::write_sight_table(&mut buffer, &sight)
                 .map_err(|e| anyhow!("{}: {e}", input.display()))?;
             print(&buffer)?;
             Ok(ExitCode::SUCCESS)
@@ -521,7 +521,7 @@ fn write_like_input(
     let is_csv = input.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv"));
     if is_csv {
         let mut buffer = Vec::new();
-        gradewright_sheet::write_pvi_csv(&mut buffer, &project.pvis, project.units)?;
+        gradewright_exchange::write_pvi_csv(&mut buffer, &project.pvis, project.units)?;
         gradewright_geometry::write_atomic(output, &buffer, true)?;
     } else {
         project.save(output)?;

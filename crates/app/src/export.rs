@@ -190,15 +190,15 @@ pub fn render(
             Units::Metric => 20.0,
             Units::UsCustomary => 50.0,
         });
-        let stations = gradewright_sheet::interval_stations(alignment, interval);
+        let stations = gradewright_exchange::interval_stations(alignment, interval);
         let mut buffer = Vec::new();
-        gradewright_sheet::write_stations_csv(&mut buffer, alignment, &stations)?;
+        gradewright_exchange::write_stations_csv(&mut buffer, alignment, &stations)?;
         files.push((dir.join("stations.csv"), buffer));
         let mut buffer = Vec::new();
-        gradewright_sheet::write_curves_csv(&mut buffer, analysis)?;
+        gradewright_exchange::write_curves_csv(&mut buffer, analysis)?;
         files.push((dir.join("curves.csv"), buffer));
         let mut buffer = Vec::new();
-        gradewright_sheet::write_findings_csv(&mut buffer, analysis)?;
+        gradewright_exchange::write_findings_csv(&mut buffer, analysis)?;
         files.push((dir.join("findings.csv"), buffer));
     }
     Ok(files)

@@ -54,7 +54,7 @@ pub fn load_input(path: &Path, units: Option<Units>) -> anyhow::Result<Input> {
             bail!("{}: a CSV PVI table needs --units metric|us", path.display());
         };
         let file = std::fs::File::open(path).with_context(|| format!("{}", path.display()))?;
-        let table = gradewright_sheet::read_pvi_csv(std::io::BufReader::new(file), path, units)?;
+        let table = gradewright_exchange::read_pvi_csv(std::io::BufReader::new(file), path, units)?;
         let name = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
         let mut project = Project::new(name, units);
         project.pvis = table.pvis;

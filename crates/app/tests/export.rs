@@ -145,7 +145,10 @@ fn the_demo_sheet_in_every_format() {
         csv::Reader::from_path(csv.join("findings.csv")).unwrap_or_else(|e| panic!("{e}")).records().count();
     assert_eq!(findings, analysis.report.findings.len());
     let stations = csv::Reader::from_path(csv.join("stations.csv")).unwrap_or_else(|e| panic!("{e}"));
-    assert_eq!(stations.into_records().count(), gradewright_sheet::interval_stations(alignment, 20.0).len());
+    assert_eq!(
+        stations.into_records().count(),
+        gradewright_exchange::interval_stations(alignment, 20.0).len()
+    );
 }
 
 /// At 1:1000 the 2 km demo needs several sheets: numbered files, one PDF page

@@ -583,3 +583,42 @@ fn export_window_previews_and_writes_the_sheet() {
     let text = h.state().project().to_ron().unwrap_or_default();
     assert!(text.contains("designer: \"Q. Checker\""), "the choices are saved with the project");
 }
+
+/// File ▸ Export tables…: only the three tables are written, at the interval
+/// chosen, into the folder chosen (made when it does not exist).
+#[test]
+fn export_tables_writes_only_the_tables() {
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-tables-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let mut h = demo();
+    h.get_by_label("File").click();
+    h.run();
+    h.get_by_label("Export tables…").click();
+    h.run();
+    assert!(h.state().view.show_tables_export);
+    let mut project = h.state().project().clone();
+    project.export.tables_path = dir.join("hand-over").to_string_lossy().into_owned();
+    project.export.interval = Some(50.0);
+    h.state_mut().apply_edit(gradewright::gui::Edit::Replace(Box::new(project)));
+    h.run();
+    h.get_by_label("Write tables").click();
+    h.run();
+    let folder = dir.join("hand-over");
+    let mut names: Vec<String> = std::fs::read_dir(&folder)
+        .unwrap_or_else(|e| panic!("{e}"))
+        .filter_map(Result::ok)
+        .map(|e| e.file_name().to_string_lossy().into_owned())
+        .collect();
+    names.sort();
+    assert_eq!(names, ["curves.csv", "findings.csv", "stations.csv"]);
+    assert!(std::fs::read_dir(&dir).unwrap_or_else(|e| panic!("{e}")).count() == 1, "no sheet written");
+    // Every 50 m plus every PVC, PVI and PVT of the demo.
+    let project = h.state().project().clone();
+    let analysis = gradewright_geometry::Analysis::of(&project);
+    let alignment = analysis.alignment.as_ref().unwrap_or_else(|| panic!("valid demo"));
+    let expected = gradewright_exchange::interval_stations(alignment, 50.0).len();
+    let mut reader = csv::Reader::from_path(folder.join("stations.csv")).unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(reader.records().count(), expected);
+    let _ = std::fs::remove_dir_all(&dir);
+}

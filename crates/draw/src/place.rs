@@ -106,18 +106,22 @@ impl Taken {
 
 /// Places `labels` inside `frame`. `sizes` are the labels' sizes (width,
 /// height) in output coordinates, one per label; `to_out` maps a profile
-/// point (station, elevation) there; `lines` (output coordinates) are kept
-/// clear.
+/// point (station, elevation) there; `lines` and `blocked` (output
+/// coordinates) are kept clear.
 pub fn place_labels(
     labels: &[Label],
     sizes: &[[f64; 2]],
     to_out: impl Fn([f64; 2]) -> [f64; 2],
     frame: Rect,
-    lines: &[&[[f64; 2]]],
+    (lines, blocked): (&[&[[f64; 2]]], &[Rect]),
     spacing: Spacing,
 ) -> Placement {
-    let cell = ((frame.x1 - frame.x0).max(frame.y1 - frame.y0) / 64.0).max(spacing.piece);
+    // Cells about the size of a short label: a query looks at a few cells.
+    let cell = ((frame.x1 - frame.x0).max(frame.y1 - frame.y0) / 24.0).max(spacing.piece);
     let mut taken = Taken::new(cell);
+    for r in blocked {
+        taken.add(*r);
+    }
     let half = spacing.line_clearance;
     for line in lines {
         for pair in line.windows(2) {
@@ -192,7 +196,7 @@ mod tests {
     fn labels_step_away_then_drop_the_least_important() {
         let frame = Rect { x0: 0.0, y0: 0.0, x1: 100.0, y1: 20.0 };
         let labels: Vec<Label> = (0..5).map(|k| label([50.0, 15.0], 4 - k)).collect();
-        let p = place_labels(&labels, &[[10.0, 2.0]; 5], |a| a, frame, &[], SPACING);
+        let p = place_labels(&labels, &[[10.0, 2.0]; 5], |a| a, frame, (&[], &[]), SPACING);
         // Three places above the point fit (gap 1, 4, 7 with height 2), in
         // priority order; the two least important labels are dropped.
         assert_eq!(p.placed.len(), 3);
@@ -211,9 +215,20 @@ mod tests {
         let frame = Rect { x0: 0.0, y0: 0.0, x1: 100.0, y1: 40.0 };
         // A line 2 above the point: the label's own place would cross it.
         let line = [[0.0, 13.0], [100.0, 13.0]];
-        let p = place_labels(&[label([50.0, 15.0], 0)], &[[10.0, 2.0]], |a| a, frame, &[&line], SPACING);
+        let p =
+            place_labels(&[label([50.0, 15.0], 0)], &[[10.0, 2.0]], |a| a, frame, (&[&line], &[]), SPACING);
         let rect = p.placed[0].rect;
         assert!(rect.y1 <= 13.0 - 0.5 || rect.y0 >= 13.0 + 0.5, "{rect:?}");
+        assert!(p.placed[0].leader);
+    }
+
+    #[test]
+    fn blocked_boxes_are_kept_clear() {
+        let frame = Rect { x0: 0.0, y0: 0.0, x1: 100.0, y1: 40.0 };
+        let blocked = Rect { x0: 40.0, y0: 10.0, x1: 60.0, y1: 14.0 };
+        let p =
+            place_labels(&[label([50.0, 15.0], 0)], &[[10.0, 2.0]], |a| a, frame, (&[], &[blocked]), SPACING);
+        assert!(!p.placed[0].rect.hits(&blocked));
         assert!(p.placed[0].leader);
     }
 }

@@ -132,8 +132,14 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
         role: Role::GradeLine,
         points: pvis.iter().map(|p| [p.station.0, p.elevation]).collect(),
     });
-    let failing: Vec<usize> =
-        analysis.report.curves.iter().filter(|c| !c.ok).map(|c| c.curve.index).collect();
+    // The check of each PVI's curve, by PVI index.
+    let mut checks: Vec<Option<&gradewright_geometry::CurveCheck>> = vec![None; pvis.len()];
+    for check in &analysis.report.curves {
+        if let Some(slot) = checks.get_mut(check.curve.index) {
+            *slot = Some(check);
+        }
+    }
+    let fails = |i: usize| checks.get(i).copied().flatten().is_some_and(|c| !c.ok);
     let in_view = |c: &gradewright_geometry::CurveGeometry| c.pvt.0 >= range.0 && c.pvc.0 <= range.1;
     let flatten_curve = |c: &gradewright_geometry::CurveGeometry| {
         let segments: Vec<_> = c.segments().into_iter().flatten().collect();
@@ -156,7 +162,7 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
             scene.lines.push(Polyline { role: Role::InvalidCurve, points: flatten_curve(c) });
         }
     }
-    for c in analysis.curves.iter().filter(|c| c.length() > 0.0 && failing.contains(&c.index) && in_view(c)) {
+    for c in analysis.curves.iter().filter(|c| c.length() > 0.0 && fails(c.index) && in_view(c)) {
         scene.lines.push(Polyline { role: Role::FailingCurve, points: flatten_curve(c) });
     }
     for c in analysis.curves.iter().filter(|c| c.length() > 0.0) {
@@ -191,7 +197,7 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
         if !within(c.pvi.0) || c.kind == CurveKind::None {
             continue;
         }
-        let check = analysis.report.curves.iter().find(|k| k.curve.index == c.index);
+        let check = checks.get(c.index).copied().flatten();
         let y = c.pvi_elevation + c.offset_at_pvi;
         let mut lines = vec![if c.length() > 0.0 {
             if c.ratio_factor() > 1.0 {

@@ -533,7 +533,7 @@ fn one_sheet(
         &sizes,
         |a| [px(a[0]), py(a[1])],
         Rect { x0: fx, y0: fy, x1: fx + fw, y1: fy + fh },
-        &[&paper],
+        (&[&paper], &[]),
         LABEL_SPACING,
     );
     let dropped = placement.dropped;

@@ -112,6 +112,10 @@ pub struct ExportSettings {
     /// Where: the sheet files are this path with each format's extension, the
     /// tables go in a folder of this name.
     pub path: String,
+    /// Station interval of `stations.csv`; `None` is 20 m or 50 ft.
+    pub interval: Option<f64>,
+    /// Folder for File ▸ Export tables… (empty: beside the project file).
+    pub tables_path: String,
 }
 
 impl Default for ExportSettings {
@@ -133,6 +137,8 @@ impl Default for ExportSettings {
             pdf: true,
             tables: true,
             path: String::new(),
+            interval: None,
+            tables_path: String::new(),
         }
     }
 }

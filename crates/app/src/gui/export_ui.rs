@@ -48,7 +48,7 @@ pub fn request(settings: &ExportSettings, base: &std::path::Path) -> crate::expo
         h_scale: settings.h_scale,
         v_scale: settings.v_scale,
         overlap: settings.overlap,
-        interval: None,
+        interval: settings.interval,
         title: gradewright_draw::TitleBlock {
             project: String::new(),
             road: settings.road.clone(),
@@ -74,16 +74,42 @@ impl GradewrightApp {
         }
     }
 
+    /// Where File ▸ Export tables… writes: the settings' folder, else
+    /// `NAME-tables` beside the project file.
+    pub fn tables_dir(&self) -> PathBuf {
+        let settings = &self.project().export;
+        if !settings.tables_path.trim().is_empty() {
+            return PathBuf::from(settings.tables_path.trim());
+        }
+        let mut dir = self.export_base().into_os_string();
+        dir.push("-tables");
+        PathBuf::from(dir)
+    }
+
+    /// Writes only the tables (stations, curves, findings) to
+    /// [`GradewrightApp::tables_dir`]; the outcome is shown in the status line.
+    pub fn export_tables_now(&mut self) -> bool {
+        let dir = self.tables_dir();
+        let mut request = request(&self.project().export, &dir);
+        (request.png, request.svg, request.pdf) = (None, None, None);
+        request.csv_dir = Some(dir.clone());
+        self.write_export(&request, &dir)
+    }
+
     /// Exports as the settings say; the outcome is shown in the status line.
     pub fn export_now(&mut self) -> bool {
         let base = self.export_base();
         let request = request(&self.project().export, &base);
-        let result = crate::export::plan(&request).and_then(|plan| {
+        self.write_export(&request, &base)
+    }
+
+    fn write_export(&mut self, request: &crate::export::Request, base: &std::path::Path) -> bool {
+        let result = crate::export::plan(request).and_then(|plan| {
             let analysis = Analysis::of(self.project());
             if let Some(problem) = analysis.problems.first() {
                 anyhow::bail!("the profile has problems to fix first: {problem}");
             }
-            let files = crate::export::render(&plan, &request, &analysis, self.project())?;
+            let files = crate::export::render(&plan, request, &analysis, self.project())?;
             crate::export::write_all(&files)?;
             Ok(files.len())
         });
@@ -101,6 +127,76 @@ impl GradewrightApp {
             }
         }
     }
+}
+
+/// The interval of `stations.csv`, typed (empty: the default).
+fn interval_ui(ui: &mut egui::Ui, settings: &mut ExportSettings, units: gradewright_geometry::Units) {
+    let name = ui.label("Stations table every");
+    let mut text = settings.interval.map_or_else(String::new, |v| format!("{v}"));
+    let hint = match units {
+        gradewright_geometry::Units::Metric => "20 m (empty: 20)",
+        gradewright_geometry::Units::UsCustomary => "50 ft (empty: 50)",
+    };
+    if ui
+        .add(egui::TextEdit::singleline(&mut text).hint_text(hint).desired_width(160.0))
+        .labelled_by(name.id)
+        .on_hover_text("Plus every PVC, PVI and PVT")
+        .changed()
+    {
+        settings.interval = text.trim().parse::<f64>().ok().filter(|v| v.is_finite() && *v > 0.0);
+    }
+    ui.end_row();
+}
+
+/// File ▸ Export tables…: the three hand-over tables on their own.
+pub fn tables_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
+    let mut open = app.view.show_tables_export;
+    if !open {
+        return;
+    }
+    let mut settings = app.project().export.clone();
+    let mut export = false;
+    egui::Window::new("Export tables").open(&mut open).default_width(560.0).show(ctx, |ui| {
+        ui.label("Three CSV files (RFC 4180, units in the column names) that open in a spreadsheet:");
+        ui.label("  stations.csv — station, elevation and grade at the interval and at every PVC, PVI, PVT");
+        ui.label("  curves.csv — every PVI and its curve: grades, L, A, K, minimum K, required L, status");
+        ui.label("  findings.csv — every check result: severity, code, stations, message");
+        egui::Grid::new("tables-grid").num_columns(2).spacing([8.0, 4.0]).show(ui, |ui| {
+            interval_ui(ui, &mut settings, app.project().units);
+            let target = ui.label("Folder");
+            let mut path = if settings.tables_path.is_empty() {
+                app.tables_dir().display().to_string()
+            } else {
+                settings.tables_path.clone()
+            };
+            if ui
+                .add(egui::TextEdit::singleline(&mut path).desired_width(420.0))
+                .labelled_by(target.id)
+                .on_hover_text("Made if it does not exist (its parent must)")
+                .changed()
+            {
+                settings.tables_path = path;
+            }
+            ui.end_row();
+        });
+        ui.horizontal(|ui| {
+            if ui.button("Write tables").clicked() {
+                export = true;
+            }
+            ui.label(
+                RichText::new("Results must be checked by a licensed engineer; local codes govern.").weak(),
+            );
+        });
+    });
+    if settings != app.project().export {
+        let mut project = app.project().clone();
+        project.export = settings;
+        app.push(Action::edit(Edit::Replace(Box::new(project))));
+    }
+    if export {
+        app.export_tables_now();
+    }
+    app.view.show_tables_export = open;
 }
 
 /// The export window.
@@ -157,6 +253,7 @@ pub fn export_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
                 )
                 .labelled_by(name.id);
             ui.end_row();
+            interval_ui(ui, &mut settings, units);
             let name2 = ui.label("PNG resolution");
             let _ = ui
                 .add(egui::DragValue::new(&mut settings.dpi).range(10.0..=600.0).suffix(" dpi"))

@@ -64,6 +64,7 @@ impl GradewrightApp {
         about_ui::about_ui(self, &ctx);
         self.path_dialog_ui(&ctx);
         export_ui::export_ui(self, &ctx);
+        export_ui::tables_ui(self, &ctx);
         self.dialogs_ui(&ctx);
         self.apply_queued(&ctx);
         self.autosave(ctx.input(|i| i.time));
@@ -105,6 +106,10 @@ impl GradewrightApp {
                 });
                 if ui.button("Export sheet and tables…").clicked() {
                     self.view.show_export = true;
+                    ui.close();
+                }
+                if ui.button("Export tables…").clicked() {
+                    self.view.show_tables_export = true;
                     ui.close();
                 }
                 if ui.button("Open or save by path…").clicked() {

@@ -1,6 +1,8 @@
 //! The profile plot: tangents and true parabolas, PVI handles that drag,
 //! PVC/PVT and high/low marks, grade labels, failing curves flagged.
 
+use std::collections::HashMap;
+
 use egui::{Align2, Pos2, RichText};
 use egui_plot::{
     Legend, Line, LineStyle, MarkerShape, Plot, PlotBounds, PlotPoint, PlotPoints, Points, Text,
@@ -291,7 +293,7 @@ fn fit_bounds(app: &GradewrightApp) -> Option<PlotBounds> {
 /// drawing crate) and its labels placed in screen points.
 #[derive(Clone, Debug)]
 pub struct PlotScene {
-    key: (u64, [u64; 4], [u32; 4]),
+    key: (u64, [u64; 4], [u32; 4], Option<usize>),
     scene: Scene,
     placement: Placement,
     line_height: Vec<f32>,
@@ -316,6 +318,7 @@ fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<
         app.revision(),
         [bounds.min()[0], bounds.min()[1], bounds.max()[0], bounds.max()[1]].map(f64::to_bits),
         [frame.min.x, frame.min.y, frame.max.x, frame.max.y].map(f32::to_bits),
+        app.view.dragging,
     );
     if let Some(c) = cached
         && c.key == key
@@ -326,17 +329,38 @@ fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<
     let dy = 1.0 / transform.dpos_dvalue_y().abs().max(1e-12);
     let scene = profile_scene(app.analysis(), (bounds.min()[0], bounds.max()[0]), 0.5 * dy);
     let (sizes, line_height): (Vec<[f64; 2]>, Vec<f32>) = pui.ctx().fonts_mut(|fonts| {
+        // Labels use few distinct characters: ask the fonts once for each
+        // (a table for ASCII, a map for the rest).
+        let mut ascii: HashMap<u32, [f32; 128]> = HashMap::new();
+        let mut widths: HashMap<(char, u32), f32> = HashMap::new();
+        let mut rows: HashMap<u32, f32> = HashMap::new();
         scene
             .labels
             .iter()
             .map(|label| {
-                let font = egui::FontId::proportional(label_size(label));
-                let row = fonts.row_height(&font);
-                let width = label
-                    .lines
-                    .iter()
-                    .map(|l| l.chars().map(|c| fonts.glyph_width(&font, c)).sum::<f32>())
-                    .fold(0.0, f32::max);
+                let size = label_size(label);
+                let font = egui::FontId::proportional(size);
+                let row = *rows.entry(size.to_bits()).or_insert_with(|| fonts.row_height(&font));
+                let table = ascii.entry(size.to_bits()).or_insert_with(|| {
+                    let mut t = [0.0; 128];
+                    for (c, w) in (0u8..128).zip(t.iter_mut()) {
+                        *w = fonts.glyph_width(&font, char::from(c));
+                    }
+                    t
+                });
+                let mut width: f32 = 0.0;
+                for l in &label.lines {
+                    let mut w = 0.0;
+                    for c in l.chars() {
+                        w += match table.get(c as usize) {
+                            Some(&known) => known,
+                            None => *widths
+                                .entry((c, size.to_bits()))
+                                .or_insert_with(|| fonts.glyph_width(&font, c)),
+                        };
+                    }
+                    width = width.max(w);
+                }
                 #[allow(clippy::cast_precision_loss)]
                 let height = row * label.lines.len() as f32;
                 ([f64::from(width + 4.0), f64::from(height)], row)
@@ -360,7 +384,26 @@ fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<
         x1: f64::from(frame.max.x),
         y1: f64::from(frame.max.y),
     };
-    let placement = place_labels(&scene.labels, &sizes, to_screen, screen, &lines, LABEL_SPACING);
+    // The drag readout is drawn over the plot: labels keep clear of it.
+    let blocked: Vec<Rect> = drag_readout(app)
+        .map(|(at, text)| {
+            let (width, rows) = pui.ctx().fonts_mut(|fonts| {
+                let font = egui::FontId::proportional(LABEL_SIZE);
+                let width = text
+                    .lines()
+                    .map(|l| l.chars().map(|c| fonts.glyph_width(&font, c)).sum::<f32>())
+                    .fold(0.0, f32::max);
+                #[allow(clippy::cast_precision_loss)]
+                let rows = fonts.row_height(&font) * text.lines().count() as f32;
+                (f64::from(width), f64::from(rows))
+            });
+            let [x, y] = to_screen(at);
+            let offset = f64::from(READOUT_OFFSET);
+            Rect { x0: x + offset, y0: y + offset, x1: x + offset + width + 4.0, y1: y + offset + rows }
+        })
+        .into_iter()
+        .collect();
+    let placement = place_labels(&scene.labels, &sizes, to_screen, screen, (&lines, &blocked), LABEL_SPACING);
     PlotScene { key, scene, placement, line_height }
 }
 
@@ -456,37 +499,47 @@ fn draw_items(app: &mut GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette
     draw_overlays(app, pui, palette);
 }
 
+/// How far (points) the drag readout sits right of and below the PVI.
+const READOUT_OFFSET: f32 = 18.0;
+
+/// The readout beside a PVI being dragged: where it is and the grades it
+/// makes.
+fn drag_readout(app: &GradewrightApp) -> Option<([f64; 2], String)> {
+    let project = app.project();
+    let units = project.units;
+    let i = app.view.dragging?;
+    let p = project.pvis.get(i)?;
+    let grade = |a: &gradewright_geometry::Pvi, b: &gradewright_geometry::Pvi| {
+        (b.elevation - a.elevation) / (b.station - a.station) * 100.0
+    };
+    let g1 = i.checked_sub(1).and_then(|j| project.pvis.get(j)).map(|a| grade(a, p));
+    let g2 = project.pvis.get(i + 1).map(|b| grade(p, b));
+    let pct = |g: Option<f64>| g.map_or_else(|| "—".to_owned(), |g| format!("{g:+.3} %"));
+    let text = format!(
+        "{}\nel. {:.3} {}\ng1 {} · g2 {}",
+        format_station(p.station.0, units, units.station_decimals()),
+        p.elevation,
+        units.length_symbol(),
+        pct(g1),
+        pct(g2)
+    );
+    Some(([p.station.0, p.elevation], text))
+}
+
 /// What belongs to the editor alone: the readout beside a dragged PVI and
 /// the ring round the selected one.
 fn draw_overlays(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette: Palette) {
     let project = app.project();
-    let units = project.units;
     let dy = 1.0 / pui.transform().dpos_dvalue_y().abs().max(1e-12);
     let up = |points: f64| points * dy;
     let dx = 1.0 / pui.transform().dpos_dvalue_x().abs().max(1e-12);
     let right = |points: f64| points * dx;
     // While dragging: where the PVI is and the grades it makes, by the pointer.
-    if let Some(i) = app.view.dragging
-        && let Some(p) = project.pvis.get(i)
-    {
-        let grade = |a: &gradewright_geometry::Pvi, b: &gradewright_geometry::Pvi| {
-            (b.elevation - a.elevation) / (b.station - a.station) * 100.0
-        };
-        let g1 = i.checked_sub(1).and_then(|j| project.pvis.get(j)).map(|a| grade(a, p));
-        let g2 = project.pvis.get(i + 1).map(|b| grade(p, b));
-        let pct = |g: Option<f64>| g.map_or_else(|| "—".to_owned(), |g| format!("{g:+.3} %"));
-        let text = format!(
-            "{}\nel. {:.3} {}\ng1 {} · g2 {}",
-            format_station(p.station.0, units, units.station_decimals()),
-            p.elevation,
-            units.length_symbol(),
-            pct(g1),
-            pct(g2)
-        );
+    if let Some((at, text)) = drag_readout(app) {
         pui.text(
             Text::new(
                 "",
-                PlotPoint::new(p.station.0 + right(18.0), p.elevation - up(18.0)),
+                PlotPoint::new(at[0] + right(READOUT_OFFSET.into()), at[1] - up(READOUT_OFFSET.into())),
                 RichText::new(text).size(LABEL_SIZE).strong().color(palette.selected),
             )
             .anchor(Align2::LEFT_TOP)
@@ -503,22 +556,6 @@ fn draw_overlays(app: &GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette:
                 .filled(false)
                 .radius(10.0)
                 .color(palette.selected),
-        );
-        let label = format!(
-            "{}  el. {:.3} {}",
-            format_station(p.station.0, units, units.station_decimals()),
-            p.elevation,
-            units.length_symbol()
-        );
-        // Left of the ring, not under it: high and low point labels are on the right.
-        pui.text(
-            Text::new(
-                "",
-                PlotPoint::new(p.station.0 - right(14.0), p.elevation),
-                RichText::new(label).size(LABEL_SIZE).color(palette.selected),
-            )
-            .anchor(Align2::RIGHT_CENTER)
-            .color(palette.selected),
         );
     }
 }

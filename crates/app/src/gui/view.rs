@@ -101,6 +101,8 @@ pub struct ViewState {
     pub show_curve_points: bool,
     /// Whether the export window is open.
     pub show_export: bool,
+    /// Whether the tables-only export window is open.
+    pub show_tables_export: bool,
     /// The export window's preview.
     pub preview: super::export_ui::Preview,
     /// What the plot drew last frame (reused while nothing changed).
@@ -127,6 +129,7 @@ impl Default for ViewState {
             checked_revision: 0,
             show_curve_points: true,
             show_export: false,
+            show_tables_export: false,
             preview: super::export_ui::Preview::default(),
             plot_scene: None,
         }
