@@ -1,9 +1,9 @@
 #!/usr/bin/env bash
-# Starts the release binary under Xvfb with Mesa's software OpenGL, waits for
+# Starts the binary (the one `cargo test` built, or $GUI_SMOKE_BIN) under Xvfb with Mesa's software OpenGL, waits for
 # its window, checks it stays up, closes it with Ctrl+Q and fails on a crash.
 set -euo pipefail
 cd "$(dirname "$0")/.."
-bin=target/release/gradewright
+bin=${GUI_SMOKE_BIN:-target/debug/gradewright}
 display=:97
 work=$(mktemp -d)
 trap 'kill "${xvfb_pid:-0}" "${app_pid:-0}" 2>/dev/null || true; rm -rf "$work"' EXIT
