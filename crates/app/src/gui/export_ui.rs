@@ -4,7 +4,7 @@
 use std::path::PathBuf;
 
 use egui::RichText;
-use gradewright_geometry::{Analysis, ExportSettings};
+use gradewright_geometry::ExportSettings;
 
 use super::app::{GradewrightApp, Notice};
 use super::command::{Action, Edit};
@@ -105,11 +105,11 @@ impl GradewrightApp {
 
     fn write_export(&mut self, request: &crate::export::Request, base: &std::path::Path) -> bool {
         let result = crate::export::plan(request).and_then(|plan| {
-            let analysis = Analysis::of(self.project());
+            let analysis = self.analysis();
             if let Some(problem) = analysis.problems.first() {
                 anyhow::bail!("the profile has problems to fix first: {problem}");
             }
-            let files = crate::export::render(&plan, request, &analysis, self.project())?;
+            let files = crate::export::render(&plan, request, analysis, self.project())?;
             crate::export::write_all(&files)?;
             Ok(files.len())
         });
@@ -127,6 +127,21 @@ impl GradewrightApp {
             }
         }
     }
+}
+
+/// A path field in a grid row, showing `default` until the user types one.
+fn path_ui(ui: &mut egui::Ui, label: &str, value: &mut String, default: &std::path::Path, hint: &str) {
+    let target = ui.label(label);
+    let mut path = if value.is_empty() { default.display().to_string() } else { value.clone() };
+    if ui
+        .add(egui::TextEdit::singleline(&mut path).desired_width(420.0))
+        .labelled_by(target.id)
+        .on_hover_text(hint)
+        .changed()
+    {
+        *value = path;
+    }
+    ui.end_row();
 }
 
 /// The interval of `stations.csv`, typed (empty: the default).
@@ -163,21 +178,14 @@ pub fn tables_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
         ui.label("  findings.csv — every check result: severity, code, stations, message");
         egui::Grid::new("tables-grid").num_columns(2).spacing([8.0, 4.0]).show(ui, |ui| {
             interval_ui(ui, &mut settings, app.project().units);
-            let target = ui.label("Folder");
-            let mut path = if settings.tables_path.is_empty() {
-                app.tables_dir().display().to_string()
-            } else {
-                settings.tables_path.clone()
-            };
-            if ui
-                .add(egui::TextEdit::singleline(&mut path).desired_width(420.0))
-                .labelled_by(target.id)
-                .on_hover_text("Made if it does not exist (its parent must)")
-                .changed()
-            {
-                settings.tables_path = path;
-            }
-            ui.end_row();
+            let default = app.tables_dir();
+            path_ui(
+                ui,
+                "Folder",
+                &mut settings.tables_path,
+                &default,
+                "Made if it does not exist (its parent must)",
+            );
         });
         ui.horizontal(|ui| {
             if ui.button("Write tables").clicked() {
@@ -279,30 +287,23 @@ pub fn export_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
                 ui.checkbox(&mut settings.sight_band, "Sight-distance band");
             });
             ui.end_row();
-            let target = ui.label("Write to");
-            let mut path = if settings.path.is_empty() {
-                app.export_base().display().to_string()
-            } else {
-                settings.path.clone()
-            };
-            if ui
-                .add(egui::TextEdit::singleline(&mut path).desired_width(420.0))
-                .labelled_by(target.id)
-                .on_hover_text("Each format adds its extension; the tables go in NAME-tables/")
-                .changed()
-            {
-                settings.path = path;
-            }
-            ui.end_row();
+            let default = app.export_base();
+            path_ui(
+                ui,
+                "Write to",
+                &mut settings.path,
+                &default,
+                "Each format adds its extension; the tables go in NAME-tables/",
+            );
         });
         // The preview: sheet 1, drawn from the same SVG the export writes.
         let key = (app.revision(), format!("{settings:?}"));
         if app.view.preview.key.as_ref() != Some(&key) {
-            let analysis = Analysis::of(app.project());
+            let analysis = app.analysis();
             let req = request(&settings, &app.export_base());
             let drawn = crate::export::plan(&req).and_then(|plan| {
                 let options = crate::export::sheet_options(&plan, &req, app.project());
-                let svgs = gradewright_draw::sheet_svgs(&analysis, &options)?;
+                let svgs = gradewright_draw::sheet_svgs(analysis, &options)?;
                 let first = svgs.first().ok_or_else(|| anyhow::anyhow!("no sheet"))?;
                 let (w, h, pixels) = gradewright_draw::raster(first, 40.0)?;
                 Ok((svgs.len(), w, h, pixels))
