@@ -105,6 +105,20 @@ pub enum Command {
         #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
     },
+    /// Merge an existing-ground profile (CSV) into a project, replacing its ground
+    Import {
+        /// Project file (.ron) or PVI table (.csv)
+        input: PathBuf,
+        /// Units of a CSV input (and of the ground file's stations)
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+        /// Existing ground: station,elevation per row (header optional; comma, semicolon or tab)
+        #[arg(long, value_name = "FILE")]
+        ground: Option<PathBuf>,
+        /// Where to write the project (.ron)
+        #[arg(short, long)]
+        output: PathBuf,
+    },
     /// Hand the design over: the profile sheet (SVG, PNG, PDF) and the tables (CSV)
     Export {
         /// Project file (.ron) or PVI table (.csv)
@@ -359,6 +373,38 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             text.push_str(&format!("Wrote {} ({remaining} failing finding(s) remain).\n", output.display()));
             print(text.as_bytes())?;
             Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
+        }
+        Some(Command::Import { input, units, ground, output }) => {
+            crate::export::check_file("-o", &output)?;
+            if !output.extension().is_some_and(|e| e.eq_ignore_ascii_case("ron")) {
+                bail!("{}: -o: the output is a project file; give it the extension .ron", output.display());
+            }
+            let Some(ground) = ground else { bail!("nothing to import: give --ground FILE") };
+            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let file =
+                std::fs::File::open(&ground).map_err(|e| anyhow!("{}: --ground: {e}", ground.display()))?;
+            let table = gradewright_exchange::read_ground_csv(
+                std::io::BufReader::new(file),
+                &ground,
+                loaded.project.units,
+            )?;
+            let mut text = String::new();
+            for w in &table.warnings {
+                text.push_str(&format!("warning: {w}\n"));
+            }
+            let (first, last) = (table.points[0].station, table.points[table.points.len() - 1].station);
+            let units = loaded.project.units;
+            text.push_str(&format!(
+                "{} ground point(s) from {} to {}; wrote {}\n",
+                table.points.len(),
+                gradewright_geometry::format_station(first, units, units.station_decimals()),
+                gradewright_geometry::format_station(last, units, units.station_decimals()),
+                output.display()
+            ));
+            loaded.project.ground = table.points;
+            loaded.project.save(&output)?;
+            print(text.as_bytes())?;
+            Ok(ExitCode::SUCCESS)
         }
         Some(Command::Export {
             input,

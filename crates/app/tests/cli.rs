@@ -274,3 +274,35 @@ fn unequal_tangent_curve_reports_the_total_length_needed() {
     assert!(text.contains("needs L ≥ 950.00 m in all"), "{text}");
     assert!(text.contains("950.00  FAIL"), "{text}");
 }
+
+/// `import --ground` merges a ground profile (semicolon-delimited, with a
+/// byte-order mark, unsorted) into the project: sorted, with a warning, and
+/// the rest of the project kept.
+#[test]
+fn import_merges_the_ground_into_the_project() {
+    let ground = temp_file(
+        "ground-import.csv",
+        "\u{feff}station;elevation\r\n0+040;213.1\r\n0+000;212.0\r\n0+020;212.6\r\n",
+    );
+    let out = std::env::temp_dir().join(format!("gradewright-cli-{}/with-ground.ron", std::process::id()));
+    let _ = std::fs::remove_file(&out);
+    let o = run(&[
+        "import",
+        &asset("alder-brook-road.ron").to_string_lossy(),
+        "--ground",
+        &ground.to_string_lossy(),
+        "-o",
+        &out.to_string_lossy(),
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let text = stdout(&o);
+    assert!(text.contains("sorted"), "{text}");
+    assert!(text.contains("3 ground point(s) from 0+000.000 to 0+040.000"), "{text}");
+    let project = gradewright_geometry::Project::load(&out).unwrap_or_else(|e| panic!("{e}"));
+    let points: Vec<(f64, f64)> = project.ground.iter().map(|g| (g.station, g.elevation)).collect();
+    assert_eq!(points, vec![(0.0, 212.0), (20.0, 212.6), (40.0, 213.1)]);
+    let original =
+        gradewright_geometry::Project::load(&asset("alder-brook-road.ron")).unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(project.pvis, original.pvis);
+    assert_eq!(project.criteria, original.criteria);
+}

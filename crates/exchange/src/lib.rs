@@ -2,10 +2,12 @@
 //! hand-over tables (stations, curves, findings) as CSV.
 //! Depends on the geometry crate only; every writer takes any `impl Write`.
 
+mod ground_csv;
 mod hand_over;
 mod pvi_csv;
 mod table;
 
+pub use ground_csv::{GroundTable, read_ground_csv};
 pub use hand_over::{curves_header, write_curves_csv, write_findings_csv, write_stations_csv};
 pub use pvi_csv::{CsvError, PviTable, read_pvi_csv, write_pvi_csv};
 pub use table::{
