@@ -129,6 +129,15 @@ impl GradewrightApp {
     }
 }
 
+/// Keeps changed export choices with the project (one undoable edit).
+fn keep_settings(app: &mut GradewrightApp, settings: ExportSettings) {
+    if settings != app.project().export {
+        let mut project = app.project().clone();
+        project.export = settings;
+        app.push(Action::edit(Edit::Replace(Box::new(project))));
+    }
+}
+
 /// A path field in a grid row, showing `default` until the user types one.
 fn path_ui(ui: &mut egui::Ui, label: &str, value: &mut String, default: &std::path::Path, hint: &str) {
     let target = ui.label(label);
@@ -196,11 +205,7 @@ pub fn tables_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
             );
         });
     });
-    if settings != app.project().export {
-        let mut project = app.project().clone();
-        project.export = settings;
-        app.push(Action::edit(Edit::Replace(Box::new(project))));
-    }
+    keep_settings(app, settings);
     if export {
         app.export_tables_now();
     }
@@ -352,11 +357,7 @@ pub fn export_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
             );
         });
     });
-    if settings != app.project().export {
-        let mut project = app.project().clone();
-        project.export = settings;
-        app.push(Action::edit(Edit::Replace(Box::new(project))));
-    }
+    keep_settings(app, settings);
     if export {
         app.export_now();
     }
