@@ -105,19 +105,45 @@ pub enum Command {
         #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
     },
-    /// Merge an existing-ground profile (CSV) into a project, replacing its ground
+    /// Merge existing ground and/or control points (CSV) into a project, replacing what it had
     Import {
         /// Project file (.ron) or PVI table (.csv)
         input: PathBuf,
-        /// Units of a CSV input (and of the ground file's stations)
+        /// Units of a CSV input (and of the ground and controls files' stations)
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Existing ground: station,elevation per row (header optional; comma, semicolon or tab)
         #[arg(long, value_name = "FILE")]
         ground: Option<PathBuf>,
+        /// Control points: header station,kind,elevation,tolerance,name; kind fixed, min or max
+        #[arg(long, value_name = "FILE")]
+        controls: Option<PathBuf>,
         /// Where to write the project (.ron)
         #[arg(short, long)]
         output: PathBuf,
+    },
+    /// Centreline earthwork for a level typical section, as CSV
+    Earthwork {
+        /// Project file (.ron) or PVI table (.csv); it needs ground
+        input: PathBuf,
+        /// Units of a CSV input
+        #[arg(long, value_enum)]
+        units: Option<UnitsArg>,
+        /// Roadway width W (m or ft)
+        #[arg(long, allow_negative_numbers = true)]
+        width: f64,
+        /// Cut slope, horizontal per unit rise (2 for 2:1)
+        #[arg(long, allow_negative_numbers = true)]
+        cut_slope: f64,
+        /// Fill slope, horizontal per unit rise
+        #[arg(long, allow_negative_numbers = true)]
+        fill_slope: f64,
+        /// Shrinkage of cut placed as fill, percent (default 0)
+        #[arg(long, allow_negative_numbers = true)]
+        shrinkage: Option<f64>,
+        /// Station interval (default 20 m or 50 ft); grade points, PVCs, PVIs and PVTs are added
+        #[arg(long, allow_negative_numbers = true)]
+        interval: Option<f64>,
     },
     /// Hand the design over: the profile sheet (SVG, PNG, PDF) and the tables (CSV)
     Export {
@@ -274,13 +300,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 let len = project.units.length_symbol();
                 let (interval, given) = match interval {
                     Some(v) => (v, true),
-                    None => (
-                        match project.units {
-                            Units::Metric => 20.0,
-                            Units::UsCustomary => 50.0,
-                        },
-                        false,
-                    ),
+                    None => (project.units.table_interval(), false),
                 };
                 let span = alignment.end() - alignment.start();
                 if span / interval > 1.0e7 {
@@ -302,11 +322,16 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                     .collect::<anyhow::Result<Vec<_>>>()?
             };
             let mut buffer = Vec::new();
-            gradewright_exchange::write_station_table(&mut buffer, &alignment, &stations, decimals).map_err(
-                |e| {
-                    if at.is_empty() { anyhow!("{}: {e}", input.display()) } else { anyhow!("--at: {e}") }
-                },
-            )?;
+            gradewright_exchange::write_station_table(
+                &mut buffer,
+                &alignment,
+                &project.ground,
+                &stations,
+                decimals,
+            )
+            .map_err(|e| {
+                if at.is_empty() { anyhow!("{}: {e}", input.display()) } else { anyhow!("--at: {e}") }
+            })?;
             print(&buffer)?;
             Ok(ExitCode::SUCCESS)
         }
@@ -354,8 +379,13 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             });
             let before = Analysis::of(project);
             let targets = before.report.failing_curves();
-            let (fitted, outcomes) =
-                gradewright_geometry::lengthen_to_clear(&before.profile, &criteria, &targets, increment);
+            let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(
+                &before.profile,
+                &criteria,
+                &loaded.project.controls,
+                &targets,
+                increment,
+            );
             let mut out = project.clone();
             out.pvis = fitted.pvis;
             let after = Analysis::of(&out).report;
@@ -374,36 +404,102 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(text.as_bytes())?;
             Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
-        Some(Command::Import { input, units, ground, output }) => {
+        Some(Command::Import { input, units, ground, controls, output }) => {
             crate::export::check_file("-o", &output)?;
             if !output.extension().is_some_and(|e| e.eq_ignore_ascii_case("ron")) {
                 bail!("{}: -o: the output is a project file; give it the extension .ron", output.display());
             }
-            let Some(ground) = ground else { bail!("nothing to import: give --ground FILE") };
-            let mut loaded = load_input(&input, units.map(Into::into))?;
-            let file =
-                std::fs::File::open(&ground).map_err(|e| anyhow!("{}: --ground: {e}", ground.display()))?;
-            let table = gradewright_exchange::read_ground_csv(
-                std::io::BufReader::new(file),
-                &ground,
-                loaded.project.units,
-            )?;
-            let mut text = String::new();
-            for w in &table.warnings {
-                text.push_str(&format!("warning: {w}\n"));
+            if ground.is_none() && controls.is_none() {
+                bail!("nothing to import: give --ground FILE and/or --controls FILE");
             }
-            let (first, last) = (table.points[0].station, table.points[table.points.len() - 1].station);
+            let mut loaded = load_input(&input, units.map(Into::into))?;
             let units = loaded.project.units;
-            text.push_str(&format!(
-                "{} ground point(s) from {} to {}; wrote {}\n",
-                table.points.len(),
-                gradewright_geometry::format_station(first, units, units.station_decimals()),
-                gradewright_geometry::format_station(last, units, units.station_decimals()),
-                output.display()
-            ));
-            loaded.project.ground = table.points;
+            let open = |flag: &str, path: &std::path::Path| {
+                std::fs::File::open(path)
+                    .map(std::io::BufReader::new)
+                    .map_err(|e| anyhow!("{}: {flag}: {e}", path.display()))
+            };
+            let label = |s: f64| gradewright_geometry::format_station(s, units, units.station_decimals());
+            let mut text = String::new();
+            if let Some(ground) = ground {
+                let table =
+                    gradewright_exchange::read_ground_csv(open("--ground", &ground)?, &ground, units)?;
+                for w in &table.warnings {
+                    text.push_str(&format!("warning: {w}\n"));
+                }
+                let range = (table.points.first(), table.points.last());
+                if let (Some(first), Some(last)) = range {
+                    text.push_str(&format!(
+                        "{} ground point(s) from {} to {}\n",
+                        table.points.len(),
+                        label(first.station),
+                        label(last.station)
+                    ));
+                }
+                loaded.project.ground = table.points.into();
+            }
+            if let Some(controls) = controls {
+                let points = gradewright_exchange::read_controls_csv(
+                    open("--controls", &controls)?,
+                    &controls,
+                    units,
+                )?;
+                text.push_str(&format!("{} control point(s)\n", points.len()));
+                loaded.project.controls = points;
+            }
             loaded.project.save(&output)?;
+            text.push_str(&format!("wrote {}\n", output.display()));
             print(text.as_bytes())?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Some(Command::Earthwork { input, units, width, cut_slope, fill_slope, shrinkage, interval }) => {
+            let section = gradewright_geometry::Section {
+                width,
+                cut_slope,
+                fill_slope,
+                shrinkage_percent: shrinkage.unwrap_or(0.0),
+            };
+            if let Err(gradewright_geometry::EarthworkError::Field { field, why }) = section.validate() {
+                bail!(
+                    "--{}: {why} (got {})",
+                    field.replace(' ', "-"),
+                    match field {
+                        "width" => width,
+                        "cut slope" => cut_slope,
+                        "fill slope" => fill_slope,
+                        _ => section.shrinkage_percent,
+                    }
+                );
+            }
+            if let Some(v) = interval {
+                positive("--interval", "the station interval", v)?;
+            }
+            let loaded = load_input(&input, units.map(Into::into))?;
+            let alignment = build(&loaded)?;
+            let project = &loaded.project;
+            if project.ground.range().is_none() {
+                bail!(
+                    "{}: the project has no ground; add it with gradewright import --ground FILE",
+                    input.display()
+                );
+            }
+            let interval = interval.unwrap_or(project.units.table_interval());
+            let estimate = gradewright_geometry::earthwork(&alignment, &project.ground, &section, interval)
+                .map_err(|e| anyhow!("{}: {e}", input.display()))?;
+            let mut buffer = Vec::new();
+            gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate)
+                .map_err(|e| anyhow!("{}: {e}", input.display()))?;
+            print(&buffer)?;
+            let vol = gradewright_geometry::volume_symbol(project.units);
+            eprintln!(
+                "level-section estimate: cut {:.1} {vol}, fill {:.1} {vol}, net {:+.1} {vol} after {}% shrinkage \
+                 (areas in {}, volumes in {vol})",
+                estimate.cut,
+                estimate.fill,
+                estimate.net(),
+                section.shrinkage_percent,
+                gradewright_geometry::area_symbol(project.units)
+            );
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Export {

@@ -6,7 +6,7 @@ use std::path::{Path, PathBuf};
 
 use anyhow::{Context as _, bail};
 use gradewright_draw::{SheetOptions, SheetSize, TitleBlock};
-use gradewright_geometry::{Analysis, Project, Units, write_atomic};
+use gradewright_geometry::{Analysis, Project, write_atomic};
 
 /// What the user asked to export.
 #[derive(Clone, Debug, PartialEq)]
@@ -186,10 +186,7 @@ pub fn render(
         let Some(alignment) = analysis.alignment.as_ref() else {
             bail!("the profile has problems to fix first")
         };
-        let interval = request.interval.unwrap_or(match project.units {
-            Units::Metric => 20.0,
-            Units::UsCustomary => 50.0,
-        });
+        let interval = request.interval.unwrap_or(project.units.table_interval());
         let stations = gradewright_exchange::interval_stations(alignment, interval);
         let mut buffer = Vec::new();
         gradewright_exchange::write_stations_csv(&mut buffer, alignment, &stations)?;

@@ -306,3 +306,103 @@ fn import_merges_the_ground_into_the_project() {
     assert_eq!(project.pvis, original.pvis);
     assert_eq!(project.criteria, original.criteria);
 }
+
+/// Ground and control points imported together; `check` reports the missed
+/// control point and fails, `table` gains the ground columns, `earthwork`
+/// gives the hand-computed average-end-area volumes (Ghilani and Wolf,
+/// *Elementary Surveying*, 13th ed., ch. 26, V = L(A1 + A2)/2; see
+/// `earthwork.rs` for the arithmetic).
+#[test]
+fn site_data_flows_through_check_table_and_earthwork() {
+    let pvis = temp_file("site-pvis.csv", "station,elevation,curve_length\n0,100,\n20,100,\n");
+    let ground = temp_file("site-ground.csv", "0,101\n20,99\n");
+    let controls = temp_file(
+        "site-controls.csv",
+        "station,kind,elevation,tolerance,name\n10,min,100.5,,Culvert C1\n15,max,100.2,,Footbridge\n",
+    );
+    let out = std::env::temp_dir().join(format!("gradewright-cli-{}/site.ron", std::process::id()));
+    let _ = std::fs::remove_file(&out);
+    let (pvis, ground, controls, out_s) = (
+        pvis.to_string_lossy().into_owned(),
+        ground.to_string_lossy().into_owned(),
+        controls.to_string_lossy().into_owned(),
+        out.to_string_lossy().into_owned(),
+    );
+    let o = run(&[
+        "import",
+        &pvis,
+        "--units",
+        "metric",
+        "--ground",
+        &ground,
+        "--controls",
+        &controls,
+        "-o",
+        &out_s,
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    assert!(stdout(&o).contains("2 control point(s)"), "{}", stdout(&o));
+
+    let o = run(&["check", &out_s, "--design-speed", "50"]);
+    let text = stdout(&o);
+    assert_ne!(o.status.code(), Some(0), "a missed control point fails: {text}");
+    assert!(text.contains("control.min"), "{text}");
+    assert!(text.contains("0.500 m below the minimum 100.500"), "{text}");
+    assert!(!text.contains("Footbridge"), "a met point gives no finding: {text}");
+
+    let o = run(&["table", &out_s, "--interval", "10"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    let lines: Vec<&str> = text.lines().collect();
+    assert_eq!(
+        lines.first().copied(),
+        Some("station,station_label,elevation,grade_percent,ground_elevation,cut,fill")
+    );
+    assert_eq!(lines.get(1).copied(), Some("0,0+000.000,100,0,101,1,0"));
+    assert_eq!(lines.get(3).copied(), Some("20,0+020.000,100,0,99,0,1"));
+
+    let o = run(&[
+        "earthwork",
+        &out_s,
+        "--width",
+        "10",
+        "--cut-slope",
+        "2",
+        "--fill-slope",
+        "3",
+        "--shrinkage",
+        "10",
+        "--interval",
+        "20",
+    ]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    let lines: Vec<&str> = text.lines().collect();
+    assert_eq!(lines.first().copied(), Some("station,cut_area,fill_area,cut_volume,fill_volume,mass"));
+    assert_eq!(lines.get(1).copied(), Some("0,12,0,0,0,0"));
+    assert_eq!(lines.get(2).copied(), Some("10,0,0,60,0,54"));
+    assert_eq!(lines.get(3).copied(), Some("20,0,13,0,65,-11"));
+    assert_eq!(lines.len(), 4);
+    assert!(stderr(&o).contains("level-section"), "{}", stderr(&o));
+
+    // Bad input: one line naming the flag, exit 2, nothing on stdout.
+    let o = run(&["earthwork", &out_s, "--width", "-1", "--cut-slope", "2", "--fill-slope", "2"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stdout(&o).is_empty());
+    assert_eq!(stderr(&o).trim().lines().count(), 1, "{}", stderr(&o));
+    assert!(stderr(&o).contains("--width"), "{}", stderr(&o));
+    let o = run(&[
+        "earthwork",
+        &pvis,
+        "--units",
+        "metric",
+        "--width",
+        "10",
+        "--cut-slope",
+        "2",
+        "--fill-slope",
+        "2",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("no ground"), "{}", stderr(&o));
+}

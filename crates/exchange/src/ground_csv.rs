@@ -19,9 +19,19 @@ pub struct GroundTable {
     pub warnings: Vec<String>,
 }
 
+/// The text of a table file: its bytes less a UTF-8 byte-order mark, or
+/// the line where it stops being UTF-8.
+pub(crate) fn decode(bytes: &[u8]) -> Result<&str, u64> {
+    let body = bytes.strip_prefix(b"\xEF\xBB\xBF".as_slice()).unwrap_or(bytes);
+    std::str::from_utf8(body).map_err(|e| {
+        let line = body.get(..e.valid_up_to()).map_or(0, |b| b.iter().filter(|&&c| c == b'\n').count()) + 1;
+        line as u64
+    })
+}
+
 /// The delimiter of a table: a tab or a semicolon if the first data line
 /// has one, else a comma.
-fn delimiter(text: &str) -> u8 {
+pub(crate) fn delimiter(text: &str) -> u8 {
     let first = text.lines().map(str::trim).find(|l| !l.is_empty() && !l.starts_with('#')).unwrap_or("");
     if first.contains('\t') {
         b'\t'
@@ -49,11 +59,7 @@ pub fn read_ground_csv(mut reader: impl Read, origin: &Path, units: Units) -> Re
     };
     let mut bytes = Vec::new();
     reader.read_to_end(&mut bytes).map_err(|e| err(0, "file", e.to_string()))?;
-    let body = bytes.strip_prefix(b"\xEF\xBB\xBF".as_slice()).unwrap_or(&bytes);
-    let text = std::str::from_utf8(body).map_err(|e| {
-        let line = body.get(..e.valid_up_to()).map_or(0, |b| b.iter().filter(|&&c| c == b'\n').count()) + 1;
-        err(line as u64, "record", "the file is not UTF-8 text".to_owned())
-    })?;
+    let text = decode(&bytes).map_err(|line| err(line, "record", "the file is not UTF-8 text".to_owned()))?;
     let mut csv = csv::ReaderBuilder::new()
         .has_headers(false)
         .flexible(true)

@@ -2,10 +2,18 @@
 
 use std::io::Write;
 
-use gradewright_geometry::{Alignment, Station, format_station};
+use gradewright_geometry::{Alignment, Earthwork, Ground, Station, format_station};
 
 /// The header of a station table.
 pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "grade_percent"];
+
+/// The columns a station table gains after [`TABLE_HEADER`] when the
+/// project has ground (depths ≥ 0; empty where there is no ground).
+pub const GROUND_COLUMNS: [&str; 3] = ["ground_elevation", "cut", "fill"];
+
+/// The header of an earthwork table.
+pub const EARTHWORK_HEADER: [&str; 6] =
+    ["station", "cut_area", "fill_area", "cut_volume", "fill_volume", "mass"];
 
 /// Stations every `interval` from the first PVI (first + k·interval), plus both
 /// ends and every PVC, PVI and PVT, sorted, without duplicates.
@@ -52,6 +60,8 @@ pub(crate) fn number(value: f64, decimals: Option<usize>) -> String {
 
 /// Writes one row per station, in the order given: the station as a plain
 /// number, its label in station notation, elevation, grade in percent.
+/// When `ground` has points, [`GROUND_COLUMNS`] follow: the ground
+/// elevation and the cut and fill depths, empty where there is no ground.
 /// Numbers are written in the shortest form that reads back to the same f64,
 /// or with `decimals` decimals.
 ///
@@ -60,25 +70,44 @@ pub(crate) fn number(value: f64, decimals: Option<usize>) -> String {
 pub fn write_station_table(
     out: impl Write,
     alignment: &Alignment,
+    ground: &Ground,
     stations: &[f64],
     decimals: Option<usize>,
 ) -> Result<(), TableError> {
     let units = alignment.units();
     let mut csv = csv::Writer::from_writer(out);
-    csv.write_record(TABLE_HEADER)?;
+    let with_ground = ground.range().is_some();
+    if with_ground {
+        csv.write_record(TABLE_HEADER.iter().chain(&GROUND_COLUMNS))?;
+    } else {
+        csv.write_record(TABLE_HEADER)?;
+    }
     let mut cursor = alignment.cursor();
+    let mut row: Vec<String> = Vec::with_capacity(7);
     for &s in stations {
         let sample = cursor.sample(Station(s))?;
         if !(sample.elevation.is_finite() && sample.grade_percent.is_finite()) {
             return Err(TableError::NotFinite { station: s });
         }
         let label_decimals = decimals.unwrap_or(units.station_decimals());
-        csv.write_record([
+        row.clear();
+        row.extend([
             number(s, decimals),
             format_station(s, units, label_decimals),
             number(sample.elevation, decimals),
             number(sample.grade_percent, decimals),
-        ])?;
+        ]);
+        if with_ground {
+            match ground.elevation_at(s) {
+                Some(g) => row.extend([
+                    number(g, decimals),
+                    number((g - sample.elevation).max(0.0), decimals),
+                    number((sample.elevation - g).max(0.0), decimals),
+                ]),
+                None => row.extend([String::new(), String::new(), String::new()]),
+            }
+        }
+        csv.write_record(&row)?;
     }
     csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
     Ok(())
@@ -105,6 +134,26 @@ impl From<csv::Error> for TableError {
     fn from(e: csv::Error) -> Self {
         Self::Io(e.to_string())
     }
+}
+
+/// Writes an earthwork estimate, one row per station of it (the extra
+/// stations included): end areas, the volumes of the interval ending at the
+/// row (0 on the first row) and the mass ordinate, unrounded.
+///
+/// # Errors
+/// A value that is not finite, or an I/O error of `out`.
+pub fn write_earthwork_csv(out: impl Write, earthwork: &Earthwork) -> Result<(), TableError> {
+    let mut csv = csv::Writer::from_writer(out);
+    csv.write_record(EARTHWORK_HEADER)?;
+    for r in &earthwork.rows {
+        let values = [r.station, r.cut_area, r.fill_area, r.cut_volume, r.fill_volume, r.mass];
+        if !values.iter().all(|v| v.is_finite()) {
+            return Err(TableError::NotFinite { station: r.station });
+        }
+        csv.write_record(values.map(|v| number(v, None)))?;
+    }
+    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    Ok(())
 }
 
 /// The header of a sight-distance table.

@@ -5,9 +5,10 @@ use std::sync::Arc;
 
 use crate::visibility::SightProfile;
 use crate::{
-    Alignment, CheckReport, CriteriaError, CurveGeometry, Finding, GroundPoint, Profile, ProfileProblem,
-    Project, Pvi, ResolvedCriteria, Severity, check_profile_with_sight, compute_sight, interior_curves,
-    structural_findings,
+    Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveGeometry, CutFillSummary,
+    Earthwork, EarthworkError, Finding, Ground, Profile, ProfileProblem, Project, Pvi, ResolvedCriteria,
+    Severity, check_controls, check_profile_with_sight, compute_sight, control_findings, cut_fill_summary,
+    earthwork, interior_curves, structural_findings,
 };
 
 /// Everything computed from a project: the validated alignment (when the
@@ -18,8 +19,19 @@ use crate::{
 pub struct Analysis {
     /// The profile analysed.
     pub profile: Profile,
-    /// The existing ground line, in station order (empty when there is none).
-    pub ground: Vec<GroundPoint>,
+    /// The existing ground line, in station order (empty when there is
+    /// none); shared with the project, never copied.
+    pub ground: Ground,
+    /// The control points.
+    pub controls: Vec<ControlPoint>,
+    /// How the profile meets each control point (empty when the profile
+    /// cannot be evaluated).
+    pub control_status: Vec<ControlStatus>,
+    /// The largest cut and fill, when there is ground.
+    pub cut_fill: CutFillSummary,
+    /// The earthwork estimate, when the project sets a section and has
+    /// ground (or why there is none).
+    pub earthwork: Option<Result<Earthwork, EarthworkError>>,
     /// Problems that stop the profile being evaluated.
     pub problems: Vec<ProfileProblem>,
     /// The evaluated profile, when it has no problems.
@@ -82,7 +94,7 @@ impl Analysis {
             _ => None,
         };
         let mut analysis = Self::assemble(profile, criteria, alignment, sight);
-        analysis.ground.clone_from(&project.ground);
+        analysis.add_site(project);
         analysis.source = Some(project.clone());
         analysis
     }
@@ -92,7 +104,11 @@ impl Analysis {
     pub fn refresh(&mut self, project: &Project) {
         let empty = Self {
             profile: Profile::default(),
-            ground: Vec::new(),
+            ground: Ground::default(),
+            controls: Vec::new(),
+            control_status: Vec::new(),
+            cut_fill: CutFillSummary::default(),
+            earthwork: None,
             problems: Vec::new(),
             alignment: None,
             curves: Vec::new(),
@@ -131,7 +147,11 @@ impl Analysis {
         let sight = report.sight.take().map(Arc::new);
         Self {
             profile,
-            ground: Vec::new(),
+            ground: Ground::default(),
+            controls: Vec::new(),
+            control_status: Vec::new(),
+            cut_fill: CutFillSummary::default(),
+            earthwork: None,
             problems,
             alignment,
             curves,
@@ -139,6 +159,24 @@ impl Analysis {
             report,
             sight,
             source: None,
+        }
+    }
+
+    /// Adds what the project's site gives: the ground (shared), the control
+    /// points and their findings, the largest cut and fill, the earthwork.
+    fn add_site(&mut self, project: &Project) {
+        self.ground = project.ground.clone();
+        self.controls.clone_from(&project.controls);
+        let Some(alignment) = self.alignment.clone() else { return };
+        self.control_status = check_controls(&alignment, &self.controls);
+        let findings = control_findings(project.units, &self.controls, &self.control_status);
+        self.report.findings.extend(findings);
+        if self.ground.range().is_some() {
+            self.cut_fill = cut_fill_summary(&alignment, &self.ground);
+            if let Some(section) = &project.section {
+                let interval = project.export.interval.unwrap_or(project.units.table_interval());
+                self.earthwork = Some(earthwork(&alignment, &self.ground, section, interval));
+            }
         }
     }
 

@@ -7,8 +7,8 @@
 use crate::tolerance::{below, ceil_to};
 use crate::visibility::{Direction, SightProfile, sight_profile, stations_between};
 use crate::{
-    Alignment, CriterionId, CurveGeometry, CurveKind, MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Units,
-    check_curve, format_station,
+    Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, MAX_SIGHT_STATIONS,
+    Profile, ResolvedCriteria, Units, check_controls, check_curve, format_station,
 };
 
 /// What happened to one curve.
@@ -30,10 +30,13 @@ pub struct FitOutcome {
 /// multiple of `increment`, that clears it; curves are taken in station order
 /// and each fit sees the ones before it. A curve that cannot clear without
 /// overlapping a neighbour is left as it was, and the outcome says by how much
-/// it falls short. Returns the new profile and one outcome per target.
+/// it falls short. A length that would make the profile miss a control
+/// point it met is never taken: the curve is left as it was and the outcome
+/// names the point. Returns the new profile and one outcome per target.
 pub fn lengthen_to_clear(
     profile: &Profile,
     criteria: &ResolvedCriteria,
+    controls: &[ControlPoint],
     targets: &[usize],
     increment: f64,
 ) -> (Profile, Vec<FitOutcome>) {
@@ -44,7 +47,7 @@ pub fn lengthen_to_clear(
     let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
     let mut outcomes = Vec::new();
     for index in targets {
-        let outcome = fit_one(&mut profile, criteria, index, increment);
+        let outcome = fit_one(&mut profile, criteria, controls, index, increment);
         outcomes.push(outcome);
     }
     (profile, outcomes)
@@ -70,7 +73,35 @@ fn room(profile: &Profile, index: usize) -> Option<f64> {
     Some((back / share_in).min(ahead / share_out).max(0.0))
 }
 
-fn fit_one(profile: &mut Profile, criteria: &ResolvedCriteria, index: usize, increment: f64) -> FitOutcome {
+/// The control points `profile` meets.
+fn met_controls(profile: &Profile, controls: &[ControlPoint]) -> Vec<bool> {
+    if controls.is_empty() {
+        return Vec::new();
+    }
+    let Ok(alignment) = Alignment::new(profile) else { return vec![false; controls.len()] };
+    check_controls(&alignment, controls).iter().map(|s| matches!(s, ControlStatus::Met(_))).collect()
+}
+
+/// The first control point met before (`met`) that `profile` misses, with
+/// the amount.
+fn broken_control(profile: &Profile, controls: &[ControlPoint], met: &[bool]) -> Option<(usize, f64)> {
+    if !met.contains(&true) {
+        return None;
+    }
+    let alignment = Alignment::new(profile).ok()?;
+    check_controls(&alignment, controls).iter().zip(met).enumerate().find_map(|(i, (s, &was))| match s {
+        ControlStatus::Missed(_, miss) if was => Some((i, *miss)),
+        _ => None,
+    })
+}
+
+fn fit_one(
+    profile: &mut Profile,
+    criteria: &ResolvedCriteria,
+    controls: &[ControlPoint],
+    index: usize,
+    increment: f64,
+) -> FitOutcome {
     let units = profile.units;
     let len = units.length_symbol();
     let old_length = profile.pvis.get(index).map_or(0.0, |p| p.curve.length());
@@ -107,11 +138,23 @@ fn fit_one(profile: &mut Profile, criteria: &ResolvedCriteria, index: usize, inc
     let needed = check.length_required.max(check.min_length).max(old_length);
     let mut length = ceil_to(needed, increment);
     let steps_limit = 400;
+    let met = met_controls(profile, controls);
     for _ in 0..steps_limit {
         if length > max_length * (1.0 + 1e-12) {
             break;
         }
         set_length(profile, index, length);
+        if let Some((c, miss)) = broken_control(profile, controls, &met) {
+            if let Some(p) = profile.pvis.get_mut(index) {
+                *p = original;
+            }
+            let title = controls.get(c).map_or_else(String::new, |p| p.title(c));
+            outcome.message = format!(
+                "{name}: a length of {length:.2} {len} would miss {title} by {miss:.3} {len}; unchanged \
+                 (move the PVI or the grades instead)"
+            );
+            return outcome;
+        }
         if clears(profile, criteria, index) {
             outcome.new_length = length;
             outcome.cleared = true;

@@ -15,11 +15,14 @@
 mod alignment;
 mod analysis;
 mod checks;
+mod controls;
 mod criteria;
 mod curve;
+mod earthwork;
 mod edit;
 mod fit;
 mod grades;
+pub mod ground;
 mod profile;
 mod project;
 pub mod sight;
@@ -36,17 +39,20 @@ pub use checks::{
     CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, Severity, check_curve, check_profile,
     check_profile_with_sight, compute_sight, structural_findings,
 };
+pub use controls::{ControlKind, ControlPoint, ControlStatus, check_controls, control_findings};
 pub use criteria::{
     Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, SagRule, Setting,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
+pub use earthwork::{
+    Earthwork, EarthworkError, EarthworkRow, RowKind, Section, area_symbol, earthwork, volume_symbol,
+};
 pub use edit::InsertError;
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
+pub use ground::{CutFillSummary, Depth, Ground, cut_fill_summary, depth_at, grade_points};
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
-pub use project::{
-    ControlPoint, ExportSettings, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions,
-};
+pub use project::{ExportSettings, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};
 pub use units::Units;
 pub use write::write_atomic;

@@ -8,7 +8,7 @@ use std::path::{Path, PathBuf};
 
 use serde::{Deserialize, Serialize};
 
-use crate::{Criteria, Profile, Pvi, Units};
+use crate::{ControlPoint, Criteria, Ground, Profile, Pvi, Section, Units};
 
 /// The newest file format this build reads and the one it writes.
 pub const FORMAT_VERSION: u32 = 1;
@@ -21,24 +21,6 @@ pub struct GroundPoint {
     pub station: f64,
     /// Ground elevation.
     pub elevation: f64,
-}
-
-/// A fixed elevation the profile must meet (tie-in, structure, culvert).
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct ControlPoint {
-    /// What it is.
-    pub name: String,
-    /// Station.
-    pub station: f64,
-    /// Required elevation.
-    pub elevation: f64,
-    /// Allowed deviation below the elevation.
-    #[serde(default)]
-    pub below: f64,
-    /// Allowed deviation above the elevation.
-    #[serde(default)]
-    pub above: f64,
 }
 
 /// How the editor snaps dragged and inserted PVIs, kept with the project.
@@ -165,12 +147,16 @@ pub struct Project {
     pub criteria: Criteria,
     /// The proposed profile's PVIs, in station order.
     pub pvis: Vec<Pvi>,
-    /// Existing ground line (station, elevation), in station order.
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub ground: Vec<GroundPoint>,
-    /// Fixed elevations the profile must meet.
+    /// Existing ground line (station, elevation), in station order; shared,
+    /// so copies of the project do not copy it.
+    #[serde(default, skip_serializing_if = "<[GroundPoint]>::is_empty")]
+    pub ground: Ground,
+    /// Elevations the profile must meet, stay above or stay below.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub controls: Vec<ControlPoint>,
+    /// The level typical section of the earthwork estimate, when one is set.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub section: Option<Section>,
     /// How the editor snaps PVIs in this project.
     #[serde(default, skip_serializing_if = "Snap::is_default")]
     pub snap: Snap,
@@ -188,8 +174,9 @@ impl Project {
             units,
             criteria: Criteria::default(),
             pvis: Vec::new(),
-            ground: Vec::new(),
+            ground: Ground::default(),
             controls: Vec::new(),
+            section: None,
             snap: Snap::default(),
             export: ExportSettings::default(),
         }
@@ -227,6 +214,15 @@ impl Project {
                 None => e.code.to_string(),
             },
         })?;
+        if let Some((index, why)) = project.ground.problem() {
+            let (line, column) = ground_position(text, index);
+            return Err(FileError::Syntax {
+                path: origin.to_owned(),
+                line,
+                column,
+                message: format!("ground point {}: {why}", index + 1),
+            });
+        }
         if project.format_version == 0 {
             return Err(FileError::Syntax {
                 path: origin.to_owned(),
@@ -313,6 +309,29 @@ pub fn pvi_positions(text: &str) -> Vec<(usize, usize)> {
         rest = at + "station".len();
     }
     positions
+}
+
+/// The 1-based line and column of ground point `index` in project text
+/// (the start of the ground list when the point is not found).
+fn ground_position(text: &str, index: usize) -> (usize, usize) {
+    let position = |at: usize| {
+        let head = text.get(..at).unwrap_or("");
+        let line = head.matches('\n').count() + 1;
+        let column = head
+            .rfind('\n')
+            .map_or(head.chars().count(), |n| head.get(n + 1..).map_or(0, |h| h.chars().count()))
+            + 1;
+        (line, column)
+    };
+    let Some(start) = text.find("ground:").or_else(|| text.find("ground")) else { return (1, 1) };
+    let mut at = start;
+    for _ in 0..=index {
+        match text.get(at + 1..).and_then(|t| t.find("GroundPoint").or_else(|| t.find("station"))) {
+            Some(found) => at += 1 + found,
+            None => return position(start),
+        }
+    }
+    position(at)
 }
 
 #[derive(Deserialize)]

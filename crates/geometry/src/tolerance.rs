@@ -21,6 +21,11 @@ pub const PASS_RELATIVE: f64 = 1e-9;
 /// Relative difference below which two lengths are the same length.
 pub const LENGTH_RELATIVE: f64 = 1e-9;
 
+/// Two stations closer than this (in length units) are one station: extra
+/// stations of a table (grade points, curve ends) that fall on one already
+/// there are not repeated.
+pub const STATION_HAIR: f64 = 1e-6;
+
 /// Fraction of a step taken off before rounding up to it.
 pub const ROUNDING_HAIR: f64 = 1e-9;
 

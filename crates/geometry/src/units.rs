@@ -39,6 +39,15 @@ impl Units {
         }
     }
 
+    /// The default station interval of tables and the earthwork estimate:
+    /// 20 m or 50 ft (common practice).
+    pub fn table_interval(self) -> f64 {
+        match self {
+            Self::Metric => 20.0,
+            Self::UsCustomary => 50.0,
+        }
+    }
+
     /// Symbol of the length unit: `m` or `ft`.
     pub fn length_symbol(self) -> &'static str {
         match self {

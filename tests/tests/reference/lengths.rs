@@ -217,12 +217,12 @@ fn lengthen_to_clear_finds_the_shortest_clearing_length() {
     let report = check_profile(&profile, &resolved);
     assert_eq!(report.failing_curves(), vec![1]);
     assert!(report.findings.iter().any(|f| f.code == "sight.forward"), "{:?}", report.findings);
-    let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[1], 5.0);
+    let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[], &[1], 5.0);
     assert_close(fitted.pvis[1].curve.length(), 130.0, 1e-9, "K·A = 26 · 5");
     assert!(outcomes[0].cleared, "{outcomes:?}");
     assert!(!check_profile(&fitted, &resolved).has_failures());
     // With a 20 m increment the answer rounds up to the next multiple, 140 m.
-    let (fitted, _) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[1], 20.0);
+    let (fitted, _) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[], &[1], 20.0);
     assert_close(fitted.pvis[1].curve.length(), 140.0, 1e-9, "rounded up to 20 m");
 }
 
@@ -237,7 +237,7 @@ fn lengthen_to_clear_reports_what_does_not_fit() {
         Units::Metric,
         vec![Pvi::new(0.0, 100.0), Pvi::with_curve(150.0, 106.0, 100.0), Pvi::new(300.0, 100.0)],
     );
-    let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[1], 5.0);
+    let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[], &[1], 5.0);
     assert_eq!(fitted, profile);
     assert!(!outcomes[0].cleared);
     assert!(outcomes[0].message.contains("needs 420 m, only 300 m fits"), "{}", outcomes[0].message);

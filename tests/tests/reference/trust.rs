@@ -7,9 +7,9 @@
 use gradewright_acceptance::assert_close;
 use gradewright_geometry::visibility::{Direction, Road};
 use gradewright_geometry::{
-    Alignment, Area, CheckReport, Criteria, CriterionId, CurveKind, Profile, Pvi, ResolvedCriteria,
-    RoadClass, SagRule, Setting, Severity, Station, Terrain, Units, VerticalCurve, check_profile,
-    lengthen_to_clear, max_grade, sight,
+    Alignment, Area, CheckReport, ControlKind, ControlPoint, Criteria, CriterionId, CurveKind, Profile, Pvi,
+    ResolvedCriteria, RoadClass, SagRule, Setting, Severity, Station, Terrain, Units, VerticalCurve,
+    check_profile, lengthen_to_clear, max_grade, sight,
 };
 
 fn resolve(criteria: &Criteria, units: Units) -> ResolvedCriteria {
@@ -46,7 +46,7 @@ fn collinear_pvis_are_no_grade_change() {
         "{:?}",
         codes(&report)
     );
-    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[1, 2], 5.0);
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[], &[1, 2], 5.0);
     assert_eq!(fitted, profile, "{outcomes:?}");
 }
 
@@ -162,7 +162,7 @@ fn unequal_tangent_curves_report_the_total_length_needed() {
         assert!(message.contains(part), "{part:?} missing in {message}");
     }
     // The fit finds the same total.
-    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[1], 5.0);
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[], &[1], 5.0);
     assert!(outcomes[0].cleared, "{outcomes:?}");
     assert_close(fitted.pvis[1].curve.length(), 950.0, 1e-6, "fit total");
 }
@@ -272,7 +272,7 @@ fn lengthen_to_clear_looks_as_far_as_the_largest_requirement() {
     assert_close(criteria.largest_requirement(4.0), 197.9, 0.05, "−4 % at 100 km/h");
     let report = check_profile(&profile, &criteria);
     assert!(report.has_failures(), "{:?}", report);
-    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &report.failing_curves(), 5.0);
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[], &report.failing_curves(), 5.0);
     assert!(outcomes.iter().all(|o| o.cleared), "{outcomes:?}");
     let after = check_profile(&fitted, &criteria);
     assert!(!after.has_failures(), "{:?}", codes(&after));
@@ -290,7 +290,7 @@ fn lengthen_to_clear_refuses_a_step_it_cannot_afford() {
         &Criteria { design_speed: Some(80.0), sight_step: Setting::Override(1e-5), ..Criteria::default() },
         Units::Metric,
     );
-    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[1], 5.0);
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[], &[1], 5.0);
     assert_eq!(fitted, profile);
     assert!(!outcomes[0].cleared);
     assert!(outcomes[0].message.contains("not checked"), "{}", outcomes[0].message);
@@ -388,4 +388,37 @@ fn incremental_update_matches_a_full_run_with_grade_adjusted_ssd() {
     incremental.update_after_change(&a1, &setup, requirement, 340.0, 1480.0);
     let full = sight_profile(&a1, &setup, requirement, &stations);
     assert_eq!(incremental, full);
+}
+
+/// Lengthening a crest lowers the road at its PVI by A·L/800 (the external,
+/// Mannering & Washburn ch. 3, E = A·L/800). With a minimum control point at
+/// the PVI that the short curve meets, Lengthen to clear must not take a
+/// length that drops the road below it. Grades +2 %/−2 %, PVI at 104.000,
+/// L = 40 m: the road is at 104 − 4·40/800 = 103.800 there, above the
+/// minimum 103.700; the K 26 length at 80 km/h (Green Book 2018 Table 3-34)
+/// is 104 m, which would put it at 104 − 4·105/800 = 103.475 (derived from
+/// the external formula): refused.
+#[test]
+fn lengthen_to_clear_never_breaks_a_met_control_point() {
+    let profile = Profile::new(
+        Units::Metric,
+        vec![Pvi::new(0.0, 100.0), Pvi::with_curve(200.0, 104.0, 40.0), Pvi::new(400.0, 100.0)],
+    );
+    let criteria = metric(80.0);
+    let control = |elevation| ControlPoint {
+        name: "Culvert C2".to_owned(),
+        station: 200.0,
+        kind: ControlKind::Minimum,
+        elevation,
+        tolerance: 0.0,
+    };
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[control(103.7)], &[1], 5.0);
+    assert_eq!(fitted, profile, "{outcomes:?}");
+    let outcome = outcomes.first().expect("one outcome");
+    assert!(!outcome.cleared);
+    assert!(outcome.message.contains("would miss Culvert C2"), "{}", outcome.message);
+    // A lower minimum (103.4) stays met at 105 m: the curve is lengthened.
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[control(103.4)], &[1], 5.0);
+    assert!(outcomes.first().is_some_and(|o| o.cleared), "{outcomes:?}");
+    assert!(fitted.pvis.get(1).is_some_and(|p| p.curve.length() >= 104.0));
 }

@@ -551,8 +551,13 @@ impl GradewrightApp {
             return;
         };
         let increment = self.view.lengthen_increment;
-        let (fitted, outcomes) =
-            gradewright_geometry::lengthen_to_clear(&self.project.profile(), &criteria, targets, increment);
+        let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(
+            &self.project.profile(),
+            &criteria,
+            &self.project.controls,
+            targets,
+            increment,
+        );
         let mut project = self.project.clone();
         project.pvis = fitted.pvis;
         let text = outcomes.iter().map(|o| o.message.as_str()).collect::<Vec<_>>().join(" · ");

@@ -1,0 +1,274 @@
+//! Control points: elevations the profile must meet, stay above or stay
+//! below at a station, and the findings when it does not.
+
+use serde::{Deserialize, Serialize};
+
+use crate::tolerance::{above, below};
+use crate::{Alignment, Finding, Severity, Station, Units, format_station};
+
+/// What a control point asks of the profile.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+pub enum ControlKind {
+    /// Meet the elevation within ± the tolerance (a tie-in, an existing
+    /// intersection).
+    Fixed,
+    /// Stay at or above the elevation (cover over a culvert, a flood level).
+    Minimum,
+    /// Stay at or below the elevation (under a structure or an overhead
+    /// line: the underside minus the clearance).
+    Maximum,
+}
+
+impl ControlKind {
+    /// Every kind, in menu order.
+    pub const ALL: [Self; 3] = [Self::Fixed, Self::Minimum, Self::Maximum];
+
+    /// The word used in files: `fixed`, `min`, `max`.
+    pub fn key(self) -> &'static str {
+        match self {
+            Self::Fixed => "fixed",
+            Self::Minimum => "min",
+            Self::Maximum => "max",
+        }
+    }
+
+    /// The kind a file word names (also `minimum`, `maximum`; any case).
+    pub fn from_key(text: &str) -> Option<Self> {
+        match text.trim().to_ascii_lowercase().as_str() {
+            "fixed" => Some(Self::Fixed),
+            "min" | "minimum" => Some(Self::Minimum),
+            "max" | "maximum" => Some(Self::Maximum),
+            _ => None,
+        }
+    }
+
+    /// A short label for screens.
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Fixed => "Fixed",
+            Self::Minimum => "Minimum",
+            Self::Maximum => "Maximum",
+        }
+    }
+}
+
+/// An elevation the profile must meet (fixed), stay above (minimum) or stay
+/// below (maximum) at a station.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ControlPoint {
+    /// What it is (a tie-in, a culvert, a bridge).
+    #[serde(default)]
+    pub name: String,
+    /// Station.
+    pub station: f64,
+    /// What it asks of the profile.
+    pub kind: ControlKind,
+    /// The elevation.
+    pub elevation: f64,
+    /// For a fixed point, the allowed deviation either way (≥ 0).
+    #[serde(default)]
+    pub tolerance: f64,
+}
+
+impl ControlPoint {
+    /// The name, or `control N` (1-based) when it has none.
+    pub fn title(&self, index: usize) -> String {
+        if self.name.trim().is_empty() { format!("control {}", index + 1) } else { self.name.clone() }
+    }
+
+    /// By how much the profile elevation `profile` misses this point (> 0)
+    /// or 0 when it is met. The comparisons allow round-off only
+    /// ([`crate::tolerance::PASS_RELATIVE`]).
+    pub fn miss(&self, profile: f64) -> f64 {
+        let tolerance = self.tolerance.abs();
+        match self.kind {
+            ControlKind::Fixed => {
+                let off = (profile - self.elevation).abs();
+                if above(off, tolerance) { off - tolerance } else { 0.0 }
+            }
+            ControlKind::Minimum => {
+                if below(profile, self.elevation) {
+                    self.elevation - profile
+                } else {
+                    0.0
+                }
+            }
+            ControlKind::Maximum => {
+                if above(profile, self.elevation) {
+                    profile - self.elevation
+                } else {
+                    0.0
+                }
+            }
+        }
+    }
+}
+
+/// How the profile meets one control point.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum ControlStatus {
+    /// Met; the profile elevation there.
+    Met(f64),
+    /// Missed: the profile elevation and the amount missed by (> 0).
+    Missed(f64, f64),
+    /// Not on the profile (before the first or after the last PVI).
+    Outside,
+    /// Its station, elevation or tolerance is not a usable number.
+    Invalid,
+}
+
+/// The status of every control point against `alignment`, in order.
+pub fn check_controls(alignment: &Alignment, controls: &[ControlPoint]) -> Vec<ControlStatus> {
+    controls
+        .iter()
+        .map(|c| {
+            if !(c.station.is_finite() && c.elevation.is_finite() && c.tolerance.is_finite()) {
+                return ControlStatus::Invalid;
+            }
+            match alignment.sample(Station(c.station)) {
+                Err(_) => ControlStatus::Outside,
+                Ok(s) => match c.miss(s.elevation) {
+                    m if m > 0.0 => ControlStatus::Missed(s.elevation, m),
+                    _ => ControlStatus::Met(s.elevation),
+                },
+            }
+        })
+        .collect()
+}
+
+/// A failing finding for each missed control point (code `control.fixed`,
+/// `control.min`, `control.max`), with the amount missed by; a warning for
+/// a point off the profile (`control.outside`) and a failure for one that
+/// is not a usable number (`control.invalid`). Met points give none.
+pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[ControlStatus]) -> Vec<Finding> {
+    let len = units.length_symbol();
+    let mut findings = Vec::new();
+    for (i, (c, st)) in controls.iter().zip(status).enumerate() {
+        let at = format_station(c.station, units, units.station_decimals());
+        let name = c.title(i);
+        let finding = |severity, code, message| Finding {
+            severity,
+            code,
+            station_start: Station(c.station),
+            station_end: Station(c.station),
+            pvi: None,
+            message,
+        };
+        match *st {
+            ControlStatus::Met(_) => {}
+            ControlStatus::Outside => findings.push(finding(
+                Severity::Warn,
+                "control.outside",
+                format!("{name} at {at} is outside the profile: not checked"),
+            )),
+            ControlStatus::Invalid => findings.push(finding(
+                Severity::Fail,
+                "control.invalid",
+                format!("{name}: station, elevation and tolerance must be finite numbers"),
+            )),
+            ControlStatus::Missed(y, miss) => {
+                let (code, message) = match c.kind {
+                    ControlKind::Fixed => {
+                        let side = if y > c.elevation { "above" } else { "below" };
+                        (
+                            "control.fixed",
+                            format!(
+                                "{name} at {at}: the profile is {miss:.3} {len} {side} the fixed elevation \
+                                 {:.3} ± {:.3} (profile {y:.3})",
+                                c.elevation,
+                                c.tolerance.abs()
+                            ),
+                        )
+                    }
+                    ControlKind::Minimum => (
+                        "control.min",
+                        format!(
+                            "{name} at {at}: the profile is {miss:.3} {len} below the minimum {:.3} \
+                             (profile {y:.3})",
+                            c.elevation
+                        ),
+                    ),
+                    ControlKind::Maximum => (
+                        "control.max",
+                        format!(
+                            "{name} at {at}: the profile is {miss:.3} {len} above the maximum {:.3} \
+                             (profile {y:.3})",
+                            c.elevation
+                        ),
+                    ),
+                };
+                findings.push(finding(Severity::Fail, code, message));
+            }
+        }
+    }
+    findings
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::{Profile, Pvi};
+
+    fn road() -> Alignment {
+        // A straight 2 % grade from 100.0 at 0 to 102.0 at 100: y(50) = 101.0.
+        Alignment::new(&Profile::new(Units::Metric, vec![Pvi::new(0.0, 100.0), Pvi::new(100.0, 102.0)]))
+            .expect("valid")
+    }
+
+    fn control(kind: ControlKind, elevation: f64, tolerance: f64) -> ControlPoint {
+        ControlPoint { name: "Culvert C1".to_owned(), station: 50.0, kind, elevation, tolerance }
+    }
+
+    fn status(c: &ControlPoint) -> ControlStatus {
+        check_controls(&road(), std::slice::from_ref(c)).first().copied().unwrap_or(ControlStatus::Invalid)
+    }
+
+    #[test]
+    fn each_limit_is_met_by_a_hair_and_missed_by_a_hair() {
+        let hair = 1e-4;
+        let met = |c: ControlPoint| matches!(status(&c), ControlStatus::Met(_));
+        // Minimum 101.0 − hair is met; 101.0 + hair is missed by the hair.
+        assert!(met(control(ControlKind::Minimum, 101.0 - hair, 0.0)));
+        assert!(met(control(ControlKind::Minimum, 101.0, 0.0)));
+        let ControlStatus::Missed(_, miss) = status(&control(ControlKind::Minimum, 101.0 + hair, 0.0)) else {
+            panic!("missed")
+        };
+        assert!((miss - hair).abs() < 1e-9);
+        // Maximum: the other side.
+        assert!(met(control(ControlKind::Maximum, 101.0 + hair, 0.0)));
+        assert!(!met(control(ControlKind::Maximum, 101.0 - hair, 0.0)));
+        // Fixed 101.05 ± 0.05: met at the edge, missed a hair beyond either edge.
+        assert!(met(control(ControlKind::Fixed, 101.05 - hair, 0.05)));
+        assert!(met(control(ControlKind::Fixed, 100.95 + hair, 0.05)));
+        assert!(!met(control(ControlKind::Fixed, 101.05 + hair, 0.05)));
+        assert!(!met(control(ControlKind::Fixed, 100.95 - hair, 0.05)));
+    }
+
+    #[test]
+    fn a_missed_point_is_a_failing_finding_with_the_amount() {
+        let controls = vec![
+            control(ControlKind::Minimum, 101.75, 0.0),
+            control(ControlKind::Maximum, 102.0, 0.0),
+            ControlPoint { station: 150.0, ..control(ControlKind::Fixed, 1.0, 0.0) },
+        ];
+        let st = check_controls(&road(), &controls);
+        let findings = control_findings(Units::Metric, &controls, &st);
+        assert_eq!(findings.len(), 2, "{findings:?}");
+        let first = findings.first().expect("one");
+        assert_eq!((first.severity, first.code), (Severity::Fail, "control.min"));
+        assert!(first.message.contains("0.750 m below the minimum 101.750"), "{}", first.message);
+        assert_eq!(findings.get(1).map(|f| (f.severity, f.code)), Some((Severity::Warn, "control.outside")));
+    }
+
+    #[test]
+    fn kinds_read_from_file_words() {
+        assert_eq!(ControlKind::from_key(" MIN "), Some(ControlKind::Minimum));
+        assert_eq!(ControlKind::from_key("maximum"), Some(ControlKind::Maximum));
+        assert_eq!(ControlKind::from_key("fixed"), Some(ControlKind::Fixed));
+        assert_eq!(ControlKind::from_key("above"), None);
+        for k in ControlKind::ALL {
+            assert_eq!(ControlKind::from_key(k.key()), Some(k));
+        }
+    }
+}

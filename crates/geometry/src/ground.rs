@@ -1,0 +1,398 @@
+//! The existing ground line, and what a designer reads off it against the
+//! profile: cut and fill depths, the grade points (where the profile crosses
+//! the ground) and the largest cut and fill.
+//!
+//! The ground is linear between its points. Outside its first and last point
+//! there is no ground: no depth is given there, never an extrapolated one.
+//! The points are shared behind an [`Arc`], so copying a project (an undo
+//! step, a drag frame) never copies a large ground line.
+
+use std::ops::Deref;
+use std::sync::Arc;
+
+use serde::{Deserialize, Deserializer, Serialize, Serializer};
+
+use crate::{Alignment, GroundPoint, Segment};
+
+/// The existing ground line: points in increasing station order, shared.
+#[derive(Clone, Debug, Default)]
+pub struct Ground(Arc<[GroundPoint]>);
+
+impl Ground {
+    /// A ground line of `points` (in increasing station order).
+    pub fn new(points: Vec<GroundPoint>) -> Self {
+        Self(points.into())
+    }
+
+    /// Whether `other` is the very same shared line (not only equal points).
+    pub fn shares(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.0, &other.0)
+    }
+
+    /// First and last station, when there are at least two points.
+    pub fn range(&self) -> Option<(f64, f64)> {
+        match (self.first(), self.last()) {
+            (Some(a), Some(b)) if self.len() >= 2 => Some((a.station, b.station)),
+            _ => None,
+        }
+    }
+
+    /// The first point whose station and order are unusable, as
+    /// `(index, why)`: not finite, or not after the point before.
+    pub fn problem(&self) -> Option<(usize, &'static str)> {
+        for (i, p) in self.iter().enumerate() {
+            if !p.station.is_finite() || !p.elevation.is_finite() {
+                return Some((i, "station and elevation must be finite numbers"));
+            }
+            if i > 0 && self.get(i - 1).is_some_and(|q| q.station >= p.station) {
+                return Some((i, "stations must increase"));
+            }
+        }
+        None
+    }
+
+    /// Ground elevation at `station` by linear interpolation; `None` outside
+    /// the ground (or with fewer than two points).
+    pub fn elevation_at(&self, station: f64) -> Option<f64> {
+        let (first, last) = self.range()?;
+        if !(station >= first && station <= last) {
+            return None;
+        }
+        let i = self.partition_point(|p| p.station <= station).clamp(1, self.len() - 1);
+        let (a, b) = (self.get(i - 1)?, self.get(i)?);
+        let t = (station - a.station) / (b.station - a.station);
+        Some(a.elevation + t * (b.elevation - a.elevation))
+    }
+
+    /// The ground for drawing between stations `range`, at most about four
+    /// points per column when `columns` columns span the range: in each
+    /// column the first, lowest, highest and last point, in station order,
+    /// so a spike stays visible. A line short enough is returned whole. One
+    /// point beyond each end of the range is kept so the line reaches the
+    /// edges. For drawing only: never compute with the result.
+    pub fn decimated(&self, range: (f64, f64), columns: usize) -> Vec<[f64; 2]> {
+        let lo = self.partition_point(|p| p.station < range.0).saturating_sub(1);
+        let hi = (self.partition_point(|p| p.station <= range.1) + 1).min(self.len());
+        let Some(points) = self.get(lo..hi) else { return Vec::new() };
+        let columns = columns.max(1);
+        if points.len() <= 4 * columns {
+            return points.iter().map(|p| [p.station, p.elevation]).collect();
+        }
+        let width = (range.1 - range.0) / columns as f64;
+        #[allow(clippy::cast_possible_truncation)]
+        let column_of = |s: f64| -> i64 {
+            if width > 0.0 && width.is_finite() { ((s - range.0) / width).floor() as i64 } else { 0 }
+        };
+        let mut out = Vec::with_capacity(4 * columns + 8);
+        let mut start = 0;
+        while let Some(first) = points.get(start) {
+            let column = column_of(first.station);
+            let mut end = start + 1;
+            while points.get(end).is_some_and(|p| column_of(p.station) == column) {
+                end += 1;
+            }
+            let run = points.get(start..end).unwrap_or(&[]);
+            let (mut low, mut high) = (0, 0);
+            for (k, p) in run.iter().enumerate() {
+                if run.get(low).is_some_and(|q| p.elevation < q.elevation) {
+                    low = k;
+                }
+                if run.get(high).is_some_and(|q| p.elevation > q.elevation) {
+                    high = k;
+                }
+            }
+            let mut picks = [0, low.min(high), low.max(high), run.len() - 1];
+            picks.sort_unstable();
+            let mut last_pick = usize::MAX;
+            for k in picks {
+                if k != last_pick
+                    && let Some(p) = run.get(k)
+                {
+                    out.push([p.station, p.elevation]);
+                }
+                last_pick = k;
+            }
+            start = end;
+        }
+        out
+    }
+}
+
+impl Deref for Ground {
+    type Target = [GroundPoint];
+
+    fn deref(&self) -> &[GroundPoint] {
+        &self.0
+    }
+}
+
+impl PartialEq for Ground {
+    fn eq(&self, other: &Self) -> bool {
+        self.shares(other) || *self.0 == *other.0
+    }
+}
+
+impl From<Vec<GroundPoint>> for Ground {
+    fn from(points: Vec<GroundPoint>) -> Self {
+        Self::new(points)
+    }
+}
+
+impl Serialize for Ground {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        self.0.serialize(serializer)
+    }
+}
+
+impl<'de> Deserialize<'de> for Ground {
+    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
+        Vec::<GroundPoint>::deserialize(deserializer).map(Self::new)
+    }
+}
+
+/// Cut or fill at one station: how far the profile is below (cut) or above
+/// (fill) the ground. One of the two is zero.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Depth {
+    /// Station.
+    pub station: f64,
+    /// Ground elevation.
+    pub ground: f64,
+    /// Profile elevation.
+    pub profile: f64,
+    /// Ground above the profile (≥ 0).
+    pub cut: f64,
+    /// Profile above the ground (≥ 0).
+    pub fill: f64,
+}
+
+impl Depth {
+    fn new(station: f64, ground: f64, profile: f64) -> Self {
+        let d = ground - profile;
+        Self { station, ground, profile, cut: d.max(0.0), fill: (-d).max(0.0) }
+    }
+}
+
+/// Cut or fill at `station`; `None` where there is no ground or no profile.
+pub fn depth_at(alignment: &Alignment, ground: &Ground, station: f64) -> Option<Depth> {
+    let g = ground.elevation_at(station)?;
+    let y = alignment.sample(crate::Station(station)).ok()?.elevation;
+    Some(Depth::new(station, g, y))
+}
+
+/// One stretch on which both the profile and the ground are polynomials:
+/// the difference d(s) = ground − profile is quadratic on it.
+#[derive(Clone, Copy, Debug)]
+struct Piece {
+    start: f64,
+    end: f64,
+    segment: Segment,
+    /// Ground elevation at `start` and its slope (decimal).
+    ground: f64,
+    slope: f64,
+}
+
+impl Piece {
+    /// d(s) = ground − profile.
+    fn difference(&self, s: f64) -> f64 {
+        self.ground + self.slope * (s - self.start) - self.segment.elevation_at(s)
+    }
+}
+
+/// Every piece where the ground and the profile overlap, in station order.
+fn pieces(alignment: &Alignment, ground: &Ground, mut visit: impl FnMut(&Piece)) {
+    let (Some((g0, g1)), segments) = (ground.range(), alignment.segments()) else { return };
+    let (lo, hi) = (g0.max(alignment.start().0), g1.min(alignment.end().0));
+    if lo >= hi || lo.is_nan() || hi.is_nan() {
+        return;
+    }
+    let mut gi = ground.partition_point(|p| p.station <= lo).clamp(1, ground.len() - 1);
+    let mut si = segments.partition_point(|seg| seg.end <= lo).min(segments.len().saturating_sub(1));
+    let mut s = lo;
+    while s < hi {
+        let (Some(a), Some(b), Some(seg)) = (ground.get(gi - 1), ground.get(gi), segments.get(si)) else {
+            break;
+        };
+        let end = b.station.min(seg.end).min(hi);
+        if end > s {
+            let slope = (b.elevation - a.elevation) / (b.station - a.station);
+            let g = a.elevation + slope * (s - a.station);
+            visit(&Piece { start: s, end, segment: *seg, ground: g, slope });
+        }
+        if b.station <= end && gi + 1 < ground.len() {
+            gi += 1;
+        }
+        if seg.end <= end && si + 1 < segments.len() {
+            si += 1;
+        }
+        if end <= s {
+            break;
+        }
+        s = end;
+    }
+}
+
+/// The stations strictly inside the overlap of profile and ground where
+/// the profile crosses the ground (grade points), in order, found exactly
+/// on each piece (d is at most quadratic there).
+pub fn grade_points(alignment: &Alignment, ground: &Ground) -> Vec<f64> {
+    let mut out: Vec<f64> = Vec::new();
+    let mut push = |s: f64| {
+        if out.last().is_none_or(|&last| s > last + crate::tolerance::STATION_HAIR) {
+            out.push(s);
+        }
+    };
+    pieces(alignment, ground, |p| {
+        let (d0, d1) = (p.difference(p.start), p.difference(p.end));
+        // d(t) = d0 + b·t + c·t², t = s − start.
+        let b = p.slope - p.segment.grade_at(p.start);
+        let c = -0.5 * p.segment.rate;
+        let length = p.end - p.start;
+        let mut roots = [f64::NAN; 2];
+        if c == 0.0 {
+            if b != 0.0 {
+                roots[0] = -d0 / b;
+            }
+        } else {
+            let disc = b * b - 4.0 * c * d0;
+            if disc >= 0.0 {
+                let q = -0.5 * (b + b.signum() * disc.sqrt());
+                roots = if q == 0.0 { [0.0, f64::NAN] } else { [q / c, d0 / q] };
+            }
+        }
+        roots.sort_by(f64::total_cmp);
+        for t in roots {
+            if t > 0.0 && t < length {
+                push(p.start + t);
+            }
+        }
+        if d1 == 0.0 {
+            push(p.end);
+        }
+    });
+    out
+}
+
+/// The largest cut and the largest fill along the profile, each with its
+/// station; `None` for either when there is none (or no ground).
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct CutFillSummary {
+    /// Largest cut: (station, depth).
+    pub cut: Option<(f64, f64)>,
+    /// Largest fill: (station, depth).
+    pub fill: Option<(f64, f64)>,
+}
+
+/// The largest cut and fill, found exactly: at piece ends or where d′ = 0
+/// inside a curved piece.
+pub fn cut_fill_summary(alignment: &Alignment, ground: &Ground) -> CutFillSummary {
+    let mut summary = CutFillSummary::default();
+    let mut consider = |s: f64, d: f64| {
+        if d > 0.0 && summary.cut.is_none_or(|(_, c)| d > c) {
+            summary.cut = Some((s, d));
+        }
+        if d < 0.0 && summary.fill.is_none_or(|(_, f)| -d > f) {
+            summary.fill = Some((s, -d));
+        }
+    };
+    pieces(alignment, ground, |p| {
+        consider(p.start, p.difference(p.start));
+        consider(p.end, p.difference(p.end));
+        if p.segment.rate != 0.0 {
+            // d′ = slope − grade(s) = 0.
+            let s = p.start + (p.slope - p.segment.grade_at(p.start)) / p.segment.rate;
+            if s > p.start && s < p.end {
+                consider(s, p.difference(s));
+            }
+        }
+    });
+    summary
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::{Profile, Pvi, Units};
+
+    fn ground(points: &[(f64, f64)]) -> Ground {
+        Ground::new(points.iter().map(|&(station, elevation)| GroundPoint { station, elevation }).collect())
+    }
+
+    fn flat_road(elevation: f64, length: f64) -> Alignment {
+        let pvis = vec![Pvi::new(0.0, elevation), Pvi::new(length, elevation)];
+        Alignment::new(&Profile::new(Units::Metric, pvis)).expect("valid")
+    }
+
+    #[test]
+    fn interpolates_inside_and_gives_nothing_outside() {
+        let g = ground(&[(0.0, 100.0), (10.0, 102.0), (30.0, 101.0)]);
+        assert_eq!(g.elevation_at(5.0), Some(101.0));
+        assert_eq!(g.elevation_at(10.0), Some(102.0));
+        assert_eq!(g.elevation_at(20.0), Some(101.5));
+        assert_eq!(g.elevation_at(30.0), Some(101.0));
+        assert_eq!(g.elevation_at(-0.001), None);
+        assert_eq!(g.elevation_at(30.001), None);
+        assert_eq!(ground(&[(0.0, 1.0)]).elevation_at(0.0), None);
+    }
+
+    #[test]
+    fn depths_split_into_cut_and_fill() {
+        // Hand-computed: a level road at 101.0 over ground rising 100 → 102.
+        let road = flat_road(101.0, 40.0);
+        let g = ground(&[(0.0, 100.0), (20.0, 102.0)]);
+        let at = |s| depth_at(&road, &g, s).expect("ground here");
+        assert!((at(5.0).fill - 0.5).abs() < 1e-12 && at(5.0).cut == 0.0);
+        assert!((at(15.0).cut - 0.5).abs() < 1e-12 && at(15.0).fill == 0.0);
+        assert!(depth_at(&road, &g, 30.0).is_none(), "no ground past 20: no depth");
+        let crossings = grade_points(&road, &g);
+        assert_eq!(crossings.len(), 1);
+        assert!((crossings.first().copied().unwrap_or_default() - 10.0).abs() < 1e-12);
+        let summary = cut_fill_summary(&road, &g);
+        assert_eq!(summary.cut, Some((20.0, 1.0)));
+        assert_eq!(summary.fill, Some((0.0, 1.0)));
+    }
+
+    #[test]
+    fn finds_two_crossings_of_a_curve_inside_one_ground_piece() {
+        // Crest: PVIs (0, 100), (100, 105), (200, 100), L = 200, so
+        // r = (−0.05 − 0.05)/200 and y = 100 + 0.05 s − 0.00025 s².
+        // Level ground at 102: s² − 200 s + 8000 = 0, s = 100 ∓ √2000
+        // (hand-computed: 55.279 and 144.721).
+        let pvis = vec![Pvi::new(0.0, 100.0), Pvi::with_curve(100.0, 105.0, 200.0), Pvi::new(200.0, 100.0)];
+        let road = Alignment::new(&Profile::new(Units::Metric, pvis)).expect("valid");
+        let g = ground(&[(0.0, 102.0), (200.0, 102.0)]);
+        let found = grade_points(&road, &g);
+        let root = 2000f64.sqrt();
+        assert_eq!(found.len(), 2, "{found:?}");
+        assert!((found.first().copied().unwrap_or_default() - (100.0 - root)).abs() < 1e-9, "{found:?}");
+        assert!((found.get(1).copied().unwrap_or_default() - (100.0 + root)).abs() < 1e-9, "{found:?}");
+        // Largest fill at the crest: y(100) = 102.5, fill 0.5.
+        let summary = cut_fill_summary(&road, &g);
+        let (s, f) = summary.fill.expect("fill");
+        assert!((s - 100.0).abs() < 1e-9 && (f - 0.5).abs() < 1e-12, "{s} {f}");
+        assert_eq!(summary.cut.map(|c| c.0), Some(0.0));
+    }
+
+    #[test]
+    fn decimation_keeps_spikes_and_is_only_for_drawing() {
+        let mut points: Vec<(f64, f64)> = (0..100_000).map(|i| (f64::from(i) * 0.1, 50.0)).collect();
+        if let Some(p) = points.get_mut(54_321) {
+            p.1 = 80.0;
+        }
+        let g = ground(&points);
+        let drawn = g.decimated((0.0, 10_000.0), 500);
+        assert!(drawn.len() <= 4 * 500 + 8, "{}", drawn.len());
+        assert!(drawn.iter().any(|p| (p[1] - 80.0).abs() < 1e-12), "the spike is drawn");
+        assert!(drawn.windows(2).all(|w| matches!(w, [a, b] if a[0] < b[0])), "in station order");
+        assert_eq!(g.len(), 100_000, "the ground itself is untouched");
+    }
+
+    #[test]
+    fn copies_share_the_points() {
+        let g = ground(&[(0.0, 1.0), (1.0, 2.0)]);
+        let copy = g.clone();
+        assert!(copy.shares(&g));
+        assert_eq!(copy, g);
+        assert!(!ground(&[(0.0, 1.0), (1.0, 2.0)]).shares(&g));
+    }
+}
