@@ -601,10 +601,11 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 refuse_unchecked_sight(&alignment, &criteria, &input)?;
             }
             let project = loaded.project;
-            let checks = Analysis::of(&project).report;
+            let analysis = Analysis::of(&project);
+            let checks = &analysis.report;
             let text = match format {
-                Format::Text => report::text(&project, &criteria, &checks),
-                Format::Json => report::json(&project, &criteria, &checks)?,
+                Format::Text => report::text(&project, &criteria, &analysis),
+                Format::Json => report::json(&project, &criteria, checks)?,
             };
             print(text.as_bytes())?;
             Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })

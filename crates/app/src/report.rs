@@ -100,7 +100,12 @@ pub fn json(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
 }
 
 /// The check report as text for a terminal.
-pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport) -> String {
+pub fn text(
+    project: &Project,
+    criteria: &ResolvedCriteria,
+    analysis: &gradewright_geometry::Analysis,
+) -> String {
+    let checks = &analysis.report;
     let units = project.units;
     let len = units.length_symbol();
     let mut out = String::new();
@@ -150,6 +155,7 @@ pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
             if c.ok { "ok" } else { "FAIL" }
         );
     }
+    site_text(&mut out, analysis);
     let _ = writeln!(out, "\nFindings ({}):", checks.findings.len());
     if checks.findings.is_empty() {
         let _ = writeln!(out, "  none");
@@ -167,4 +173,60 @@ pub fn text(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
         "\nLengths in {len}. Results need checking by a licensed engineer; local codes and agency standards govern."
     );
     out
+}
+
+/// The control points, the ground and the earthwork estimate, when the
+/// project has them.
+fn site_text(out: &mut String, analysis: &gradewright_geometry::Analysis) {
+    use gradewright_geometry::{ControlKind, ControlStatus, format_station, volume_symbol};
+    let units = analysis.profile.units;
+    let len = units.length_symbol();
+    let label = |s: f64| format_station(s, units, units.station_decimals());
+    if !analysis.controls.is_empty() {
+        let _ = writeln!(out, "\nControl points ({}):", analysis.controls.len());
+        for (i, c) in analysis.controls.iter().enumerate() {
+            let limit = match c.kind {
+                ControlKind::Fixed => format!("fixed {:.3} ± {:.3}", c.elevation, c.tolerance),
+                ControlKind::Minimum => format!("min {:.3}", c.elevation),
+                ControlKind::Maximum => format!("max {:.3}", c.elevation),
+            };
+            let status = match analysis.control_status.get(i) {
+                Some(ControlStatus::Met(y)) => format!("profile {y:.3}  met"),
+                Some(ControlStatus::Missed(y, miss)) => format!("profile {y:.3}  MISSED by {miss:.3} {len}"),
+                Some(ControlStatus::Outside) => "outside the profile: not checked".to_owned(),
+                Some(ControlStatus::Invalid) => "not a usable number".to_owned(),
+                None => "not checked (the profile has problems)".to_owned(),
+            };
+            let _ = writeln!(out, "  {:<28} {:>12} {:<24} {status}", c.title(i), label(c.station), limit);
+        }
+    }
+    if let Some((a, b)) = analysis.ground.range() {
+        let _ = writeln!(out, "\nGround: {} points, {} to {}", analysis.ground.len(), label(a), label(b));
+        if let Some((s, d)) = analysis.cut_fill.cut {
+            let _ = writeln!(out, "  largest cut  {d:.3} {len} at {}", label(s));
+        }
+        if let Some((s, d)) = analysis.cut_fill.fill {
+            let _ = writeln!(out, "  largest fill {d:.3} {len} at {}", label(s));
+        }
+        match &analysis.earthwork {
+            Some(Ok(e)) => {
+                let vol = volume_symbol(units);
+                let _ = writeln!(
+                    out,
+                    "  earthwork, level section W {} {len}, cut slope {}:1, fill slope {}:1, shrinkage {} %: cut {:.1} {vol}, fill {:.1} {vol}, net {:+.1} {vol}",
+                    e.section.width,
+                    e.section.cut_slope,
+                    e.section.fill_slope,
+                    e.section.shrinkage_percent,
+                    e.cut,
+                    e.fill,
+                    e.net()
+                );
+            }
+            Some(Err(e)) => {
+                let _ = writeln!(out, "  earthwork: {e}");
+            }
+            None => {}
+        }
+    }
 }

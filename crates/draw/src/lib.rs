@@ -11,5 +11,5 @@ pub mod sheet;
 
 pub use place::{Placed, Placement, Rect, Spacing, place_labels};
 pub use render::{RenderError, pdf, png, raster};
-pub use scene::{Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene};
+pub use scene::{Detail, Hatch, Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene};
 pub use sheet::{CAUTION, Layout, SheetError, SheetOptions, SheetSize, TitleBlock, layout, sheet_svgs};

@@ -2,7 +2,9 @@
 //! (station, elevation), each item tagged by its role and never by a colour.
 //! The sheet maps roles to print styles; a screen maps them to its theme.
 
-use gradewright_geometry::{Analysis, CurveKind, Units, format_station};
+use gradewright_geometry::{
+    Analysis, ControlKind, ControlStatus, CurveKind, Units, depth_at, format_station,
+};
 
 /// What a drawn item is, for the front end to style.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
@@ -34,6 +36,16 @@ pub enum Role {
     /// A curve of a profile that cannot be evaluated (curves overlap or do
     /// not fit), drawn on its own.
     InvalidCurve,
+    /// Cut: the ground above the profile (hatched solid).
+    Cut,
+    /// Fill: the profile above the ground (hatched dotted).
+    Fill,
+    /// A control point the profile meets.
+    Control,
+    /// A control point the profile misses.
+    MissedControl,
+    /// A control point's name and elevation.
+    ControlLabel,
 }
 
 /// A polyline.
@@ -59,6 +71,37 @@ pub enum Shape {
     },
     /// A cross (failure).
     Cross,
+    /// A diamond: a fixed elevation to meet.
+    Diamond,
+    /// A bar with a triangle under it pointing up: stay at or above.
+    Floor,
+    /// A bar with a triangle over it pointing down: stay at or below.
+    Ceiling,
+}
+
+impl Shape {
+    /// The symbol of a control point of `kind`.
+    pub fn of_control(kind: ControlKind) -> Self {
+        match kind {
+            ControlKind::Fixed => Self::Diamond,
+            ControlKind::Minimum => Self::Floor,
+            ControlKind::Maximum => Self::Ceiling,
+        }
+    }
+}
+
+/// One stroke of the cut and fill shading: a vertical line from the profile
+/// to the ground at one station.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Hatch {
+    /// [`Role::Cut`] or [`Role::Fill`].
+    pub role: Role,
+    /// Station.
+    pub station: f64,
+    /// Profile elevation.
+    pub profile: f64,
+    /// Ground elevation.
+    pub ground: f64,
 }
 
 /// A marker at a point.
@@ -106,12 +149,28 @@ pub struct Scene {
     pub markers: Vec<Marker>,
     /// Labels.
     pub labels: Vec<Label>,
+    /// Cut and fill shading, in station order.
+    pub hatches: Vec<Hatch>,
 }
 
-/// The scene of `analysis` between stations `range`, its curves flattened to
-/// `tolerance` (elevation units).
+/// How finely a scene is drawn: the chord error of curves (elevation
+/// units) and how many device columns (screen points, or paper units)
+/// span the station range, which sets the ground's decimation and the
+/// spacing of the cut and fill hatching.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Detail {
+    /// Largest chord error of a drawn curve, in elevation units.
+    pub tolerance: f64,
+    /// Device columns across the range.
+    pub columns: usize,
+    /// Columns between two hatch strokes.
+    pub hatch_every: f64,
+}
+
+/// The scene of `analysis` between stations `range`, drawn to `detail`.
 #[allow(clippy::too_many_lines)]
-pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> Scene {
+pub fn profile_scene(analysis: &Analysis, range: (f64, f64), detail: Detail) -> Scene {
+    let tolerance = detail.tolerance;
     let mut scene = Scene::default();
     let pvis = &analysis.profile.pvis;
     let units: Units = analysis.profile.units;
@@ -119,14 +178,13 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
     let label = |s: f64| format_station(s, units, units.station_decimals());
     let within = |s: f64| s >= range.0 && s <= range.1;
     if analysis.ground.len() >= 2 {
-        // The ground in range and one point beyond each end, so it reaches the edges.
-        let g = &analysis.ground;
-        let first = g.partition_point(|p| p.station < range.0).saturating_sub(1);
-        let last = (g.partition_point(|p| p.station <= range.1) + 1).min(g.len());
-        scene.lines.push(Polyline {
-            role: Role::Ground,
-            points: g.get(first..last).unwrap_or(&[]).iter().map(|p| [p.station, p.elevation]).collect(),
-        });
+        // Decimated for drawing only (spikes kept), reaching both edges.
+        scene
+            .lines
+            .push(Polyline { role: Role::Ground, points: analysis.ground.decimated(range, detail.columns) });
+        if let Some(alignment) = analysis.alignment.as_ref() {
+            scene.hatches = hatches(alignment, &analysis.ground, range, detail);
+        }
     }
     scene.lines.push(Polyline {
         role: Role::GradeLine,
@@ -252,6 +310,7 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
             });
         }
     }
+    controls(analysis, &mut scene, within);
     for w in pvis.windows(2) {
         let [a, b] = w else { continue };
         let mid = 0.5 * (a.station.0 + b.station.0);
@@ -268,4 +327,70 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), tolerance: f64) -> 
         });
     }
     scene
+}
+
+/// The cut and fill hatching in `range`: a stroke every
+/// `detail.hatch_every` columns, at stations on a fixed grid so the strokes
+/// stay put while the view pans.
+fn hatches(
+    alignment: &gradewright_geometry::Alignment,
+    ground: &gradewright_geometry::Ground,
+    range: (f64, f64),
+    detail: Detail,
+) -> Vec<Hatch> {
+    let Some((g0, g1)) = ground.range() else { return Vec::new() };
+    #[allow(clippy::cast_precision_loss)]
+    let spacing = (range.1 - range.0) / detail.columns.max(1) as f64 * detail.hatch_every.max(1.0);
+    if !(spacing.is_finite() && spacing > 0.0) {
+        return Vec::new();
+    }
+    let (lo, hi) = (range.0.max(g0).max(alignment.start().0), range.1.min(g1).min(alignment.end().0));
+    let mut out = Vec::new();
+    let mut s = (lo / spacing).ceil() * spacing;
+    while s <= hi && out.len() < 20_000 {
+        if let Some(d) = depth_at(alignment, ground, s)
+            && (d.cut > 0.0 || d.fill > 0.0)
+        {
+            let role = if d.cut > 0.0 { Role::Cut } else { Role::Fill };
+            out.push(Hatch { role, station: s, profile: d.profile, ground: d.ground });
+        }
+        s += spacing;
+    }
+    out
+}
+
+/// Control points: their symbol (by kind, not by colour), and a label with
+/// the name, the kind and elevation, and by how much a missed one is missed.
+fn controls(analysis: &Analysis, scene: &mut Scene, within: impl Fn(f64) -> bool) {
+    let len = analysis.profile.units.length_symbol();
+    for (i, c) in analysis.controls.iter().enumerate() {
+        if !within(c.station) || !c.elevation.is_finite() {
+            continue;
+        }
+        let status = analysis.control_status.get(i).copied();
+        let missed = matches!(status, Some(ControlStatus::Missed(..)));
+        let at = [c.station, c.elevation];
+        let role = if missed { Role::MissedControl } else { Role::Control };
+        scene.markers.push(Marker { role, at, shape: Shape::of_control(c.kind) });
+        let limit = match c.kind {
+            ControlKind::Fixed if c.tolerance > 0.0 => {
+                format!("fixed {:.3} ± {:.3}", c.elevation, c.tolerance)
+            }
+            ControlKind::Fixed => format!("fixed {:.3}", c.elevation),
+            ControlKind::Minimum => format!("min {:.3}", c.elevation),
+            ControlKind::Maximum => format!("max {:.3}", c.elevation),
+        };
+        let mut lines = vec![c.title(i), limit];
+        if let Some(ControlStatus::Missed(y, miss)) = status {
+            let side = if y < c.elevation { "below" } else { "above" };
+            lines.push(format!("× missed: {miss:.3} {len} {side}"));
+        }
+        scene.labels.push(Label {
+            role: if missed { Role::FailLabel } else { Role::ControlLabel },
+            at,
+            lines,
+            side: if c.kind == ControlKind::Maximum { Side::Above } else { Side::Below },
+            priority: if missed { 0 } else { 1 },
+        });
+    }
 }

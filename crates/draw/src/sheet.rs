@@ -6,7 +6,7 @@ use std::fmt::Write as _;
 use gradewright_geometry::{Analysis, Severity, Station, Units, format_station};
 
 use crate::place::{Rect, Spacing, place_labels};
-use crate::scene::{Label, Role, Shape, Side, profile_scene};
+use crate::scene::{Detail, Label, Role, Shape, Side, profile_scene};
 
 /// The cautions printed on every sheet.
 pub const CAUTION: &str = "Design aid only: every result must be checked by a licensed professional engineer; local codes and agency standards govern.";
@@ -451,7 +451,10 @@ fn one_sheet(
     );
     svg.push_str(&text);
     // The scene: lines first, then markers, then labels placed apart.
-    let scene = profile_scene(analysis, range, 0.05 * vu);
+    // Half-millimetre columns; a hatch stroke every 2.5 mm.
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let detail = Detail { tolerance: 0.05 * vu, columns: (fw * 2.0).max(1.0) as usize, hatch_every: 5.0 };
+    let scene = profile_scene(analysis, range, detail);
     let path = |pts: &[[f64; 2]]| {
         let mut d = String::new();
         for (k, p) in pts.iter().enumerate() {
@@ -460,6 +463,24 @@ fn one_sheet(
         d
     };
     let _ = write!(svg, r#"<g clip-path="url(#frame)" fill="none" stroke-linejoin="round">"#);
+    // Cut hatched with solid strokes, fill with dotted ones: told apart
+    // without colour.
+    for (role, style) in [
+        (Role::Cut, r##"stroke="#888" stroke-width="0.15""##),
+        (
+            Role::Fill,
+            r##"stroke="#666" stroke-width="0.3" stroke-dasharray="0.01 0.7" stroke-linecap="round""##,
+        ),
+    ] {
+        let mut d = String::new();
+        for h in scene.hatches.iter().filter(|h| h.role == role) {
+            let x = px(h.station);
+            let _ = write!(d, "M{x:.3},{:.3} L{x:.3},{:.3} ", py(h.profile), py(h.ground));
+        }
+        if !d.is_empty() {
+            let _ = write!(svg, r#"<path class="{role:?}" d="{d}" {style}/>"#);
+        }
+    }
     for line in &scene.lines {
         let style = match line.role {
             Role::GradeLine => r##"stroke="#666" stroke-width="0.2" stroke-dasharray="2 1.2""##.to_owned(),
@@ -498,6 +519,43 @@ fn one_sheet(
                     y - d * 0.2,
                     x,
                     y + d
+                )
+            }
+            Shape::Diamond | Shape::Floor | Shape::Ceiling => {
+                let colour = if m.role == Role::MissedControl { ACCENT } else { "#000" };
+                let d = match m.shape {
+                    Shape::Diamond => format!(
+                        "M{x:.3},{:.3} L{:.3},{y:.3} L{x:.3},{:.3} L{:.3},{y:.3} Z",
+                        y - 1.3,
+                        x + 1.3,
+                        y + 1.3,
+                        x - 1.3
+                    ),
+                    // A bar at the elevation with a triangle on the side the
+                    // profile must stay.
+                    Shape::Floor => format!(
+                        "M{:.3},{y:.3} L{:.3},{y:.3} M{x:.3},{y:.3} L{:.3},{:.3} L{:.3},{:.3} Z",
+                        x - 1.6,
+                        x + 1.6,
+                        x - 1.0,
+                        y + 1.6,
+                        x + 1.0,
+                        y + 1.6
+                    ),
+                    _ => format!(
+                        "M{:.3},{y:.3} L{:.3},{y:.3} M{x:.3},{y:.3} L{:.3},{:.3} L{:.3},{:.3} Z",
+                        x - 1.6,
+                        x + 1.6,
+                        x - 1.0,
+                        y - 1.6,
+                        x + 1.0,
+                        y - 1.6
+                    ),
+                };
+                write!(
+                    svg,
+                    r#"<path class="{:?}" d="{d}" fill="white" stroke="{colour}" stroke-width="0.35"/>"#,
+                    m.role
                 )
             }
             Shape::Cross => write!(

@@ -236,6 +236,9 @@ impl GradewrightApp {
             }
             Edit::SetCriteria(criteria) => self.project.criteria = *criteria,
             Edit::SetName(name) => self.project.name = name,
+            Edit::SetGround(ground) => self.project.ground = ground,
+            Edit::SetControls(controls) => self.project.controls = controls,
+            Edit::SetSection(section) => self.project.section = section,
             Edit::Replace(project) => self.project = *project,
         }
         if self.project == before {
@@ -458,6 +461,9 @@ impl GradewrightApp {
                 self.apply_edit(*edit);
             }
             Action::New(_) | Action::Open(_) | Action::Quit => self.guarded(action),
+            Action::ImportGround(_) | Action::ImportControls(_) | Action::Dropped(_) => {
+                self.site_action(action);
+            }
             Action::Save => match self.path.clone() {
                 Some(path) => {
                     self.save_to(&path);

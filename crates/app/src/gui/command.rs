@@ -5,7 +5,7 @@
 use std::path::PathBuf;
 
 use egui::{Key, KeyboardShortcut, Modifiers};
-use gradewright_geometry::{Criteria, Project, Pvi, Units};
+use gradewright_geometry::{ControlPoint, Criteria, Ground, Project, Pvi, Section, Units};
 
 /// A change to the project. Every edit is one undo step.
 #[derive(Clone, Debug, PartialEq)]
@@ -33,6 +33,12 @@ pub enum Edit {
     SetCriteria(Box<Criteria>),
     /// Rename the project.
     SetName(String),
+    /// Replace the existing ground (an import).
+    SetGround(Ground),
+    /// Replace the control points.
+    SetControls(Vec<ControlPoint>),
+    /// Set or clear the earthwork section.
+    SetSection(Option<Section>),
     /// Replace the whole project (keeps undo).
     Replace(Box<Project>),
 }
@@ -53,6 +59,12 @@ pub enum Action {
     New(Units),
     /// Open a file (`None`: ask with a dialog).
     Open(Option<PathBuf>),
+    /// Import an existing-ground CSV (`None`: ask with a dialog).
+    ImportGround(Option<PathBuf>),
+    /// Import a control-points CSV (`None`: ask with a dialog).
+    ImportControls(Option<PathBuf>),
+    /// A file dropped on the window: open or import it by what it holds.
+    Dropped(PathBuf),
     /// Save to the current file (asks for one if there is none).
     Save,
     /// Save to another file (`None`: ask with a dialog).

@@ -1,4 +1,4 @@
-//! File ▸ Export sheet and tables…: the choices (saved with the project), a
+//! File, Export sheet and tables…: the choices (saved with the project), a
 //! live preview of the very sheet that will be written, and the export.
 
 use std::path::PathBuf;
@@ -74,7 +74,7 @@ impl GradewrightApp {
         }
     }
 
-    /// Where File ▸ Export tables… writes: the settings' folder, else
+    /// Where File, Export tables… writes: the settings' folder, else
     /// `NAME-tables` beside the project file.
     pub fn tables_dir(&self) -> PathBuf {
         let settings = &self.project().export;
@@ -172,7 +172,7 @@ fn interval_ui(ui: &mut egui::Ui, settings: &mut ExportSettings, units: gradewri
     ui.end_row();
 }
 
-/// File ▸ Export tables…: the three hand-over tables on their own.
+/// File, Export tables…: the three hand-over tables on their own.
 pub fn tables_ui(app: &mut GradewrightApp, ctx: &egui::Context) {
     let mut open = app.view.show_tables_export;
     if !open {

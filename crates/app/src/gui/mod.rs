@@ -14,6 +14,8 @@ mod findings_ui;
 mod history;
 mod plot_ui;
 mod sight_ui;
+mod site;
+mod site_ui;
 mod table_ui;
 mod theme;
 mod view;
@@ -34,6 +36,7 @@ impl GradewrightApp {
     pub fn show(&mut self, ui: &mut egui::Ui) {
         let ctx = ui.ctx().clone();
         self.read_shortcuts(&ctx);
+        self.read_dropped_files(&ctx);
         egui::Panel::top("menu").show(ui, |ui| self.menu_ui(ui));
         egui::Panel::bottom("status").show(ui, |ui| self.status_ui(ui));
         egui::Panel::bottom("pvi-table").resizable(true).default_size(250.0).min_size(120.0).show(ui, |ui| {
@@ -47,18 +50,28 @@ impl GradewrightApp {
                 egui::CollapsingHeader::new(RichText::new("Design criteria").heading())
                     .default_open(true)
                     .show(ui, |ui| criteria_ui::criteria_ui(self, ui));
+                egui::CollapsingHeader::new(RichText::new("Control points").heading())
+                    .default_open(true)
+                    .show(ui, |ui| site_ui::controls_ui(self, ui));
+                egui::CollapsingHeader::new(RichText::new("Ground and earthwork").heading())
+                    .default_open(true)
+                    .show(ui, |ui| site_ui::earthwork_ui(self, ui));
             });
         });
         egui::CentralPanel::default().show(ui, |ui| {
             plot_ui::plot_toolbar_ui(self, ui);
-            let strip = if self.view.show_sight_strip {
-                (ui.available_height() * 0.3).clamp(90.0, 260.0)
-            } else {
-                0.0
+            let mass = self.view.show_mass_strip && self.project().ground.range().is_some();
+            let share = if mass { 0.2 } else { 0.3 };
+            let strip = |on: bool, ui: &egui::Ui| {
+                if on { (ui.available_height() * share).clamp(80.0, 240.0) } else { 0.0 }
             };
-            plot_ui::plot_ui(self, ui, ui.available_height() - strip);
+            let (sight_h, mass_h) = (strip(self.view.show_sight_strip, ui), strip(mass, ui));
+            plot_ui::plot_ui(self, ui, ui.available_height() - sight_h - mass_h);
             if self.view.show_sight_strip {
-                sight_ui::sight_ui(self, ui);
+                ui.allocate_ui(egui::vec2(ui.available_width(), sight_h), |ui| sight_ui::sight_ui(self, ui));
+            }
+            if mass {
+                site_ui::mass_strip_ui(self, ui);
             }
         });
         about_ui::about_ui(self, &ctx);
@@ -104,6 +117,20 @@ impl GradewrightApp {
                         }
                     }
                 });
+                ui.separator();
+                if ui.button("Import ground…").on_hover_text("A CSV of station, elevation: replaces the existing ground").clicked() {
+                    self.push(Action::ImportGround(None));
+                    ui.close();
+                }
+                if ui
+                    .button("Import control points…")
+                    .on_hover_text("A CSV with the header station,kind,elevation,tolerance,name (kind fixed, min or max)")
+                    .clicked()
+                {
+                    self.push(Action::ImportControls(None));
+                    ui.close();
+                }
+                ui.separator();
                 if ui.button("Export sheet and tables…").clicked() {
                     self.view.show_export = true;
                     ui.close();

@@ -8,7 +8,7 @@ use egui_plot::{
     Legend, Line, LineStyle, MarkerShape, Plot, PlotBounds, PlotPoint, PlotPoints, Points, Text,
 };
 use gradewright_draw::{
-    Label, Placement, Rect, Role, Scene, Shape, Side, Spacing, place_labels, profile_scene,
+    Detail, Label, Placement, Rect, Role, Scene, Shape, Side, Spacing, place_labels, profile_scene,
 };
 use gradewright_geometry::{Station, format_station};
 
@@ -126,6 +126,7 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
         ui.ctx().set_cursor_icon(egui::CursorIcon::Grab);
     }
     let alignment = app.analysis().alignment.clone();
+    let ground = app.project().ground.clone();
     let station_decimals = units.station_decimals();
     let dragging = app.view.dragging.is_some();
     let plot = Plot::new("profile-plot")
@@ -150,10 +151,14 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
             let station = format_station(p.x, units, station_decimals);
             let on_profile = alignment.as_ref().and_then(|a| a.sample(Station(p.x)).ok());
             Some(match on_profile {
-                Some(s) => format!(
-                    "{station}\nprofile {:.3} {len}\ngrade {:+.3} %\npointer {:.3} {len}",
-                    s.elevation, s.grade_percent, p.y
-                ),
+                Some(s) => {
+                    let depth = super::site_ui::hover_depth(&ground, s.elevation, p.x, len)
+                        .map_or_else(String::new, |d| format!("\n{d}"));
+                    format!(
+                        "{station}\nprofile {:.3} {len}\ngrade {:+.3} %{depth}\npointer {:.3} {len}",
+                        s.elevation, s.grade_percent, p.y
+                    )
+                }
                 None => format!("{station}\npointer {:.3} {len}", p.y),
             })
         });
@@ -226,13 +231,16 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
             app.insert_at(station);
         }
         if resp.secondary_clicked() {
-            app.view.context_station = resp.interact_pointer_pos().map(|p| pui.plot_from_screen(p).x);
+            let at = resp.interact_pointer_pos().map(|p| pui.plot_from_screen(p));
+            app.view.context_station = at.map(|p| p.x);
+            app.view.context_elevation = at.map(|p| p.y);
             if let Some(i) = hit {
                 app.view.selected = Some(i);
             }
         }
         draw_items(app, pui, palette);
     });
+    super::site_ui::paint_site(app, ui, &response.transform, palette);
     app.view.last_transform = Some(response.transform);
     response.response.context_menu(|ui| {
         if let Some(station) = app.view.context_station
@@ -241,6 +249,18 @@ pub fn plot_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, height: f32) {
                 .clicked()
         {
             app.insert_at(station);
+            ui.close();
+        }
+        if let Some(station) = app.view.context_station
+            && ui
+                .button(format!("Add control point at {}", format_station(station, units, station_decimals)))
+                .on_hover_text(
+                    "A minimum control point at the pointer's elevation; change its kind in Control points",
+                )
+                .clicked()
+        {
+            let elevation = app.view.context_elevation;
+            super::site_ui::add_control(app, station, elevation);
             ui.close();
         }
         let selected = app.view.selected;
@@ -294,7 +314,7 @@ fn fit_bounds(app: &GradewrightApp) -> Option<PlotBounds> {
 #[derive(Clone, Debug)]
 pub struct PlotScene {
     key: (u64, [u64; 4], [u32; 4], Option<usize>),
-    scene: Scene,
+    pub(super) scene: Scene,
     placement: Placement,
     line_height: Vec<f32>,
 }
@@ -327,7 +347,9 @@ fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<
     }
     // The profile in view, to half a screen point of chord error.
     let dy = 1.0 / transform.dpos_dvalue_y().abs().max(1e-12);
-    let scene = profile_scene(app.analysis(), (bounds.min()[0], bounds.max()[0]), 0.5 * dy);
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let detail = Detail { tolerance: 0.5 * dy, columns: frame.width().max(1.0) as usize, hatch_every: 7.0 };
+    let scene = profile_scene(app.analysis(), (bounds.min()[0], bounds.max()[0]), detail);
     let (sizes, line_height): (Vec<[f64; 2]>, Vec<f32>) = pui.ctx().fonts_mut(|fonts| {
         // Labels use few distinct characters: ask the fonts once for each
         // (a table for ASCII, a map for the rest).
@@ -431,6 +453,7 @@ fn marker_style(
         Shape::Triangle { up: true } => MarkerShape::Up,
         Shape::Triangle { up: false } => MarkerShape::Down,
         Shape::Cross => MarkerShape::Cross,
+        Shape::Diamond | Shape::Floor | Shape::Ceiling => MarkerShape::Diamond,
     };
     match role {
         Role::Pvi => ("PVI", shape, palette.handle, 5.0),
@@ -456,7 +479,7 @@ fn draw_items(app: &mut GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette
     }
     // Markers grouped by role and shape: one plot item each.
     let mut groups: Vec<(Role, Shape, Vec<[f64; 2]>)> = Vec::new();
-    for m in &scene.markers {
+    for m in scene.markers.iter().filter(|m| !matches!(m.role, Role::Control | Role::MissedControl)) {
         match groups.iter_mut().find(|g| g.0 == m.role && g.1 == m.shape) {
             Some(g) => g.2.push(m.at),
             None => groups.push((m.role, m.shape, vec![m.at])),

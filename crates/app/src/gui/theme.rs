@@ -29,6 +29,12 @@ pub struct Palette {
     pub shortfall: Color32,
     /// Passing.
     pub ok: Color32,
+    /// Cut hatching (solid strokes).
+    pub cut: Color32,
+    /// Fill hatching (dotted strokes).
+    pub fill: Color32,
+    /// Control-point symbols that are met.
+    pub control: Color32,
 }
 
 impl Palette {
@@ -47,6 +53,9 @@ impl Palette {
                 warn: Color32::from_rgb(240, 190, 60),
                 shortfall: Color32::from_rgb(255, 95, 85).gamma_multiply(0.45),
                 ok: Color32::from_rgb(120, 200, 120),
+                cut: Color32::from_rgba_unmultiplied(200, 160, 110, 150),
+                fill: Color32::from_rgba_unmultiplied(120, 190, 230, 190),
+                control: Color32::from_rgb(230, 230, 230),
             }
         } else {
             Self {
@@ -61,6 +70,9 @@ impl Palette {
                 warn: Color32::from_rgb(170, 110, 0),
                 shortfall: Color32::from_rgb(200, 20, 20).gamma_multiply(0.35),
                 ok: Color32::from_rgb(20, 130, 40),
+                cut: Color32::from_rgba_unmultiplied(150, 105, 50, 140),
+                fill: Color32::from_rgba_unmultiplied(40, 110, 170, 190),
+                control: Color32::from_rgb(20, 20, 20),
             }
         }
     }

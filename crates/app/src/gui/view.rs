@@ -41,6 +41,36 @@ pub enum CellId {
     SnapStation,
     /// The elevation snap increment.
     SnapElevation,
+    /// A control-point table cell: row and column.
+    Control(usize, ControlColumn),
+    /// An earthwork section value.
+    Section(SectionField),
+}
+
+/// Editable columns of the control-point table.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+pub enum ControlColumn {
+    /// Name.
+    Name,
+    /// Station.
+    Station,
+    /// Elevation.
+    Elevation,
+    /// Tolerance of a fixed point.
+    Tolerance,
+}
+
+/// Editable values of the earthwork section.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+pub enum SectionField {
+    /// Roadway width.
+    Width,
+    /// Cut slope.
+    CutSlope,
+    /// Fill slope.
+    FillSlope,
+    /// Shrinkage percent.
+    Shrinkage,
 }
 
 /// Editable columns of the PVI table.
@@ -107,6 +137,10 @@ pub struct ViewState {
     pub preview: super::export_ui::Preview,
     /// What the plot drew last frame (reused while nothing changed).
     pub plot_scene: Option<super::plot_ui::PlotScene>,
+    /// Elevation under the pointer when the plot's context menu opened.
+    pub context_elevation: Option<f64>,
+    /// Whether the mass-haul strip is shown under the profile.
+    pub show_mass_strip: bool,
 }
 
 impl Default for ViewState {
@@ -132,6 +166,8 @@ impl Default for ViewState {
             show_tables_export: false,
             preview: super::export_ui::Preview::default(),
             plot_scene: None,
+            context_elevation: None,
+            show_mass_strip: true,
         }
     }
 }

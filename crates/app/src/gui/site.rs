@@ -1,0 +1,138 @@
+//! The site in the editor: importing the existing ground and the control
+//! points (menu, dialog or a file dropped on the window), each import one
+//! undo step.
+
+use std::path::{Path, PathBuf};
+
+use gradewright_geometry::Ground;
+
+use super::app::{GradewrightApp, Notice};
+use super::command::{Action, Edit};
+
+/// What a dropped CSV file holds, by its first line: control points when
+/// the header names a `kind` column, otherwise ground.
+fn is_controls_file(path: &Path) -> bool {
+    std::fs::read(path).ok().is_some_and(|bytes| {
+        let head =
+            String::from_utf8_lossy(bytes.get(..bytes.len().min(4096)).unwrap_or(&[])).to_ascii_lowercase();
+        head.lines().find(|l| !l.trim().is_empty() && !l.starts_with('#')).is_some_and(|l| {
+            l.split([',', ';', '\t']).any(|cell| cell.trim().trim_start_matches('\u{feff}') == "kind")
+        })
+    })
+}
+
+impl GradewrightApp {
+    fn say(&mut self, error: bool, text: String) {
+        self.notice = Some(Notice { error, text });
+    }
+
+    /// Replaces the ground by the CSV file at `path` (one undo step); on
+    /// failure the project is untouched and the error names file, line and
+    /// field.
+    pub fn import_ground(&mut self, path: &Path) -> bool {
+        let units = self.project().units;
+        let read = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display())).and_then(|f| {
+            gradewright_exchange::read_ground_csv(std::io::BufReader::new(f), path, units)
+                .map_err(|e| e.to_string())
+        });
+        match read {
+            Ok(table) => {
+                let count = table.points.len();
+                let warnings = table.warnings.join("; ");
+                let changed = self.apply_edit(Edit::SetGround(Ground::new(table.points)));
+                let mut text = format!("Imported {count} ground point(s) from {}", path.display());
+                if !changed {
+                    text.push_str(" (the same ground as before)");
+                }
+                if !warnings.is_empty() {
+                    text.push_str(&format!(" — {warnings}"));
+                }
+                self.say(false, text);
+                true
+            }
+            Err(e) => {
+                self.say(true, format!("Could not import the ground: {e}"));
+                false
+            }
+        }
+    }
+
+    /// Replaces the control points by the CSV file at `path` (one undo step).
+    pub fn import_controls(&mut self, path: &Path) -> bool {
+        let units = self.project().units;
+        let read = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display())).and_then(|f| {
+            gradewright_exchange::read_controls_csv(std::io::BufReader::new(f), path, units)
+                .map_err(|e| e.to_string())
+        });
+        match read {
+            Ok(points) => {
+                let count = points.len();
+                self.apply_edit(Edit::SetControls(points));
+                self.say(false, format!("Imported {count} control point(s) from {}", path.display()));
+                true
+            }
+            Err(e) => {
+                self.say(true, format!("Could not import the control points: {e}"));
+                false
+            }
+        }
+    }
+
+    /// Runs a site action (import by path or by dialog, a dropped file).
+    pub(super) fn site_action(&mut self, action: Action) {
+        let pick = |title: &str| -> Option<PathBuf> {
+            rfd::FileDialog::new().set_title(title).add_filter("CSV table", &["csv", "txt"]).pick_file()
+        };
+        match action {
+            Action::ImportGround(Some(path)) => {
+                self.import_ground(&path);
+            }
+            Action::ImportControls(Some(path)) => {
+                self.import_controls(&path);
+            }
+            Action::ImportGround(None) => match pick("Import existing ground (station, elevation)") {
+                Some(path) => {
+                    self.import_ground(&path);
+                }
+                None => self.say(false, "No file chosen".to_owned()),
+            },
+            Action::ImportControls(None) => {
+                match pick("Import control points (station, kind, elevation, tolerance, name)") {
+                    Some(path) => {
+                        self.import_controls(&path);
+                    }
+                    None => self.say(false, "No file chosen".to_owned()),
+                }
+            }
+            Action::Dropped(path) => {
+                let ext = path.extension().map(|e| e.to_string_lossy().to_ascii_lowercase());
+                match ext.as_deref() {
+                    Some("csv" | "txt") if is_controls_file(&path) => {
+                        self.import_controls(&path);
+                    }
+                    Some("csv" | "txt") => {
+                        self.import_ground(&path);
+                    }
+                    Some("ron") => self.push(Action::Open(Some(path))),
+                    _ => self.say(
+                        true,
+                        format!(
+                            "{}: drop a project (.ron), a ground table or a control-points table (.csv)",
+                            path.display()
+                        ),
+                    ),
+                }
+            }
+            _ => {}
+        }
+    }
+
+    /// Queues the files dropped on the window this frame.
+    pub fn read_dropped_files(&mut self, ctx: &egui::Context) {
+        let dropped: Vec<PathBuf> =
+            ctx.input(|i| i.raw.dropped_files.iter().map(|f| f.path().to_path_buf()).collect());
+        for path in dropped {
+            self.push(Action::Dropped(path));
+        }
+    }
+}
