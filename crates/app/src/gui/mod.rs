@@ -26,7 +26,7 @@ pub use about_ui::CAUTION_SHORT;
 pub use app::{DEMO_PROJECT, DragLock, GradewrightApp, Notice, Pending};
 pub use command::{Action, Edit, UiCommand};
 pub use files::{AppFiles, default_config_dir};
-pub use view::{CellId, PviColumn, ViewState};
+pub use view::{CellId, PviColumn, SidePage, ViewState};
 
 use egui::RichText;
 
@@ -46,16 +46,24 @@ impl GradewrightApp {
             ui.heading("Findings");
             findings_ui::findings_ui(self, ui);
             ui.separator();
-            egui::ScrollArea::vertical().id_salt("side-scroll").show(ui, |ui| {
-                egui::CollapsingHeader::new(RichText::new("Design criteria").heading())
-                    .default_open(true)
-                    .show(ui, |ui| criteria_ui::criteria_ui(self, ui));
-                egui::CollapsingHeader::new(RichText::new("Control points").heading())
-                    .default_open(true)
-                    .show(ui, |ui| site_ui::controls_ui(self, ui));
-                egui::CollapsingHeader::new(RichText::new("Ground and earthwork").heading())
-                    .default_open(true)
-                    .show(ui, |ui| site_ui::earthwork_ui(self, ui));
+            ui.horizontal(|ui| {
+                ui.selectable_value(&mut self.view.side_page, view::SidePage::Criteria, "Design criteria");
+                ui.selectable_value(&mut self.view.side_page, view::SidePage::Site, "Ground & controls");
+            });
+            egui::ScrollArea::vertical().id_salt("side-scroll").show(ui, |ui| match self.view.side_page {
+                view::SidePage::Criteria => {
+                    egui::CollapsingHeader::new(RichText::new("Design criteria").heading())
+                        .default_open(true)
+                        .show(ui, |ui| criteria_ui::criteria_ui(self, ui));
+                }
+                view::SidePage::Site => {
+                    egui::CollapsingHeader::new(RichText::new("Control points").heading())
+                        .default_open(true)
+                        .show(ui, |ui| site_ui::controls_ui(self, ui));
+                    egui::CollapsingHeader::new(RichText::new("Ground and earthwork").heading())
+                        .default_open(true)
+                        .show(ui, |ui| site_ui::earthwork_ui(self, ui));
+                }
             });
         });
         egui::CentralPanel::default().show(ui, |ui| {

@@ -141,7 +141,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     }
     egui::Grid::new("controls-grid").striped(true).spacing([6.0, 3.0]).show(ui, |ui| {
         if !controls.is_empty() {
-            for h in ["Symbol", "Name", "Station", "Kind", "Elevation", "±", "Profile", ""] {
+            for h in ["", "Name", "Station", "Kind", "Elevation", "±", ""] {
                 ui.label(RichText::new(h).strong());
             }
             ui.end_row();
@@ -164,7 +164,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             };
             let id = CellId::Control(i, ControlColumn::Name);
             if let Some(text) =
-                edit_cell(ui, &mut app.view, id, &c.name, 110.0, &format!("Control {} name", i + 1))
+                edit_cell(ui, &mut app.view, id, &c.name, 84.0, &format!("Control {} name", i + 1))
             {
                 app.view.cells.remove(&id);
                 set(&mut |p| p.name = text.trim().to_owned());
@@ -172,7 +172,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             let id = CellId::Control(i, ControlColumn::Station);
             let shown = format_station(c.station, units, units.station_decimals());
             if let Some(text) =
-                edit_cell(ui, &mut app.view, id, &shown, 80.0, &format!("Control {} station", i + 1))
+                edit_cell(ui, &mut app.view, id, &shown, 72.0, &format!("Control {} station", i + 1))
                 && let Some(s) =
                     settle(&mut app.view, id, &text, parse_station(&text, units).map_err(|e| e.to_string()))
             {
@@ -180,7 +180,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             }
             let mut kind = c.kind;
             let combo = egui::ComboBox::from_id_salt(("control-kind", i))
-                .width(80.0)
+                .width(72.0)
                 .selected_text(kind.label())
                 .show_ui(ui, |ui| {
                     for k in ControlKind::ALL {
@@ -207,7 +207,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                 &mut app.view,
                 id,
                 &format!("{:.3}", c.elevation),
-                70.0,
+                64.0,
                 &format!("Control {} elevation", i + 1),
             ) && let Some(v) = settle(&mut app.view, id, &text, parse_number(&text))
             {
@@ -224,7 +224,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                     &mut app.view,
                     id,
                     &format!("{:.3}", c.tolerance),
-                    50.0,
+                    44.0,
                     &format!("Control {} tolerance", i + 1),
                 ) && let Some(v) = settle(&mut app.view, id, &text, parsed(&text))
                 {
@@ -233,8 +233,6 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             } else {
                 ui.label("—");
             }
-            let (text, bad) = status_text(status.get(i), c, len);
-            ui.label(RichText::new(text).color(if bad { palette.fail } else { palette.ok }));
             if ui.small_button("🗑").on_hover_text("Delete this control point").clicked() {
                 let mut next = changed.clone().unwrap_or_else(|| controls.clone());
                 if i < next.len() {
@@ -243,6 +241,11 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                 app.view.cells.retain(|k, _| !matches!(k, CellId::Control(..)));
                 changed = Some(next);
             }
+            ui.end_row();
+            // What the profile does there, on a line of its own.
+            let (text, bad) = status_text(status.get(i), c, len);
+            ui.label("");
+            ui.label(RichText::new(text).color(if bad { palette.fail } else { palette.ok }));
             ui.end_row();
         }
     });
@@ -281,7 +284,9 @@ pub fn add_control(app: &mut GradewrightApp, station: f64, elevation: Option<f64
         name: format!("Control {}", next.len() + 1),
         station,
         kind: ControlKind::Minimum,
-        elevation: (elevation * 1000.0).round() / 1000.0,
+        // Rounded down to the millimetre (or 0.001 ft): a minimum on the
+        // profile stays met.
+        elevation: (elevation * 1000.0).floor() / 1000.0,
         tolerance: 0.0,
     });
     app.push(Action::edit(Edit::SetControls(next)));

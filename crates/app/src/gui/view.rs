@@ -47,6 +47,16 @@ pub enum CellId {
     Section(SectionField),
 }
 
+/// Which page the side panel shows under the findings.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum SidePage {
+    /// The design criteria.
+    #[default]
+    Criteria,
+    /// The control points, the ground and the earthwork.
+    Site,
+}
+
 /// Editable columns of the control-point table.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum ControlColumn {
@@ -141,6 +151,8 @@ pub struct ViewState {
     pub context_elevation: Option<f64>,
     /// Whether the mass-haul strip is shown under the profile.
     pub show_mass_strip: bool,
+    /// The side panel's page.
+    pub side_page: SidePage,
 }
 
 impl Default for ViewState {
@@ -168,6 +180,7 @@ impl Default for ViewState {
             plot_scene: None,
             context_elevation: None,
             show_mass_strip: true,
+            side_page: SidePage::Criteria,
         }
     }
 }
