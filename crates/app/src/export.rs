@@ -189,7 +189,7 @@ pub fn render(
         let interval = request.interval.unwrap_or(project.units.table_interval());
         let stations = gradewright_exchange::interval_stations(alignment, interval);
         let mut buffer = Vec::new();
-        gradewright_exchange::write_stations_csv(&mut buffer, alignment, &stations)?;
+        gradewright_exchange::write_stations_csv(&mut buffer, alignment, &analysis.ground, &stations)?;
         files.push((dir.join("stations.csv"), buffer));
         let mut buffer = Vec::new();
         gradewright_exchange::write_curves_csv(&mut buffer, analysis)?;
@@ -197,6 +197,16 @@ pub fn render(
         let mut buffer = Vec::new();
         gradewright_exchange::write_findings_csv(&mut buffer, analysis)?;
         files.push((dir.join("findings.csv"), buffer));
+        // The level-section earthwork, when the project sets a section.
+        if let Some(section) = &project.section
+            && analysis.ground.range().is_some()
+        {
+            let estimate = gradewright_geometry::earthwork(alignment, &analysis.ground, section, interval)
+                .map_err(|e| anyhow::anyhow!("earthwork: {e}"))?;
+            let mut buffer = Vec::new();
+            gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate)?;
+            files.push((dir.join("earthwork.csv"), buffer));
+        }
     }
     Ok(files)
 }

@@ -11,5 +11,7 @@ pub mod sheet;
 
 pub use place::{Placed, Placement, Rect, Spacing, place_labels};
 pub use render::{RenderError, pdf, png, raster};
-pub use scene::{Detail, Hatch, Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene};
+pub use scene::{
+    Detail, Hatch, Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene, profile_scene_with,
+};
 pub use sheet::{CAUTION, Layout, SheetError, SheetOptions, SheetSize, TitleBlock, layout, sheet_svgs};

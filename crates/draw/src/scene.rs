@@ -168,8 +168,20 @@ pub struct Detail {
 }
 
 /// The scene of `analysis` between stations `range`, drawn to `detail`.
-#[allow(clippy::too_many_lines)]
 pub fn profile_scene(analysis: &Analysis, range: (f64, f64), detail: Detail) -> Scene {
+    profile_scene_with(analysis, range, detail, None)
+}
+
+/// [`profile_scene`], given the decimated ground line when the caller kept
+/// it from a scene of the same ground, range and detail (a drag changes the
+/// profile, never the ground).
+#[allow(clippy::too_many_lines)]
+pub fn profile_scene_with(
+    analysis: &Analysis,
+    range: (f64, f64),
+    detail: Detail,
+    ground_line: Option<Vec<[f64; 2]>>,
+) -> Scene {
     let tolerance = detail.tolerance;
     let mut scene = Scene::default();
     let pvis = &analysis.profile.pvis;
@@ -179,9 +191,8 @@ pub fn profile_scene(analysis: &Analysis, range: (f64, f64), detail: Detail) -> 
     let within = |s: f64| s >= range.0 && s <= range.1;
     if analysis.ground.len() >= 2 {
         // Decimated for drawing only (spikes kept), reaching both edges.
-        scene
-            .lines
-            .push(Polyline { role: Role::Ground, points: analysis.ground.decimated(range, detail.columns) });
+        let points = ground_line.unwrap_or_else(|| analysis.ground.decimated(range, detail.columns));
+        scene.lines.push(Polyline { role: Role::Ground, points });
         if let Some(alignment) = analysis.alignment.as_ref() {
             scene.hatches = hatches(alignment, &analysis.ground, range, detail);
         }

@@ -227,7 +227,8 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
     let (w, h) = (options.size.width_mm, options.size.height_mm);
     let sight = if options.sight_band && analysis.sight.is_some() { SIGHT_BAND } else { 0.0 };
     let frame_w = w - 2.0 * MARGIN - 2.0 * SIDE_LABELS;
-    let frame_h = h - 2.0 * MARGIN - TOP - BOTTOM_BLOCK - BAND_ROW - AXIS_LABELS - sight;
+    let bands = if analysis.ground.range().is_some() { 3.0 } else { 1.0 };
+    let frame_h = h - 2.0 * MARGIN - TOP - BOTTOM_BLOCK - bands * BAND_ROW - AXIS_LABELS - sight;
     let (start, end) = (alignment.start().0, alignment.end().0);
     let span = (end - start).max(1.0);
     let h_scale = match options.h_scale {
@@ -622,34 +623,56 @@ fn one_sheet(
             );
         }
     }
-    // Band: proposed elevation at each major station.
+    // Bands at each major station: the proposed elevation, and with ground
+    // the existing elevation and the cut or fill depth.
     let band_y = fy + fh + AXIS_LABELS;
-    let _ = write!(
-        svg,
-        r##"<rect x="{fx}" y="{band_y}" width="{fw}" height="{BAND_ROW}" fill="none" stroke="#000" stroke-width="0.3"/>"##
-    );
-    let _ = write!(
-        svg,
-        r#"<text x="{:.3}" y="{:.3}" font-size="{SMALL}" text-anchor="end">Proposed</text>"#,
-        fx - 1.5,
-        band_y + BAND_ROW / 2.0
-    );
-    let _ = write!(
-        svg,
-        r#"<text x="{:.3}" y="{:.3}" font-size="{SMALL}" text-anchor="end">elevation</text>"#,
-        fx - 1.5,
-        band_y + BAND_ROW / 2.0 + 2.6
-    );
+    let with_ground = analysis.ground.range().is_some();
+    let rows: &[(&str, &str)] = if with_ground {
+        &[("Proposed", "elevation"), ("Existing", "ground"), ("Cut C /", "fill F")]
+    } else {
+        &[("Proposed", "elevation")]
+    };
+    for (k, (first, second)) in rows.iter().enumerate() {
+        #[allow(clippy::cast_precision_loss)]
+        let y0 = band_y + k as f64 * BAND_ROW;
+        let _ = write!(
+            svg,
+            r##"<rect x="{fx}" y="{y0}" width="{fw}" height="{BAND_ROW}" fill="none" stroke="#000" stroke-width="0.3"/>"##
+        );
+        for (line, text) in [(0.0, first), (2.6, second)] {
+            let _ = write!(
+                svg,
+                r#"<text x="{:.3}" y="{:.3}" font-size="{SMALL}" text-anchor="end">{text}</text>"#,
+                fx - 1.5,
+                y0 + BAND_ROW / 2.0 + line
+            );
+        }
+    }
     if let Some(alignment) = analysis.alignment.as_ref() {
         let mut s = (range.0 / major).ceil() * major;
         while s <= range.1 + 1e-9 {
             if let Ok(sample) = alignment.sample(Station(s)) {
-                let (x, y) = (px(s) + 0.8, band_y + BAND_ROW - 1.5);
-                let _ = write!(
-                    svg,
-                    r#"<text class="BandElevation" x="{x:.3}" y="{y:.3}" font-size="{SMALL}" transform="rotate(-90 {x:.3} {y:.3})">{:.3}</text>"#,
-                    sample.elevation
-                );
+                let ground = analysis.ground.elevation_at(s);
+                let cells = [
+                    ("BandElevation", Some(format!("{:.3}", sample.elevation))),
+                    ("BandGround", ground.map(|g| format!("{g:.3}"))),
+                    (
+                        "BandCutFill",
+                        ground.map(|g| {
+                            let d = g - sample.elevation;
+                            if d > 0.0 { format!("C {d:.3}") } else { format!("F {:.3}", (-d).max(0.0)) }
+                        }),
+                    ),
+                ];
+                for (k, (class, text)) in cells.iter().take(rows.len()).enumerate() {
+                    let Some(text) = text else { continue };
+                    #[allow(clippy::cast_precision_loss)]
+                    let (x, y) = (px(s) + 0.8, band_y + (k as f64 + 1.0) * BAND_ROW - 1.5);
+                    let _ = write!(
+                        svg,
+                        r#"<text class="{class}" x="{x:.3}" y="{y:.3}" font-size="{SMALL}" transform="rotate(-90 {x:.3} {y:.3})">{text}</text>"#
+                    );
+                }
             }
             s += major;
         }
@@ -658,7 +681,8 @@ fn one_sheet(
     if options.sight_band
         && let Some(sight) = analysis.sight.as_deref()
     {
-        let top = band_y + BAND_ROW + 2.0;
+        #[allow(clippy::cast_precision_loss)]
+        let top = band_y + rows.len() as f64 * BAND_ROW + 2.0;
         let height = SIGHT_BAND - 4.0;
         let cap = sight.cap.max(1.0);
         let sy = |d: f64| top + height - d.min(cap) / cap * height;

@@ -3,7 +3,7 @@
 
 use std::io::Write;
 
-use gradewright_geometry::{Alignment, Analysis, Severity, Station, Units, format_station};
+use gradewright_geometry::{Alignment, Analysis, Ground, Severity, Station, Units, format_station};
 
 use crate::TableError;
 use crate::table::number;
@@ -20,33 +20,54 @@ fn finite(value: f64, station: f64) -> Result<String, TableError> {
 }
 
 /// `stations.csv`: station, label, proposed elevation and grade at every
-/// station of `stations` (e.g. [`crate::interval_stations`]).
+/// station of `stations` (e.g. [`crate::interval_stations`]); with ground,
+/// the ground elevation and the cut and fill depths follow (empty where
+/// there is no ground).
 ///
 /// # Errors
 /// [`TableError`] for a station outside the profile or an I/O error.
 pub fn write_stations_csv(
     out: impl Write,
     alignment: &Alignment,
+    ground: &Ground,
     stations: &[f64],
 ) -> Result<(), TableError> {
     let units = alignment.units();
     let u = unit(units);
     let mut csv = csv::Writer::from_writer(out);
-    csv.write_record([
+    let mut header = vec![
         format!("station_{u}"),
         "station_label".to_owned(),
         format!("elevation_{u}"),
         "grade_percent".to_owned(),
-    ])?;
+    ];
+    let with_ground = ground.range().is_some();
+    if with_ground {
+        header.extend([format!("ground_elevation_{u}"), format!("cut_{u}"), format!("fill_{u}")]);
+    }
+    csv.write_record(&header)?;
     let mut cursor = alignment.cursor();
+    let mut row = Vec::with_capacity(header.len());
     for &s in stations {
         let sample = cursor.sample(Station(s))?;
-        csv.write_record([
+        row.clear();
+        row.extend([
             finite(s, s)?,
             format_station(s, units, units.station_decimals()),
             finite(sample.elevation, s)?,
             finite(sample.grade_percent, s)?,
-        ])?;
+        ]);
+        if with_ground {
+            match ground.elevation_at(s) {
+                Some(g) => row.extend([
+                    finite(g, s)?,
+                    finite((g - sample.elevation).max(0.0), s)?,
+                    finite((sample.elevation - g).max(0.0), s)?,
+                ]),
+                None => row.extend([String::new(), String::new(), String::new()]),
+            }
+        }
+        csv.write_record(&row)?;
     }
     csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
     Ok(())

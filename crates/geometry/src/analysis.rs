@@ -7,8 +7,8 @@ use crate::visibility::SightProfile;
 use crate::{
     Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveGeometry, CutFillSummary,
     Earthwork, EarthworkError, Finding, Ground, Profile, ProfileProblem, Project, Pvi, ResolvedCriteria,
-    Severity, check_controls, check_profile_with_sight, compute_sight, control_findings, cut_fill_summary,
-    earthwork, interior_curves, structural_findings,
+    Severity, check_controls, check_profile_with_sight, compute_sight, control_findings, earthwork_at,
+    interior_curves, structural_findings,
 };
 
 /// Everything computed from a project: the validated alignment (when the
@@ -48,6 +48,8 @@ pub struct Analysis {
     pub sight: Option<Arc<SightProfile>>,
     /// The project analysed (kept to tell what a later edit changed).
     source: Option<Project>,
+    /// The scan of the profile over the ground (kept for the next edit).
+    site: Option<Arc<crate::ground::SiteScan>>,
 }
 
 /// Whether a problem still lets every curve be computed (curves that
@@ -89,12 +91,13 @@ impl Analysis {
         let profile = project.profile();
         let criteria = project.criteria.resolve(project.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
+        let previous_site = previous.as_ref().and_then(|p| p.site.clone());
         let sight = match (&alignment, &criteria) {
             (Some(a), Ok(c)) => sight_after(project, previous, a, c),
             _ => None,
         };
         let mut analysis = Self::assemble(profile, criteria, alignment, sight);
-        analysis.add_site(project);
+        analysis.add_site(project, previous_site.as_deref());
         analysis.source = Some(project.clone());
         analysis
     }
@@ -109,6 +112,7 @@ impl Analysis {
             control_status: Vec::new(),
             cut_fill: CutFillSummary::default(),
             earthwork: None,
+            site: None,
             problems: Vec::new(),
             alignment: None,
             curves: Vec::new(),
@@ -152,6 +156,7 @@ impl Analysis {
             control_status: Vec::new(),
             cut_fill: CutFillSummary::default(),
             earthwork: None,
+            site: None,
             problems,
             alignment,
             curves,
@@ -164,7 +169,7 @@ impl Analysis {
 
     /// Adds what the project's site gives: the ground (shared), the control
     /// points and their findings, the largest cut and fill, the earthwork.
-    fn add_site(&mut self, project: &Project) {
+    fn add_site(&mut self, project: &Project, previous: Option<&crate::ground::SiteScan>) {
         self.ground = project.ground.clone();
         self.controls.clone_from(&project.controls);
         let Some(alignment) = self.alignment.clone() else { return };
@@ -172,11 +177,14 @@ impl Analysis {
         let findings = control_findings(project.units, &self.controls, &self.control_status);
         self.report.findings.extend(findings);
         if self.ground.range().is_some() {
-            self.cut_fill = cut_fill_summary(&alignment, &self.ground);
+            let scan = crate::ground::SiteScan::new(&alignment, &self.ground, previous);
+            self.cut_fill = scan.summary;
             if let Some(section) = &project.section {
                 let interval = project.export.interval.unwrap_or(project.units.table_interval());
-                self.earthwork = Some(earthwork(&alignment, &self.ground, section, interval));
+                self.earthwork =
+                    Some(earthwork_at(&alignment, &self.ground, section, interval, &scan.grade_points));
             }
+            self.site = Some(Arc::new(scan));
         }
     }
 

@@ -23,7 +23,7 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::ground::{Ground, depth_at, grade_points};
+use crate::ground::{Ground, grade_points};
 use crate::tolerance::STATION_HAIR;
 use crate::{Alignment, KeyPoint, Units};
 
@@ -200,6 +200,22 @@ pub fn earthwork(
     interval: f64,
 ) -> Result<Earthwork, EarthworkError> {
     section.validate()?;
+    earthwork_at(alignment, ground, section, interval, &grade_points(alignment, ground))
+}
+
+/// [`earthwork`] with the grade points already found (by a
+/// [`crate::ground::SiteScan`]).
+///
+/// # Errors
+/// As [`earthwork`].
+pub fn earthwork_at(
+    alignment: &Alignment,
+    ground: &Ground,
+    section: &Section,
+    interval: f64,
+    grade_points: &[f64],
+) -> Result<Earthwork, EarthworkError> {
+    section.validate()?;
     let (g0, g1) = ground.range().ok_or(EarthworkError::NoOverlap)?;
     let start = alignment.start().0;
     let (lo, hi) = (g0.max(start), g1.min(alignment.end().0));
@@ -220,7 +236,7 @@ pub fn earthwork(
             stations.push((s, RowKind::Interval));
         }
     }
-    stations.extend(grade_points(alignment, ground).into_iter().map(|s| (s, RowKind::GradePoint)));
+    stations.extend(grade_points.iter().map(|&s| (s, RowKind::GradePoint)));
     stations.extend(
         alignment
             .key_stations()
@@ -235,8 +251,15 @@ pub fn earthwork(
     let factor = volume_factor(alignment.units());
     let mut rows: Vec<EarthworkRow> = Vec::with_capacity(stations.len());
     let (mut cut, mut fill, mut mass) = (0.0, 0.0, 0.0);
+    // Stations in order: walk the ground and the profile instead of
+    // searching them at every station.
+    let mut walk = ground.walker();
+    let mut cursor = alignment.cursor();
     for (s, kind) in stations {
-        let Some(depth) = depth_at(alignment, ground, s) else { continue };
+        let (Some(g), Ok(sample)) = (walk.elevation_at(s), cursor.sample(crate::Station(s))) else {
+            continue;
+        };
+        let depth = crate::Depth::new(s, g, sample.elevation);
         // A grade point is on the ground: its depth is zero by definition.
         let (cd, fd) = if kind == RowKind::GradePoint { (0.0, 0.0) } else { (depth.cut, depth.fill) };
         let (ca, fa) = (section.cut_area(cd), section.fill_area(fd));

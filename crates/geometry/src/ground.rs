@@ -118,6 +118,44 @@ impl Ground {
     }
 }
 
+/// Ground elevations at stations in increasing order, in amortised O(1)
+/// each (a station behind is still answered, by a search).
+#[derive(Clone, Debug)]
+pub struct GroundWalker<'a> {
+    ground: &'a Ground,
+    index: usize,
+}
+
+impl GroundWalker<'_> {
+    /// As [`Ground::elevation_at`].
+    pub fn elevation_at(&mut self, station: f64) -> Option<f64> {
+        let (first, last) = self.ground.range()?;
+        if !(station >= first && station <= last) {
+            return None;
+        }
+        let points = &self.ground.0;
+        let ahead = |i: usize| points.get(i).is_some_and(|p| p.station <= station);
+        if self.index == 0 || !ahead(self.index - 1) {
+            self.index = points.partition_point(|p| p.station <= station);
+        } else {
+            while self.index < points.len() && ahead(self.index) {
+                self.index += 1;
+            }
+        }
+        let i = self.index.clamp(1, points.len() - 1);
+        let (a, b) = (points.get(i - 1)?, points.get(i)?);
+        let t = (station - a.station) / (b.station - a.station);
+        Some(a.elevation + t * (b.elevation - a.elevation))
+    }
+}
+
+impl Ground {
+    /// A walker for elevations at increasing stations.
+    pub fn walker(&self) -> GroundWalker<'_> {
+        GroundWalker { ground: self, index: 0 }
+    }
+}
+
 impl Deref for Ground {
     type Target = [GroundPoint];
 
@@ -167,7 +205,7 @@ pub struct Depth {
 }
 
 impl Depth {
-    fn new(station: f64, ground: f64, profile: f64) -> Self {
+    pub(crate) fn new(station: f64, ground: f64, profile: f64) -> Self {
         let d = ground - profile;
         Self { station, ground, profile, cut: d.max(0.0), fill: (-d).max(0.0) }
     }
@@ -199,11 +237,20 @@ impl Piece {
     }
 }
 
-/// Every piece where the ground and the profile overlap, in station order.
-fn pieces(alignment: &Alignment, ground: &Ground, mut visit: impl FnMut(&Piece)) {
-    let (Some((g0, g1)), segments) = (ground.range(), alignment.segments()) else { return };
+/// The stretch where the ground and the profile overlap, if any.
+fn overlap(alignment: &Alignment, ground: &Ground) -> Option<(f64, f64)> {
+    let (g0, g1) = ground.range()?;
     let (lo, hi) = (g0.max(alignment.start().0), g1.min(alignment.end().0));
-    if lo >= hi || lo.is_nan() || hi.is_nan() {
+    (lo < hi).then_some((lo, hi))
+}
+
+/// Every piece between stations `lo` and `hi` (inside the overlap), in
+/// station order. A piece starts at `lo`, a ground point or a segment end,
+/// so a stretch that starts at a ground point gives the very pieces a scan
+/// of the whole overlap gives there.
+fn pieces(alignment: &Alignment, ground: &Ground, (lo, hi): (f64, f64), mut visit: impl FnMut(&Piece)) {
+    let segments = alignment.segments();
+    if ground.len() < 2 || lo >= hi || lo.is_nan() || hi.is_nan() {
         return;
     }
     let mut gi = ground.partition_point(|p| p.station <= lo).clamp(1, ground.len() - 1);
@@ -232,47 +279,6 @@ fn pieces(alignment: &Alignment, ground: &Ground, mut visit: impl FnMut(&Piece))
     }
 }
 
-/// The stations strictly inside the overlap of profile and ground where
-/// the profile crosses the ground (grade points), in order, found exactly
-/// on each piece (d is at most quadratic there).
-pub fn grade_points(alignment: &Alignment, ground: &Ground) -> Vec<f64> {
-    let mut out: Vec<f64> = Vec::new();
-    let mut push = |s: f64| {
-        if out.last().is_none_or(|&last| s > last + crate::tolerance::STATION_HAIR) {
-            out.push(s);
-        }
-    };
-    pieces(alignment, ground, |p| {
-        let (d0, d1) = (p.difference(p.start), p.difference(p.end));
-        // d(t) = d0 + b·t + c·t², t = s − start.
-        let b = p.slope - p.segment.grade_at(p.start);
-        let c = -0.5 * p.segment.rate;
-        let length = p.end - p.start;
-        let mut roots = [f64::NAN; 2];
-        if c == 0.0 {
-            if b != 0.0 {
-                roots[0] = -d0 / b;
-            }
-        } else {
-            let disc = b * b - 4.0 * c * d0;
-            if disc >= 0.0 {
-                let q = -0.5 * (b + b.signum() * disc.sqrt());
-                roots = if q == 0.0 { [0.0, f64::NAN] } else { [q / c, d0 / q] };
-            }
-        }
-        roots.sort_by(f64::total_cmp);
-        for t in roots {
-            if t > 0.0 && t < length {
-                push(p.start + t);
-            }
-        }
-        if d1 == 0.0 {
-            push(p.end);
-        }
-    });
-    out
-}
-
 /// The largest cut and the largest fill along the profile, each with its
 /// station; `None` for either when there is none (or no ground).
 #[derive(Clone, Copy, Debug, Default, PartialEq)]
@@ -283,30 +289,157 @@ pub struct CutFillSummary {
     pub fill: Option<(f64, f64)>,
 }
 
+impl CutFillSummary {
+    /// Takes `d` = ground − profile at `s` into account (the first of equal
+    /// depths is kept).
+    fn consider(&mut self, s: f64, d: f64) {
+        if d > 0.0 && self.cut.is_none_or(|(_, c)| d > c) {
+            self.cut = Some((s, d));
+        }
+        if d < 0.0 && self.fill.is_none_or(|(_, f)| -d > f) {
+            self.fill = Some((s, -d));
+        }
+    }
+
+    fn merge(&mut self, other: &Self) {
+        if let Some((s, d)) = other.cut {
+            self.consider(s, d);
+        }
+        if let Some((s, f)) = other.fill {
+            self.consider(s, -f);
+        }
+    }
+}
+
+/// Appends a grade point unless it is (within a hair) the last one.
+fn push_point(out: &mut Vec<f64>, s: f64) {
+    if out.last().is_none_or(|&last| s > last + crate::tolerance::STATION_HAIR) {
+        out.push(s);
+    }
+}
+
+/// Grade points and the largest cut and fill of one stretch, in one pass.
+fn scan(alignment: &Alignment, ground: &Ground, range: (f64, f64)) -> (Vec<f64>, CutFillSummary) {
+    let mut points: Vec<f64> = Vec::new();
+    let mut summary = CutFillSummary::default();
+    pieces(alignment, ground, range, |p| {
+        let (d0, d1) = (p.difference(p.start), p.difference(p.end));
+        summary.consider(p.start, d0);
+        summary.consider(p.end, d1);
+        // d(t) = d0 + b·t + c·t², t = s − start.
+        let b = p.slope - p.segment.grade_at(p.start);
+        let c = -0.5 * p.segment.rate;
+        let length = p.end - p.start;
+        if c == 0.0 {
+            // A straight difference crosses zero at most once, only where
+            // the ends differ in sign (or it ends on zero).
+            if b != 0.0 && d0 * d1 < 0.0 {
+                push_point(&mut points, p.start - d0 / b);
+            }
+        } else {
+            // d′ = b + 2c·t = 0: the largest depth inside a curved piece.
+            let t = -b / (2.0 * c);
+            if t > 0.0 && t < length {
+                summary.consider(p.start + t, p.difference(p.start + t));
+            }
+            let disc = b * b - 4.0 * c * d0;
+            if disc >= 0.0 {
+                let q = -0.5 * (b + b.signum() * disc.sqrt());
+                let mut roots = if q == 0.0 { [0.0, f64::NAN] } else { [q / c, d0 / q] };
+                roots.sort_by(f64::total_cmp);
+                for t in roots {
+                    if t > 0.0 && t < length {
+                        push_point(&mut points, p.start + t);
+                    }
+                }
+            }
+        }
+        if d1 == 0.0 {
+            push_point(&mut points, p.end);
+        }
+    });
+    (points, summary)
+}
+
+/// Ground points per block of a [`SiteScan`].
+const BLOCK: usize = 2048;
+
+/// What one block of ground points gave, and the profile pieces it was
+/// computed from (to tell whether an edit touched it).
+#[derive(Clone, Debug, PartialEq)]
+struct Block {
+    range: (f64, f64),
+    segments: Vec<Segment>,
+    points: Vec<f64>,
+    summary: CutFillSummary,
+}
+
+/// The grade points and the largest cut and fill of a profile over its
+/// ground, computed by blocks of ground points so that after an edit only
+/// the blocks whose profile pieces changed are computed again. The result
+/// is the same, to the bit, as a scan from scratch (see the tests).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct SiteScan {
+    ground: Ground,
+    blocks: Vec<Block>,
+    /// Where the profile crosses the ground, in station order.
+    pub grade_points: Vec<f64>,
+    /// The largest cut and fill.
+    pub summary: CutFillSummary,
+}
+
+impl SiteScan {
+    /// Scans `alignment` over `ground`, reusing the blocks of `previous`
+    /// (a scan of the same ground before an edit) that the edit left alone.
+    pub fn new(alignment: &Alignment, ground: &Ground, previous: Option<&Self>) -> Self {
+        let mut out = Self { ground: ground.clone(), ..Self::default() };
+        let Some((lo, hi)) = overlap(alignment, ground) else { return out };
+        let previous = previous.filter(|p| p.ground.shares(ground));
+        let segments = alignment.segments();
+        let mut k = 0;
+        while k + 1 < ground.len() {
+            let last = (k + BLOCK).min(ground.len() - 1);
+            let (Some(a), Some(b)) = (ground.get(k), ground.get(last)) else { break };
+            let range = (a.station.max(lo), b.station.min(hi));
+            k = last;
+            if range.0 >= range.1 {
+                continue;
+            }
+            let first_seg = segments.partition_point(|seg| seg.end <= range.0);
+            let end_seg = segments.partition_point(|seg| seg.start < range.1);
+            let used = segments.get(first_seg..end_seg.max(first_seg)).unwrap_or(&[]);
+            let reused = previous.and_then(|p| {
+                let i = p.blocks.partition_point(|b| b.range.0 < range.0);
+                p.blocks.get(i).filter(|b| b.range == range && b.segments == used)
+            });
+            let block = match reused {
+                Some(b) => b.clone(),
+                None => {
+                    let (points, summary) = scan(alignment, ground, range);
+                    Block { range, segments: used.to_vec(), points, summary }
+                }
+            };
+            for &s in &block.points {
+                push_point(&mut out.grade_points, s);
+            }
+            out.summary.merge(&block.summary);
+            out.blocks.push(block);
+        }
+        out
+    }
+}
+
+/// The stations strictly inside the overlap of profile and ground where
+/// the profile crosses the ground (grade points), in order, found exactly
+/// on each piece (d is at most quadratic there).
+pub fn grade_points(alignment: &Alignment, ground: &Ground) -> Vec<f64> {
+    SiteScan::new(alignment, ground, None).grade_points
+}
+
 /// The largest cut and fill, found exactly: at piece ends or where d′ = 0
 /// inside a curved piece.
 pub fn cut_fill_summary(alignment: &Alignment, ground: &Ground) -> CutFillSummary {
-    let mut summary = CutFillSummary::default();
-    let mut consider = |s: f64, d: f64| {
-        if d > 0.0 && summary.cut.is_none_or(|(_, c)| d > c) {
-            summary.cut = Some((s, d));
-        }
-        if d < 0.0 && summary.fill.is_none_or(|(_, f)| -d > f) {
-            summary.fill = Some((s, -d));
-        }
-    };
-    pieces(alignment, ground, |p| {
-        consider(p.start, p.difference(p.start));
-        consider(p.end, p.difference(p.end));
-        if p.segment.rate != 0.0 {
-            // d′ = slope − grade(s) = 0.
-            let s = p.start + (p.slope - p.segment.grade_at(p.start)) / p.segment.rate;
-            if s > p.start && s < p.end {
-                consider(s, p.difference(s));
-            }
-        }
-    });
-    summary
+    SiteScan::new(alignment, ground, None).summary
 }
 
 #[cfg(test)]
@@ -394,5 +527,38 @@ mod tests {
         assert!(copy.shares(&g));
         assert_eq!(copy, g);
         assert!(!ground(&[(0.0, 1.0), (1.0, 2.0)]).shares(&g));
+    }
+
+    #[test]
+    fn a_scan_after_an_edit_equals_a_scan_from_scratch() {
+        let profile = crate::synthetic::rolling_profile(Units::Metric, 60, 6_000.0);
+        let road = Alignment::new(&profile).expect("valid");
+        let points: Vec<(f64, f64)> = (0..=60_000)
+            .map(|i| {
+                let s = f64::from(i) * 0.1;
+                let y = road.sample(crate::Station(s)).map_or(0.0, |x| x.elevation) + 1.2 * (s / 90.0).sin();
+                (s, y)
+            })
+            .collect();
+        let g = ground(&points);
+        let before = SiteScan::new(&road, &g, None);
+        let one_scan = scan(&road, &g, overlap(&road, &g).expect("overlap"));
+        assert_eq!(before.summary, one_scan.1, "blocks merge to the one-pass result");
+        assert_eq!(before.grade_points, one_scan.0);
+        let mut edited = profile.clone();
+        if let Some(p) = edited.pvis.get_mut(30) {
+            p.elevation += 1.7;
+        }
+        let road2 = Alignment::new(&edited).expect("valid");
+        let after = SiteScan::new(&road2, &g, Some(&before));
+        let fresh = SiteScan::new(&road2, &g, None);
+        assert_eq!(after, fresh);
+        assert_ne!(after.grade_points, before.grade_points);
+        let reused = after.blocks.iter().zip(&before.blocks).filter(|(a, b)| a == b).count();
+        assert!(
+            reused * 10 >= after.blocks.len() * 8,
+            "most blocks are reused: {reused} of {}",
+            after.blocks.len()
+        );
     }
 }

@@ -45,7 +45,8 @@ pub use criteria::{
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
 pub use earthwork::{
-    Earthwork, EarthworkError, EarthworkRow, RowKind, Section, area_symbol, earthwork, volume_symbol,
+    Earthwork, EarthworkError, EarthworkRow, RowKind, Section, area_symbol, earthwork, earthwork_at,
+    volume_symbol,
 };
 pub use edit::InsertError;
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};

@@ -8,7 +8,7 @@ use egui_plot::{
     Legend, Line, LineStyle, MarkerShape, Plot, PlotBounds, PlotPoint, PlotPoints, Points, Text,
 };
 use gradewright_draw::{
-    Detail, Label, Placement, Rect, Role, Scene, Shape, Side, Spacing, place_labels, profile_scene,
+    Detail, Label, Placement, Rect, Role, Scene, Shape, Side, Spacing, place_labels, profile_scene_with,
 };
 use gradewright_geometry::{Station, format_station};
 
@@ -317,6 +317,8 @@ pub struct PlotScene {
     pub(super) scene: Scene,
     placement: Placement,
     line_height: Vec<f32>,
+    /// The ground the scene's ground line was decimated from.
+    ground: gradewright_geometry::Ground,
 }
 
 /// Text size of labels by priority (the most important a little larger).
@@ -340,16 +342,22 @@ fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<
         [frame.min.x, frame.min.y, frame.max.x, frame.max.y].map(f32::to_bits),
         app.view.dragging,
     );
-    if let Some(c) = cached
-        && c.key == key
-    {
-        return c;
+    let mut kept_ground = None;
+    if let Some(c) = cached {
+        if c.key == key {
+            return c;
+        }
+        // The ground line is decimated afresh only when the ground or the
+        // view changed (not on every drag frame).
+        if c.key.1 == key.1 && c.key.2 == key.2 && c.ground.shares(&app.analysis().ground) {
+            kept_ground = c.scene.lines.into_iter().find(|l| l.role == Role::Ground).map(|l| l.points);
+        }
     }
     // The profile in view, to half a screen point of chord error.
     let dy = 1.0 / transform.dpos_dvalue_y().abs().max(1e-12);
     #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
     let detail = Detail { tolerance: 0.5 * dy, columns: frame.width().max(1.0) as usize, hatch_every: 7.0 };
-    let scene = profile_scene(app.analysis(), (bounds.min()[0], bounds.max()[0]), detail);
+    let scene = profile_scene_with(app.analysis(), (bounds.min()[0], bounds.max()[0]), detail, kept_ground);
     let (sizes, line_height): (Vec<[f64; 2]>, Vec<f32>) = pui.ctx().fonts_mut(|fonts| {
         // Labels use few distinct characters: ask the fonts once for each
         // (a table for ASCII, a map for the rest).
@@ -426,7 +434,7 @@ fn plot_scene(app: &GradewrightApp, pui: &egui_plot::PlotUi<'_>, cached: Option<
         .into_iter()
         .collect();
     let placement = place_labels(&scene.labels, &sizes, to_screen, screen, (&lines, &blocked), LABEL_SPACING);
-    PlotScene { key, scene, placement, line_height }
+    PlotScene { key, scene, placement, line_height, ground: app.analysis().ground.clone() }
 }
 
 /// The legend name and look of a line role.

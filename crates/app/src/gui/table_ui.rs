@@ -73,6 +73,11 @@ pub fn table_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         "Status".to_owned(),
     ];
     let mut headers = headers.to_vec();
+    let with_ground = app.project().ground.range().is_some();
+    if with_ground {
+        headers.push(format!("Ground ({len})"));
+        headers.push(format!("Cut/fill ({len})"));
+    }
     if app.view.show_curve_points {
         for h in
             ["PVC station", "PVC elev.", "PVT station", "PVT elev.", "High/low station", "High/low elev."]
@@ -317,6 +322,28 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     let status = ui.label(status_text(worst, palette));
     if !messages.is_empty() {
         status.on_hover_text(messages.join("\n"));
+    }
+    if app.project().ground.range().is_some() {
+        // At the PVI station, against the profile (the curve, not the PVI).
+        let at = app.project().pvis.get(i).map(|p| p.station.0);
+        let depth = match (app.analysis().alignment.as_ref(), at) {
+            (Some(a), Some(s)) => gradewright_geometry::depth_at(a, &app.project().ground, s),
+            _ => None,
+        };
+        match depth {
+            Some(d) => {
+                ui.label(format!("{:.3}", d.ground));
+                if d.cut > 0.0 {
+                    ui.label(format!("cut {:.3}", d.cut));
+                } else {
+                    ui.label(format!("fill {:.3}", d.fill));
+                }
+            }
+            None => {
+                ui.label(RichText::new("no ground").weak());
+                ui.label(RichText::new("—").weak());
+            }
+        }
     }
     if app.view.show_curve_points {
         let units = app.project().units;
