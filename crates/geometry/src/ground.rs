@@ -207,7 +207,8 @@ pub struct Depth {
 impl Depth {
     pub(crate) fn new(station: f64, ground: f64, profile: f64) -> Self {
         let d = ground - profile;
-        Self { station, ground, profile, cut: d.max(0.0), fill: (-d).max(0.0) }
+        // `+ 0.0` turns a negative zero into zero (never "-0.000").
+        Self { station, ground, profile, cut: d.max(0.0) + 0.0, fill: (-d).max(0.0) + 0.0 }
     }
 }
 
