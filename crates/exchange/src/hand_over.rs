@@ -121,7 +121,7 @@ pub fn write_curves_csv(out: impl Write, analysis: &Analysis) -> Result<(), Tabl
         let ahead = pvis.get(i + 1).map(|b| grade(p, b));
         let check = analysis.report.curves.iter().find(|c| c.curve.index == i);
         let c = check.map(|c| c.curve);
-        let status = match analysis.report.worst_at(i) {
+        let status = match analysis.worst_at(i) {
             Some(Severity::Fail) => "fail",
             Some(Severity::Warn) => "warn",
             Some(Severity::Info) => "info",

@@ -50,6 +50,8 @@ pub struct Analysis {
     source: Option<Project>,
     /// The scan of the profile over the ground (kept for the next edit).
     site: Option<Arc<crate::ground::SiteScan>>,
+    /// The indices of the findings that name each PVI.
+    by_pvi: Vec<Vec<usize>>,
 }
 
 /// Whether a problem still lets every curve be computed (curves that
@@ -113,6 +115,7 @@ impl Analysis {
             cut_fill: CutFillSummary::default(),
             earthwork: None,
             site: None,
+            by_pvi: Vec::new(),
             problems: Vec::new(),
             alignment: None,
             curves: Vec::new(),
@@ -149,7 +152,14 @@ impl Analysis {
             Err(e) => unchecked_report(&profile, e),
         };
         let sight = report.sight.take().map(Arc::new);
+        let mut by_pvi = vec![Vec::new(); profile.pvis.len()];
+        for (k, f) in report.findings.iter().enumerate() {
+            if let Some(list) = f.pvi.and_then(|i| by_pvi.get_mut(i)) {
+                list.push(k);
+            }
+        }
         Self {
+            by_pvi,
             profile,
             ground: Ground::default(),
             controls: Vec::new(),
@@ -200,7 +210,12 @@ impl Analysis {
 
     /// Findings that name PVI `index`.
     pub fn findings_at(&self, index: usize) -> impl Iterator<Item = &Finding> {
-        self.report.findings.iter().filter(move |f| f.pvi == Some(index))
+        self.by_pvi.get(index).into_iter().flatten().filter_map(|&k| self.report.findings.get(k))
+    }
+
+    /// The worst severity of the findings that name PVI `index`.
+    pub fn worst_at(&self, index: usize) -> Option<Severity> {
+        self.findings_at(index).map(|f| f.severity).max()
     }
 
     /// A short reason a curve fails, for labels: `K 18.0 < 26` or the first

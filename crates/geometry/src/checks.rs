@@ -241,9 +241,15 @@ pub fn check_profile_with_sight(
         });
     }
     report.sight = sight;
+    // One pass over the findings (not one per curve: that was quadratic).
+    let mut failing = vec![false; profile.pvis.len()];
+    for f in report.findings.iter().filter(|f| f.severity == Severity::Fail) {
+        if let Some(slot) = f.pvi.and_then(|i| failing.get_mut(i)) {
+            *slot = true;
+        }
+    }
     for check in &mut report.curves {
-        let index = check.curve.index;
-        check.ok = !report.findings.iter().any(|f| f.pvi == Some(index) && f.severity == Severity::Fail);
+        check.ok = !failing.get(check.curve.index).copied().unwrap_or(false);
     }
     report
 }

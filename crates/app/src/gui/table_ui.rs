@@ -318,7 +318,7 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     let analysis = app.analysis();
     let messages: Vec<String> =
         analysis.findings_at(i).map(|f| format!("[{}] {}", f.severity.key(), f.message)).collect();
-    let worst = analysis.report.worst_at(i);
+    let worst = analysis.worst_at(i);
     let status = ui.label(status_text(worst, palette));
     if !messages.is_empty() {
         status.on_hover_text(messages.join("\n"));
