@@ -485,6 +485,22 @@ fn draw_items(app: &mut GradewrightApp, pui: &mut egui_plot::PlotUi<'_>, palette
             Line::new(name, PlotPoints::from(line.points.clone())).color(colour).width(width).style(style),
         );
     }
+    // Legend entries for what is painted over the plot (the hatching and
+    // the control symbols), so the legend names them too.
+    // (A one-point line: it draws nothing but gets its legend entry.)
+    let first =
+        |role: Role| scene.hatches.iter().find(|h| h.role == role).map(|h| vec![[h.station, h.profile]]);
+    for (role, name, colour, style) in [
+        (Role::Cut, "Cut (solid)", palette.cut, LineStyle::Solid),
+        (Role::Fill, "Fill (dotted)", palette.fill, LineStyle::dotted_dense()),
+    ] {
+        if let Some(at) = first(role) {
+            pui.line(Line::new(name, PlotPoints::from(at)).color(colour).style(style));
+        }
+    }
+    if let Some(m) = scene.markers.iter().find(|m| matches!(m.role, Role::Control | Role::MissedControl)) {
+        pui.line(Line::new("Control points", PlotPoints::from(vec![m.at])).color(palette.control));
+    }
     // Markers grouped by role and shape: one plot item each.
     let mut groups: Vec<(Role, Shape, Vec<[f64; 2]>)> = Vec::new();
     for m in scene.markers.iter().filter(|m| !matches!(m.role, Role::Control | Role::MissedControl)) {
