@@ -184,6 +184,7 @@ pub fn profile_scene_with(
 ) -> Scene {
     let tolerance = detail.tolerance;
     let mut scene = Scene::default();
+    let keep = level_of_detail(analysis, range, detail);
     let pvis = &analysis.profile.pvis;
     let units: Units = analysis.profile.units;
     let len = units.length_symbol();
@@ -240,6 +241,9 @@ pub fn profile_scene_with(
                 continue;
             }
             scene.markers.push(Marker { role: Role::CurveEnd, at: [s, e], shape: Shape::Tick });
+            if !keep(4) {
+                continue;
+            }
             scene.labels.push(Label {
                 role: Role::CurveLabel,
                 at: [s, e],
@@ -268,25 +272,29 @@ pub fn profile_scene_with(
         }
         let check = checks.get(c.index).copied().flatten();
         let y = c.pvi_elevation + c.offset_at_pvi;
-        let mut lines = vec![if c.length() > 0.0 {
-            if c.ratio_factor() > 1.0 {
+        let mut lines = if !keep(2) {
+            Vec::new()
+        } else if c.length() > 0.0 {
+            vec![if c.ratio_factor() > 1.0 {
                 format!("L = {:.2} {len} ({:.2} + {:.2})", c.length(), c.length_in, c.length_out)
             } else {
                 format!("L = {:.2} {len}", c.length())
-            }
+            }]
         } else {
-            "no curve".to_owned()
-        }];
-        if let Some(k) = c.k() {
+            vec!["no curve".to_owned()]
+        };
+        if let Some(k) = c.k().filter(|_| keep(2)) {
             lines.push(format!("K = {k:.1}  A = {:.3} %", c.a_percent()));
         }
-        scene.labels.push(Label {
-            role: Role::CurveLabel,
-            at: [c.pvi.0, y],
-            lines,
-            side: Side::Below,
-            priority: 2,
-        });
+        if !lines.is_empty() {
+            scene.labels.push(Label {
+                role: Role::CurveLabel,
+                at: [c.pvi.0, y],
+                lines,
+                side: Side::Below,
+                priority: 2,
+            });
+        }
         if let Some(check) = check.filter(|k| !k.ok) {
             let reason = analysis
                 .findings_at(c.index)
@@ -312,6 +320,9 @@ pub fn profile_scene_with(
         {
             let up = c.kind == CurveKind::Crest;
             scene.markers.push(Marker { role: Role::HighLow, at: [s.0, e], shape: Shape::Triangle { up } });
+            if !keep(3) {
+                continue;
+            }
             scene.labels.push(Label {
                 role: Role::HighLow,
                 at: [s.0, e],
@@ -326,7 +337,7 @@ pub fn profile_scene_with(
         let [a, b] = w else { continue };
         let mid = 0.5 * (a.station.0 + b.station.0);
         let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
-        if !within(mid) || !grade.is_finite() {
+        if !within(mid) || !grade.is_finite() || !keep(2) {
             continue;
         }
         scene.labels.push(Label {
@@ -338,6 +349,25 @@ pub fn profile_scene_with(
         });
     }
     scene
+}
+
+/// Device columns per PVI below which labels of a priority are not made
+/// at all (they could not be placed legibly): curve and grade labels (2),
+/// high and low points (3), PVC and PVT stations (4). PVI labels and
+/// failures are always made.
+const LABEL_SPACING_COLUMNS: [f64; 5] = [0.0, 0.0, 24.0, 40.0, 56.0];
+
+/// Which label priorities this view has room for, by the PVIs in view per
+/// device column.
+fn level_of_detail(analysis: &Analysis, range: (f64, f64), detail: Detail) -> impl Fn(u8) -> bool {
+    let pvis = &analysis.profile.pvis;
+    let first = pvis.partition_point(|p| p.station.0 < range.0);
+    let last = pvis.partition_point(|p| p.station.0 <= range.1);
+    #[allow(clippy::cast_precision_loss)]
+    let spacing = detail.columns as f64 / last.saturating_sub(first).max(1) as f64;
+    move |priority: u8| {
+        LABEL_SPACING_COLUMNS.get(usize::from(priority)).is_none_or(|&needed| spacing >= needed)
+    }
 }
 
 /// The cut and fill hatching in `range`: a stroke every

@@ -3,12 +3,14 @@
 
 use std::sync::Arc;
 
-use crate::visibility::SightProfile;
+use std::collections::HashMap;
+
+use crate::visibility::{Shortfall, SightProfile};
 use crate::{
     Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveGeometry, CutFillSummary,
     Earthwork, EarthworkError, Finding, Ground, Profile, ProfileProblem, Project, Pvi, ResolvedCriteria,
-    Severity, check_controls, check_profile_with_sight, compute_sight, control_findings, earthwork_at,
-    interior_curves, structural_findings,
+    Severity, check_controls, compute_sight, control_findings, earthwork_at, interior_curves,
+    structural_findings,
 };
 
 /// Everything computed from a project: the validated alignment (when the
@@ -52,6 +54,8 @@ pub struct Analysis {
     site: Option<Arc<crate::ground::SiteScan>>,
     /// The indices of the findings that name each PVI.
     by_pvi: Vec<Vec<usize>>,
+    /// Each sight shortfall with the finding made of it (for the next edit).
+    sight_notes: Arc<Vec<(Shortfall, Finding)>>,
 }
 
 /// Whether a problem still lets every curve be computed (curves that
@@ -94,11 +98,32 @@ impl Analysis {
         let criteria = project.criteria.resolve(project.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
-        let sight = match (&alignment, &criteria) {
+        let notes = previous.as_ref().map(|p| p.sight_notes.clone());
+        let (sight, changed) = match (&alignment, &criteria) {
             (Some(a), Ok(c)) => sight_after(project, previous, a, c),
+            _ => (None, None),
+        };
+        // A shortfall whose sight lines stay clear of the changed stretch
+        // gets the finding it had: the road it sees is the same.
+        let reuse = match (changed, notes.as_deref(), &criteria) {
+            (Some((lo, hi)), Some(notes), Ok(c)) if !notes.is_empty() => {
+                let reach =
+                    c.get(crate::CriterionId::SightCap).max(c.get(crate::CriterionId::StoppingSightDistance));
+                let index: HashMap<[u64; 6], &Finding> =
+                    notes.iter().map(|(s, f)| (shortfall_key(s), f)).collect();
+                let clear = move |s: &Shortfall| s.end + 2.0 * reach < lo || s.start - 2.0 * reach > hi;
+                Some((index, clear))
+            }
             _ => None,
         };
-        let mut analysis = Self::assemble(profile, criteria, alignment, sight);
+        let lookup = reuse.as_ref().map(|(index, clear)| {
+            move |s: &Shortfall| {
+                if clear(s) { index.get(&shortfall_key(s)).map(|f| (*f).clone()) } else { None }
+            }
+        });
+        let reuse_fn: Option<crate::checks::SightReuse<'_>> =
+            lookup.as_ref().map(|f| f as crate::checks::SightReuse<'_>);
+        let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse_fn);
         analysis.add_site(project, previous_site.as_deref());
         analysis.source = Some(project.clone());
         analysis
@@ -116,6 +141,7 @@ impl Analysis {
             earthwork: None,
             site: None,
             by_pvi: Vec::new(),
+            sight_notes: Arc::default(),
             problems: Vec::new(),
             alignment: None,
             curves: Vec::new(),
@@ -144,14 +170,25 @@ impl Analysis {
         alignment: Option<Arc<Alignment>>,
         sight: Option<SightProfile>,
     ) -> Self {
+        Self::assemble_reusing(profile, criteria, alignment, sight, None)
+    }
+
+    fn assemble_reusing(
+        profile: Profile,
+        criteria: Result<ResolvedCriteria, CriteriaError>,
+        alignment: Option<Arc<Alignment>>,
+        sight: Option<SightProfile>,
+        reuse: Option<crate::checks::SightReuse<'_>>,
+    ) -> Self {
         let problems = profile.problems();
         let usable = problems.iter().all(is_design_problem);
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
         let mut report = match &criteria {
-            Ok(c) => check_profile_with_sight(&profile, c, sight),
+            Ok(c) => crate::checks::check_profile_reusing(&profile, c, sight, reuse),
             Err(e) => unchecked_report(&profile, e),
         };
         let sight = report.sight.take().map(Arc::new);
+        let sight_notes = Arc::new(pair_shortfalls(sight.as_deref(), &report.findings));
         let mut by_pvi = vec![Vec::new(); profile.pvis.len()];
         for (k, f) in report.findings.iter().enumerate() {
             if let Some(list) = f.pvi.and_then(|i| by_pvi.get_mut(i)) {
@@ -160,6 +197,7 @@ impl Analysis {
         }
         Self {
             by_pvi,
+            sight_notes,
             profile,
             ground: Ground::default(),
             controls: Vec::new(),
@@ -241,8 +279,8 @@ fn sight_after(
     previous: Option<Analysis>,
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
-) -> Option<SightProfile> {
-    let full = || compute_sight(alignment, criteria);
+) -> (Option<SightProfile>, Option<(f64, f64)>) {
+    let full = || (compute_sight(alignment, criteria), None);
     let Some(prev) = previous else { return full() };
     let Some(old) = prev.source.as_ref() else { return full() };
     let new = project;
@@ -257,7 +295,11 @@ fn sight_after(
     let changed: Vec<usize> = (0..new.pvis.len()).filter(|&i| old.pvis.get(i) != new.pvis.get(i)).collect();
     let unshare = |s: Arc<SightProfile>| Arc::try_unwrap(s).unwrap_or_else(|shared| (*shared).clone());
     let (Some(&first), Some(&last)) = (changed.first(), changed.last()) else {
-        return prev.sight.map(unshare).or_else(full);
+        // Nothing on the road changed: every finding stands.
+        return match prev.sight {
+            Some(s) => (Some(unshare(s)), Some((f64::INFINITY, f64::NEG_INFINITY))),
+            None => full(),
+        };
     };
     // Moving PVIs first..=last changes the road from the start of the curve at
     // PVI first − 1 to the end of the curve at PVI last + 1, in the old and the
@@ -273,12 +315,77 @@ fn sight_after(
     let (a, b) = (extent(&old.pvis), extent(&new.pvis));
     let Some(shared) = prev.sight else { return full() };
     let mut sight = unshare(shared);
-    sight.update_after_change(
-        alignment,
-        &criteria.sight_setup(),
-        criteria.sight_requirement(),
-        a.0.min(b.0),
-        a.1.max(b.1),
-    );
-    Some(sight)
+    let (lo, hi) = (a.0.min(b.0), a.1.max(b.1));
+    sight.update_after_change(alignment, &criteria.sight_setup(), criteria.sight_requirement(), lo, hi);
+    (Some(sight), Some((lo, hi)))
+}
+
+/// A shortfall as a key: every field, to the bit.
+fn shortfall_key(s: &Shortfall) -> [u64; 6] {
+    let direction = match s.direction {
+        crate::visibility::Direction::Forward => 0,
+        crate::visibility::Direction::Backward => 1,
+    };
+    [
+        direction,
+        s.start.to_bits(),
+        s.end.to_bits(),
+        s.worst.to_bits(),
+        s.available.to_bits(),
+        s.required.to_bits(),
+    ]
+}
+
+/// The sight shortfalls of `sight` paired with the findings the check made
+/// of them (one each, in order); empty when they do not pair up.
+fn pair_shortfalls(sight: Option<&SightProfile>, findings: &[Finding]) -> Vec<(Shortfall, Finding)> {
+    let Some(sight) = sight else { return Vec::new() };
+    let shorts = sight.shortfalls(crate::tolerance::PASS_RELATIVE);
+    let made: Vec<&Finding> =
+        findings.iter().filter(|f| matches!(f.code, "sight.forward" | "sight.backward")).collect();
+    if shorts.len() != made.len() {
+        return Vec::new();
+    }
+    shorts.into_iter().zip(made).map(|(s, f)| (s, f.clone())).collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::{Station, Units};
+
+    /// Dragging one PVI of a long profile whose curves all fall short: the
+    /// analysis after each step (sight distance updated in place, the
+    /// shortfall findings away from the edit reused, the site scan reused
+    /// by blocks) equals a fresh analysis, finding for finding.
+    #[test]
+    fn an_analysis_after_edits_equals_a_fresh_one() {
+        let profile = crate::synthetic::rolling_profile(Units::Metric, 80, 8_000.0);
+        let mut project = Project::new("drag", Units::Metric);
+        project.pvis = profile.pvis;
+        project.criteria.design_speed = Some(100.0);
+        let road = Alignment::new(&project.profile()).expect("valid");
+        project.ground = (0..=8_000)
+            .map(|i| {
+                let s = f64::from(i);
+                let y = road.sample(Station(s)).map_or(0.0, |x| x.elevation) + (s / 70.0).sin();
+                crate::GroundPoint { station: s, elevation: y }
+            })
+            .collect::<Vec<_>>()
+            .into();
+        project.section = Some(crate::Section::default_for(Units::Metric));
+        let mut analysis = Analysis::of(&project);
+        assert!(analysis.report.findings.iter().filter(|f| f.code.starts_with("sight.")).count() > 20);
+        for (index, rise) in [(40, 0.8), (40, 1.6), (41, -0.7), (10, 0.3), (40, 0.0)] {
+            if let Some(p) = project.pvis.get_mut(index) {
+                p.elevation += rise;
+            }
+            analysis.refresh(&project);
+            let fresh = Analysis::of(&project);
+            assert_eq!(analysis.report.findings, fresh.report.findings, "after moving PVI {}", index + 1);
+            assert_eq!(analysis.sight(), fresh.sight());
+            assert_eq!(analysis.cut_fill, fresh.cut_fill);
+            assert_eq!(analysis.earthwork, fresh.earthwork);
+        }
+    }
 }

@@ -190,6 +190,21 @@ pub fn check_profile_with_sight(
     criteria: &ResolvedCriteria,
     sight: Option<SightProfile>,
 ) -> CheckReport {
+    check_profile_reusing(profile, criteria, sight, None)
+}
+
+/// What an earlier check said about a shortfall it can vouch for (one whose
+/// sight lines an edit cannot have touched), or `None`.
+pub(crate) type SightReuse<'a> = &'a dyn Fn(&crate::visibility::Shortfall) -> Option<Finding>;
+
+/// As [`check_profile_with_sight`], taking a shortfall's finding from
+/// `reuse` when it has one (the same finding a fresh check would make).
+pub(crate) fn check_profile_reusing(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    sight: Option<SightProfile>,
+    reuse: Option<SightReuse<'_>>,
+) -> CheckReport {
     let mut report = CheckReport::default();
     let problems = profile.problems();
     let usable = problems.iter().all(|problem| {
@@ -213,7 +228,7 @@ pub fn check_profile_with_sight(
         && let Ok(alignment) = Alignment::new(profile)
     {
         match &sight {
-            Some(sight) => check_sight(&alignment, criteria, sight, &mut report.findings),
+            Some(sight) => check_sight(&alignment, criteria, sight, reuse, &mut report.findings),
             // A check that did not run must not pass.
             None => report.findings.push(Finding {
                 severity: Severity::Fail,
@@ -574,6 +589,7 @@ fn check_sight(
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
     sight: &SightProfile,
+    reuse: Option<SightReuse<'_>>,
     findings: &mut Vec<Finding>,
 ) {
     let units = criteria.units;
@@ -581,6 +597,10 @@ fn check_sight(
     let setup = criteria.sight_setup();
     let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
     for short in sight.shortfalls(PASS_RELATIVE) {
+        if let Some(finding) = reuse.and_then(|r| r(&short)) {
+            findings.push(finding);
+            continue;
+        }
         let (road, at, way) = match short.direction {
             Direction::Forward => (&roads[0], short.worst, "forward (increasing stations)"),
             Direction::Backward => (&roads[1], -short.worst, "backward (decreasing stations)"),
@@ -596,7 +616,10 @@ fn check_sight(
         let blamed = pvi
             .and_then(|i| alignment.pvis().get(i).map(|p| (i, p)))
             .map(|(i, p)| {
-                let what = match alignment.curves().iter().find(|c| c.index == i) {
+                // `curves()[k]` is the curve at PVI k + 1: found directly,
+                // not by a search per shortfall.
+                let curve = i.checked_sub(1).and_then(|k| alignment.curves().get(k)).filter(|c| c.index == i);
+                let what = match curve {
                     Some(c) if c.length() > 0.0 => format!("the {} curve", c.kind.key()),
                     Some(c) if c.kind != CurveKind::None => format!("the {} grade break", c.kind.key()),
                     _ => "the grade".to_owned(),
@@ -633,7 +656,7 @@ fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut V
     for (i, pair) in profile.pvis.windows(2).enumerate() {
         let [a, b] = pair else { continue };
         let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
-        let span = format!("{} to {}", label(units, a.station), label(units, b.station));
+        let span = || format!("{} to {}", label(units, a.station), label(units, b.station));
         let mut push = |severity, code, message| {
             findings.push(Finding {
                 severity,
@@ -648,14 +671,15 @@ fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut V
             push(
                 Severity::Fail,
                 "grade.max",
-                format!("Grade {grade:+.3} % from {span} is steeper than the maximum {max:.2} %"),
+                format!("Grade {grade:+.3} % from {} is steeper than the maximum {max:.2} %", span()),
             );
         } else if below(grade.abs(), min) {
             push(
                 Severity::Warn,
                 "grade.min",
                 format!(
-                    "Grade {grade:+.3} % from {span} is flatter than the minimum {min:.2} % for drainage"
+                    "Grade {grade:+.3} % from {} is flatter than the minimum {min:.2} % for drainage",
+                    span()
                 ),
             );
         }
