@@ -7,10 +7,10 @@ use std::collections::HashMap;
 
 use crate::visibility::{Shortfall, SightProfile};
 use crate::{
-    Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveGeometry, CutFillSummary,
-    Earthwork, EarthworkError, Finding, Ground, Profile, ProfileProblem, Project, Pvi, ResolvedCriteria,
-    Severity, check_controls, compute_sight, control_findings, earthwork_at, interior_curves,
-    structural_findings,
+    Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveCheck, CurveGeometry,
+    CutFillSummary, Earthwork, EarthworkError, Finding, Ground, Profile, ProfileProblem, Project, Pvi,
+    ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, earthwork_at,
+    interior_curves, structural_findings,
 };
 
 /// Everything computed from a project: the validated alignment (when the
@@ -56,6 +56,9 @@ pub struct Analysis {
     by_pvi: Vec<Vec<usize>>,
     /// Each sight shortfall with the finding made of it (for the next edit).
     sight_notes: Arc<Vec<(Shortfall, Finding)>>,
+    /// Each curve's check and the findings its own check made (for the next
+    /// edit).
+    curve_notes: Arc<Vec<(CurveCheck, Vec<Finding>)>>,
 }
 
 /// Whether a problem still lets every curve be computed (curves that
@@ -99,6 +102,11 @@ impl Analysis {
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
         let notes = previous.as_ref().map(|p| p.sight_notes.clone());
+        // Curve checks depend on the curve's geometry and the criteria only.
+        let curve_notes = previous
+            .as_ref()
+            .filter(|p| p.criteria.as_ref().ok() == criteria.as_ref().ok() && p.criteria.is_ok())
+            .map(|p| p.curve_notes.clone());
         let (sight, changed) = match (&alignment, &criteria) {
             (Some(a), Ok(c)) => sight_after(project, previous, a, c),
             _ => (None, None),
@@ -121,9 +129,18 @@ impl Analysis {
                 if clear(s) { index.get(&shortfall_key(s)).map(|f| (*f).clone()) } else { None }
             }
         });
-        let reuse_fn: Option<crate::checks::SightReuse<'_>> =
+        let sight_fn: Option<crate::checks::SightReuse<'_>> =
             lookup.as_ref().map(|f| f as crate::checks::SightReuse<'_>);
-        let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse_fn);
+        let curve_lookup = curve_notes.as_deref().map(|notes| {
+            move |c: &CurveGeometry| {
+                let (check, found) = c.index.checked_sub(1).and_then(|k| notes.get(k))?;
+                (check.curve == *c).then(|| (check.clone(), found.clone()))
+            }
+        });
+        let curve_fn: Option<crate::checks::CurveReuse<'_>> =
+            curve_lookup.as_ref().map(|f| f as crate::checks::CurveReuse<'_>);
+        let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn };
+        let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse);
         analysis.add_site(project, previous_site.as_deref());
         analysis.source = Some(project.clone());
         analysis
@@ -142,6 +159,7 @@ impl Analysis {
             site: None,
             by_pvi: Vec::new(),
             sight_notes: Arc::default(),
+            curve_notes: Arc::default(),
             problems: Vec::new(),
             alignment: None,
             curves: Vec::new(),
@@ -170,7 +188,7 @@ impl Analysis {
         alignment: Option<Arc<Alignment>>,
         sight: Option<SightProfile>,
     ) -> Self {
-        Self::assemble_reusing(profile, criteria, alignment, sight, None)
+        Self::assemble_reusing(profile, criteria, alignment, sight, crate::checks::Reuse::default())
     }
 
     fn assemble_reusing(
@@ -178,15 +196,26 @@ impl Analysis {
         criteria: Result<ResolvedCriteria, CriteriaError>,
         alignment: Option<Arc<Alignment>>,
         sight: Option<SightProfile>,
-        reuse: Option<crate::checks::SightReuse<'_>>,
+        reuse: crate::checks::Reuse<'_>,
     ) -> Self {
         let problems = profile.problems();
         let usable = problems.iter().all(is_design_problem);
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
-        let mut report = match &criteria {
+        let (mut report, spans) = match &criteria {
             Ok(c) => crate::checks::check_profile_reusing(&profile, c, sight, reuse),
-            Err(e) => unchecked_report(&profile, e),
+            Err(e) => (unchecked_report(&profile, e), Vec::new()),
         };
+        // The checks' curves are one per interior PVI, in order (index k + 1).
+        let curve_notes = Arc::new(if spans.len() == report.curves.len() {
+            report
+                .curves
+                .iter()
+                .zip(&spans)
+                .map(|(c, span)| (c.clone(), report.findings.get(span.clone()).unwrap_or(&[]).to_vec()))
+                .collect()
+        } else {
+            Vec::new()
+        });
         let sight = report.sight.take().map(Arc::new);
         let sight_notes = Arc::new(pair_shortfalls(sight.as_deref(), &report.findings));
         let mut by_pvi = vec![Vec::new(); profile.pvis.len()];
@@ -198,6 +227,7 @@ impl Analysis {
         Self {
             by_pvi,
             sight_notes,
+            curve_notes,
             profile,
             ground: Ground::default(),
             controls: Vec::new(),

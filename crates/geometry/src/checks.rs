@@ -190,22 +190,38 @@ pub fn check_profile_with_sight(
     criteria: &ResolvedCriteria,
     sight: Option<SightProfile>,
 ) -> CheckReport {
-    check_profile_reusing(profile, criteria, sight, None)
+    check_profile_reusing(profile, criteria, sight, Reuse::default()).0
 }
+
+/// What an earlier check of the same criteria can vouch for: a curve's
+/// check and findings (when its geometry is unchanged), a shortfall's finding.
+#[derive(Clone, Copy, Default)]
+pub(crate) struct Reuse<'a> {
+    /// By curve.
+    pub curve: Option<CurveReuse<'a>>,
+    /// By shortfall.
+    pub sight: Option<SightReuse<'a>>,
+}
+
+/// The check and findings an earlier check made of a curve with exactly
+/// this geometry, or `None`.
+pub(crate) type CurveReuse<'a> = &'a dyn Fn(&CurveGeometry) -> Option<(CurveCheck, Vec<Finding>)>;
 
 /// What an earlier check said about a shortfall it can vouch for (one whose
 /// sight lines an edit cannot have touched), or `None`.
 pub(crate) type SightReuse<'a> = &'a dyn Fn(&crate::visibility::Shortfall) -> Option<Finding>;
 
-/// As [`check_profile_with_sight`], taking a shortfall's finding from
-/// `reuse` when it has one (the same finding a fresh check would make).
+/// As [`check_profile_with_sight`], taking what `reuse` vouches for (the
+/// same a fresh check would make). Also gives the range of findings each
+/// curve's own check made, in the order of the report's curves.
 pub(crate) fn check_profile_reusing(
     profile: &Profile,
     criteria: &ResolvedCriteria,
     sight: Option<SightProfile>,
-    reuse: Option<SightReuse<'_>>,
-) -> CheckReport {
+    reuse: Reuse<'_>,
+) -> (CheckReport, Vec<std::ops::Range<usize>>) {
     let mut report = CheckReport::default();
+    let mut spans = Vec::new();
     let problems = profile.problems();
     let usable = problems.iter().all(|problem| {
         matches!(
@@ -217,10 +233,18 @@ pub(crate) fn check_profile_reusing(
     });
     report.findings = group_repeats(problems.iter().map(|p| problem_finding(profile, p)).collect());
     if !usable {
-        return report;
+        return (report, spans);
     }
     for curve in interior_curves(&profile.pvis) {
-        let check = check_curve(&curve, criteria, &mut report.findings);
+        let start = report.findings.len();
+        let check = match reuse.curve.and_then(|r| r(&curve)) {
+            Some((check, found)) => {
+                report.findings.extend(found);
+                check
+            }
+            None => check_curve(&curve, criteria, &mut report.findings),
+        };
+        spans.push(start..report.findings.len());
         report.curves.push(check);
     }
     check_grades(profile, criteria, &mut report.findings);
@@ -228,7 +252,7 @@ pub(crate) fn check_profile_reusing(
         && let Ok(alignment) = Alignment::new(profile)
     {
         match &sight {
-            Some(sight) => check_sight(&alignment, criteria, sight, reuse, &mut report.findings),
+            Some(sight) => check_sight(&alignment, criteria, sight, reuse.sight, &mut report.findings),
             // A check that did not run must not pass.
             None => report.findings.push(Finding {
                 severity: Severity::Fail,
@@ -266,7 +290,7 @@ pub(crate) fn check_profile_reusing(
     for check in &mut report.curves {
         check.ok = !failing.get(check.curve.index).copied().unwrap_or(false);
     }
-    report
+    (report, spans)
 }
 
 fn label(units: Units, station: Station) -> String {
