@@ -137,6 +137,16 @@ impl GroundWalker<'_> {
         let ahead = |i: usize| points.get(i).is_some_and(|p| p.station <= station);
         if self.index == 0 || !ahead(self.index - 1) {
             self.index = points.partition_point(|p| p.station <= station);
+        } else if ahead(self.index + 8) {
+            // Far ahead: gallop (8, 16, 32, … points), then search the last
+            // stride, so the walk touches only the memory near its path.
+            let mut stride = 8;
+            while ahead(self.index + 2 * stride) {
+                stride *= 2;
+            }
+            let end = (self.index + 2 * stride + 1).min(points.len());
+            let window = points.get(self.index + stride..end).unwrap_or(&[]);
+            self.index += stride + window.partition_point(|p| p.station <= station);
         } else {
             while self.index < points.len() && ahead(self.index) {
                 self.index += 1;
@@ -561,5 +571,17 @@ mod tests {
             "most blocks are reused: {reused} of {}",
             after.blocks.len()
         );
+    }
+
+    #[test]
+    fn the_walker_agrees_with_a_search_at_every_station() {
+        let points: Vec<(f64, f64)> = (0..5_000).map(|i| (f64::from(i) * 0.1, (f64::from(i) * 0.37).sin())).collect();
+        let g = ground(&points);
+        let mut walk = g.walker();
+        // Small steps, a long jump, a step back, and beyond the end.
+        let stations = [0.0, 0.05, 0.1, 0.35, 3.0, 3.04, 250.0, 250.01, 120.0, 121.0, 499.9, 500.0];
+        for s in stations {
+            assert_eq!(walk.elevation_at(s), g.elevation_at(s), "at {s}");
+        }
     }
 }
