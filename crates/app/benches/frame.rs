@@ -72,6 +72,7 @@ fn with_ground(c: &mut Criterion) {
             kind: gradewright_geometry::ControlKind::Minimum,
             elevation: 0.0,
             tolerance: 0.0,
+            clearance: 0.0,
         },
         gradewright_geometry::ControlPoint {
             name: "Bridge".to_owned(),
@@ -79,6 +80,7 @@ fn with_ground(c: &mut Criterion) {
             kind: gradewright_geometry::ControlKind::Maximum,
             elevation: 1.0e4,
             tolerance: 0.0,
+            clearance: 0.0,
         },
     ];
     project.section = Some(gradewright_geometry::Section::default_for(Units::Metric));

@@ -419,6 +419,9 @@ fn controls(analysis: &Analysis, scene: &mut Scene, within: impl Fn(f64) -> bool
             }
             ControlKind::Fixed => format!("fixed {:.3}", c.elevation),
             ControlKind::Minimum => format!("min {:.3}", c.elevation),
+            ControlKind::Maximum if c.clearance > 0.0 => {
+                format!("max {:.3} (underside {:.3})", c.elevation, c.elevation + c.clearance)
+            }
             ControlKind::Maximum => format!("max {:.3}", c.elevation),
         };
         let mut lines = vec![c.title(i), limit];

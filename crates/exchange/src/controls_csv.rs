@@ -42,7 +42,7 @@ pub fn read_controls_csv(
         .comment(Some(b'#'))
         .delimiter(delimiter(text))
         .from_reader(text.as_bytes());
-    let mut columns: Option<[Option<usize>; 5]> = None;
+    let mut columns: Option<[Option<usize>; 6]> = None;
     let mut controls = Vec::new();
     let mut last_line = 1;
     for record in csv.records() {
@@ -55,10 +55,11 @@ pub fn read_controls_csv(
         }
         let Some(cols) = columns else {
             let header: Vec<String> = record.iter().map(str::to_ascii_lowercase).collect();
-            let mut found = [None; 5];
+            let mut found = [None; 6];
             for (i, h) in header.iter().enumerate() {
-                let Some(slot) =
-                    ["station", "kind", "elevation", "tolerance", "name"].iter().position(|n| n == h)
+                let Some(slot) = ["station", "kind", "elevation", "tolerance", "name", "clearance"]
+                    .iter()
+                    .position(|n| n == h)
                 else {
                     return Err(err(
                         line,
@@ -84,7 +85,7 @@ pub fn read_controls_csv(
             continue;
         };
         let cell = |c: Option<usize>| c.and_then(|i| record.get(i)).unwrap_or("");
-        let [Some(s), Some(k), Some(e), t, n] = cols else { continue };
+        let [Some(s), Some(k), Some(e), t, n, cl] = cols else { continue };
         if record.len() <= s.max(k).max(e) {
             return Err(err(
                 line,
@@ -124,7 +125,25 @@ pub fn read_controls_csv(
                 format!("a tolerance applies to fixed points only; a {} point is a limit", kind.key()),
             ));
         }
-        controls.push(ControlPoint { name: cell(n).to_owned(), station, kind, elevation, tolerance });
+        let clearance = match cell(cl) {
+            "" => 0.0,
+            text => number("clearance", text)?,
+        };
+        if clearance < 0.0 || (clearance > 0.0 && kind != ControlKind::Maximum) {
+            return Err(err(
+                line,
+                "clearance",
+                format!("{clearance}: a clearance (≥ 0) belongs to a maximum point under a structure"),
+            ));
+        }
+        controls.push(ControlPoint {
+            name: cell(n).to_owned(),
+            station,
+            kind,
+            elevation,
+            tolerance,
+            clearance,
+        });
     }
     if columns.is_none() {
         return Err(err(last_line, "header", format!("no header; the header is {CONTROLS_HEADER}")));

@@ -254,6 +254,18 @@ impl Analysis {
         self.control_status = check_controls(&alignment, &self.controls);
         let findings = control_findings(project.units, &self.controls, &self.control_status);
         self.report.findings.extend(findings);
+        if let Ok(criteria) = &self.criteria {
+            let under = crate::controls::undercrossing_findings(&alignment, &self.controls, criteria);
+            for f in under {
+                if let Some(list) = f.pvi.and_then(|i| self.by_pvi.get_mut(i)) {
+                    list.push(self.report.findings.len());
+                }
+                if let Some(check) = self.report.curves.iter_mut().find(|c| Some(c.curve.index) == f.pvi) {
+                    check.ok = false;
+                }
+                self.report.findings.push(f);
+            }
+        }
         if self.ground.range().is_some() {
             let scan = crate::ground::SiteScan::new(&alignment, &self.ground, previous);
             self.cut_fill = scan.summary;

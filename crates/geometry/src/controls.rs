@@ -69,6 +69,17 @@ pub struct ControlPoint {
     /// For a fixed point, the allowed deviation either way (≥ 0).
     #[serde(default)]
     pub tolerance: f64,
+    /// For a maximum point under a structure: the vertical clearance taken
+    /// off its underside (the underside is `elevation + clearance`). When
+    /// set (> 0) on a sag, the sight distance under the structure is
+    /// checked too.
+    #[serde(default, skip_serializing_if = "is_zero")]
+    pub clearance: f64,
+}
+
+#[allow(clippy::trivially_copy_pass_by_ref)] // serde's signature
+fn is_zero(v: &f64) -> bool {
+    *v == 0.0
 }
 
 impl ControlPoint {
@@ -205,6 +216,77 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
     findings
 }
 
+/// Truck driver's eye and taillight heights for sight under a structure:
+/// 2.4 m and 0.6 m, or 8 ft and 2 ft (Green Book 2018 §3.4.6.4, from
+/// memory).
+pub fn undercrossing_heights(units: Units) -> (f64, f64) {
+    match units {
+        Units::Metric => (2.4, 0.6),
+        Units::UsCustomary => (8.0, 2.0),
+    }
+}
+
+/// For each maximum control point with a clearance that lies on a sag
+/// curve: whether the curve is long enough to see the stopping sight
+/// distance under the structure, L = A·S²/(800(C − (h1 + h2)/2)) when
+/// S < L, else 2S − 800(C − (h1 + h2)/2)/A (Green Book 2018 eq. 3-51 and
+/// 3-52; equation numbers from memory), with C the clearance between the
+/// profile and the underside there. A curve shorter than that is a failing
+/// `control.undercrossing` finding.
+pub fn undercrossing_findings(
+    alignment: &Alignment,
+    controls: &[ControlPoint],
+    criteria: &crate::ResolvedCriteria,
+) -> Vec<Finding> {
+    let units = alignment.units();
+    let len = units.length_symbol();
+    let (h1, h2) = undercrossing_heights(units);
+    let ssd = criteria.get(crate::CriterionId::StoppingSightDistance);
+    let mut findings = Vec::new();
+    for (i, c) in controls.iter().enumerate() {
+        if c.kind != ControlKind::Maximum || !(c.clearance > 0.0 && c.clearance.is_finite()) {
+            continue;
+        }
+        let on = alignment.curves().iter().find(|k| {
+            k.kind == crate::CurveKind::Sag
+                && k.length() > 0.0
+                && k.pvc.0 <= c.station
+                && c.station <= k.pvt.0
+        });
+        let (Some(curve), Ok(sample)) = (on, alignment.sample(Station(c.station))) else { continue };
+        let at = format_station(c.station, units, units.station_decimals());
+        let underside = c.elevation + c.clearance;
+        let clear = underside - sample.elevation;
+        let name = c.title(i);
+        let finding = |message: String| Finding {
+            severity: Severity::Fail,
+            code: "control.undercrossing",
+            station_start: curve.pvc,
+            station_end: curve.pvt,
+            pvi: Some(curve.index),
+            message,
+        };
+        if clear <= (h1 + h2) / 2.0 {
+            findings.push(finding(format!(
+                "{name} at {at}: {clear:.3} {len} between the profile and the underside {underside:.3} leaves no \
+                 sight line under it for an eye at {h1} {len} and an object at {h2} {len}"
+            )));
+            continue;
+        }
+        let need = crate::sight::sag_undercrossing_length(curve.a_percent(), ssd, clear, h1, h2).length;
+        if below(curve.length(), need) {
+            findings.push(finding(format!(
+                "{name} at {at}: the sag curve at PVI {} (L = {:.2} {len}) is shorter than the {need:.2} {len} \
+                 needed to see {ssd:.1} {len} under the structure (clearance {clear:.3} {len}, eye {h1}, \
+                 object {h2}; L = A·S²/(800(C − (h1 + h2)/2)) or 2S − 800(C − (h1 + h2)/2)/A)",
+                curve.index + 1,
+                curve.length()
+            )));
+        }
+    }
+    findings
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -217,7 +299,14 @@ mod tests {
     }
 
     fn control(kind: ControlKind, elevation: f64, tolerance: f64) -> ControlPoint {
-        ControlPoint { name: "Culvert C1".to_owned(), station: 50.0, kind, elevation, tolerance }
+        ControlPoint {
+            name: "Culvert C1".to_owned(),
+            station: 50.0,
+            kind,
+            elevation,
+            tolerance,
+            clearance: 0.0,
+        }
     }
 
     fn status(c: &ControlPoint) -> ControlStatus {
@@ -270,5 +359,42 @@ mod tests {
         for k in ControlKind::ALL {
             assert_eq!(ControlKind::from_key(k.key()), Some(k));
         }
+    }
+
+    /// Under a structure on a sag: A = 4 % (−2 % to +2 %), L = 100 m, the
+    /// PVI at 100.0 so the road is at 100 + A·L/800 = 100.5 there; 80 km/h,
+    /// SSD 130 m (Green Book 2018 Table 3-1). With the underside at 102.5
+    /// (C = 2.0 m): S < L gives L = 4·130²/(800·(2.0 − 1.5)) = 169 m
+    /// (hand-computed from eq. 3-51), longer than 100 m: fails. With the
+    /// underside at 106.5 (C = 6.0 m): 4·130²/(800·4.5) = 18.8 m < S, so
+    /// S > L: 2·130 − 800·4.5/4 = −640, nothing needed: met.
+    #[test]
+    fn sight_under_a_structure_on_a_sag() {
+        let road = Alignment::new(&Profile::new(
+            Units::Metric,
+            vec![Pvi::new(0.0, 104.0), Pvi::with_curve(200.0, 100.0, 100.0), Pvi::new(400.0, 104.0)],
+        ))
+        .expect("valid");
+        let criteria = crate::Criteria { design_speed: Some(80.0), ..crate::Criteria::default() }
+            .resolve(Units::Metric)
+            .expect("criteria");
+        let bridge = |underside: f64| ControlPoint {
+            name: "Rail bridge".to_owned(),
+            station: 200.0,
+            kind: ControlKind::Maximum,
+            elevation: underside - 0.0,
+            tolerance: 0.0,
+            clearance: 0.0,
+        };
+        // The clearance taken off the underside: the control sits 5.0 below it.
+        let with =
+            |underside: f64| ControlPoint { elevation: underside - 5.0, clearance: 5.0, ..bridge(underside) };
+        let found = undercrossing_findings(&road, &[with(102.5)], &criteria);
+        let f = found.first().expect("a finding");
+        assert_eq!((f.code, f.severity), ("control.undercrossing", Severity::Fail));
+        assert!(f.message.contains("169.00 m"), "{}", f.message);
+        assert!(undercrossing_findings(&road, &[with(106.5)], &criteria).is_empty());
+        // Without a clearance there is no undercrossing check.
+        assert!(undercrossing_findings(&road, &[bridge(102.5)], &criteria).is_empty());
     }
 }

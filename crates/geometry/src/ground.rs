@@ -575,7 +575,8 @@ mod tests {
 
     #[test]
     fn the_walker_agrees_with_a_search_at_every_station() {
-        let points: Vec<(f64, f64)> = (0..5_000).map(|i| (f64::from(i) * 0.1, (f64::from(i) * 0.37).sin())).collect();
+        let points: Vec<(f64, f64)> =
+            (0..5_000).map(|i| (f64::from(i) * 0.1, (f64::from(i) * 0.37).sin())).collect();
         let g = ground(&points);
         let mut walk = g.walker();
         // Small steps, a long jump, a step back, and beyond the end.

@@ -411,6 +411,7 @@ fn lengthen_to_clear_never_breaks_a_met_control_point() {
         kind: ControlKind::Minimum,
         elevation,
         tolerance: 0.0,
+        clearance: 0.0,
     };
     let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &[control(103.7)], &[1], 5.0);
     assert_eq!(fitted, profile, "{outcomes:?}");

@@ -141,7 +141,7 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     }
     egui::Grid::new("controls-grid").striped(true).spacing([6.0, 3.0]).show(ui, |ui| {
         if !controls.is_empty() {
-            for h in ["", "Name", "Station", "Kind", "Elevation", "±", ""] {
+            for h in ["", "Name", "Station", "Kind", "Elevation", "± / clear.", ""] {
                 ui.label(RichText::new(h).strong());
             }
             ui.end_row();
@@ -152,7 +152,10 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                 match c.kind {
                     ControlKind::Fixed => "Fixed: meet the elevation within ± the tolerance",
                     ControlKind::Minimum => "Minimum: stay at or above (cover, flood level)",
-                    ControlKind::Maximum => "Maximum: stay at or below (underside minus clearance)",
+                    ControlKind::Maximum => {
+                        "Maximum: stay at or below (underside minus clearance); give the clearance to check the sight \
+                         distance under the structure on a sag"
+                    }
                 },
             );
             let mut set = |f: &mut dyn FnMut(&mut ControlPoint)| {
@@ -230,6 +233,25 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                 {
                     set(&mut |p| p.tolerance = v);
                 }
+            } else if c.kind == ControlKind::Maximum {
+                // Under a structure: the clearance taken off the underside
+                // (0: no sight check under it).
+                let id = CellId::Control(i, ControlColumn::Clearance);
+                let parsed = |t: &str| {
+                    let v = if t.trim().is_empty() { Ok(0.0) } else { parse_number(t) }?;
+                    if v < 0.0 { Err(format!("clearance {v} is negative")) } else { Ok(v) }
+                };
+                if let Some(text) = edit_cell(
+                    ui,
+                    &mut app.view,
+                    id,
+                    &format!("{:.2}", c.clearance),
+                    44.0,
+                    &format!("Control {} clearance", i + 1),
+                ) && let Some(v) = settle(&mut app.view, id, &text, parsed(&text))
+                {
+                    set(&mut |p| p.clearance = v);
+                }
             } else {
                 ui.label("—");
             }
@@ -288,6 +310,7 @@ pub fn add_control(app: &mut GradewrightApp, station: f64, elevation: Option<f64
         // profile stays met.
         elevation: (elevation * 1000.0).floor() / 1000.0,
         tolerance: 0.0,
+        clearance: 0.0,
     });
     app.push(Action::edit(Edit::SetControls(next)));
 }

@@ -68,6 +68,8 @@ pub enum ControlColumn {
     Elevation,
     /// Tolerance of a fixed point.
     Tolerance,
+    /// Clearance of a maximum point under a structure.
+    Clearance,
 }
 
 /// Editable values of the earthwork section.
