@@ -109,6 +109,14 @@ fn with_ground(c: &mut Criterion) {
             black_box(output.shapes.len())
         });
     });
+    c.bench_function("drag step alone with the 200k ground and the earthwork", |b| {
+        b.iter(|| {
+            step = step.wrapping_add(1);
+            let wiggle = f64::from(step % 20) * 0.05;
+            app.drag_to(index, base.station.0 + wiggle, base.elevation + wiggle);
+            black_box(app.analysis().report.findings.len())
+        });
+    });
     app.end_drag();
 }
 

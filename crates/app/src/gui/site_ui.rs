@@ -452,11 +452,16 @@ pub fn mass_strip_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     };
     let points: Vec<[f64; 2]> = estimate.rows.iter().map(|r| [r.station, r.mass]).collect();
     let (first, last) = (points.first().map_or(0.0, |p| p[0]), points.last().map_or(0.0, |p| p[0]));
-    let title = format!(
-        "Mass ordinate ({vol}): cut {:.0}, fill {:.0}, net {:+.0}",
-        estimate.cut,
-        estimate.fill,
-        estimate.net()
+    // The totals beside the strip, not in a legend name: a name that
+    // changes every frame is a new legend entry every frame.
+    ui.label(
+        RichText::new(format!(
+            "Mass haul (level-section estimate, {vol}): cut {:.0} · fill {:.0} · net {:+.0}",
+            estimate.cut,
+            estimate.fill,
+            estimate.net()
+        ))
+        .small(),
     );
     let lookup = points.clone();
     let decimals = units.station_decimals();
@@ -486,6 +491,6 @@ pub fn mass_strip_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                     .style(LineStyle::dashed_loose())
                     .width(1.0),
             );
-            pui.line(Line::new(title, PlotPoints::from(points)).color(palette.profile).width(1.8));
+            pui.line(Line::new("Mass ordinate", PlotPoints::from(points)).color(palette.profile).width(1.8));
         });
 }
