@@ -2,9 +2,7 @@
 //! (station, elevation), each item tagged by its role and never by a colour.
 //! The sheet maps roles to print styles; a screen maps them to its theme.
 
-use gradewright_geometry::{
-    Analysis, ControlKind, ControlStatus, CurveKind, Units, depth_at, format_station,
-};
+use gradewright_geometry::{Analysis, ControlKind, ControlStatus, CurveKind, Units, format_station};
 
 /// What a drawn item is, for the front end to style.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
@@ -388,12 +386,14 @@ fn hatches(
     let (lo, hi) = (range.0.max(g0).max(alignment.start().0), range.1.min(g1).min(alignment.end().0));
     let mut out = Vec::new();
     let mut s = (lo / spacing).ceil() * spacing;
+    // Stations in order: walk the ground and the profile.
+    let (mut walk, mut cursor) = (ground.walker(), alignment.cursor());
     while s <= hi && out.len() < 20_000 {
-        if let Some(d) = depth_at(alignment, ground, s)
-            && (d.cut > 0.0 || d.fill > 0.0)
+        if let (Some(g), Ok(p)) = (walk.elevation_at(s), cursor.sample(gradewright_geometry::Station(s)))
+            && (g - p.elevation).abs() > 0.0
         {
-            let role = if d.cut > 0.0 { Role::Cut } else { Role::Fill };
-            out.push(Hatch { role, station: s, profile: d.profile, ground: d.ground });
+            let role = if g > p.elevation { Role::Cut } else { Role::Fill };
+            out.push(Hatch { role, station: s, profile: p.elevation, ground: g });
         }
         s += spacing;
     }

@@ -52,6 +52,8 @@ pub struct Analysis {
     source: Option<Project>,
     /// The scan of the profile over the ground (kept for the next edit).
     site: Option<Arc<crate::ground::SiteScan>>,
+    /// Ground elevations at the earthwork's stations (kept for the next edit).
+    ground_samples: Option<crate::ground::GroundSamples>,
     /// The indices of the findings that name each PVI.
     by_pvi: Vec<Vec<usize>>,
     /// Each sight shortfall with the finding made of it (for the next edit).
@@ -96,11 +98,12 @@ impl Analysis {
     /// Analyses `project`, reusing the sight distance of `previous` (the
     /// analysis of the project before an edit) outside the stretch the edit
     /// can affect. The result equals [`Analysis::of`] (see the tests).
-    pub fn after(project: &Project, previous: Option<Self>) -> Self {
+    pub fn after(project: &Project, mut previous: Option<Self>) -> Self {
         let profile = project.profile();
         let criteria = project.criteria.resolve(project.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
+        let samples = previous.as_mut().and_then(|p| p.ground_samples.take());
         let notes = previous.as_ref().map(|p| p.sight_notes.clone());
         // Curve checks depend on the curve's geometry and the criteria only.
         let curve_notes = previous
@@ -141,7 +144,7 @@ impl Analysis {
             curve_lookup.as_ref().map(|f| f as crate::checks::CurveReuse<'_>);
         let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn };
         let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse);
-        analysis.add_site(project, previous_site.as_deref());
+        analysis.add_site(project, previous_site.as_deref(), samples);
         analysis.source = Some(project.clone());
         analysis
     }
@@ -157,6 +160,7 @@ impl Analysis {
             cut_fill: CutFillSummary::default(),
             earthwork: None,
             site: None,
+            ground_samples: None,
             by_pvi: Vec::new(),
             sight_notes: Arc::default(),
             curve_notes: Arc::default(),
@@ -235,6 +239,7 @@ impl Analysis {
             cut_fill: CutFillSummary::default(),
             earthwork: None,
             site: None,
+            ground_samples: None,
             problems,
             alignment,
             curves,
@@ -247,7 +252,12 @@ impl Analysis {
 
     /// Adds what the project's site gives: the ground (shared), the control
     /// points and their findings, the largest cut and fill, the earthwork.
-    fn add_site(&mut self, project: &Project, previous: Option<&crate::ground::SiteScan>) {
+    fn add_site(
+        &mut self,
+        project: &Project,
+        previous: Option<&crate::ground::SiteScan>,
+        samples: Option<crate::ground::GroundSamples>,
+    ) {
         self.ground = project.ground.clone();
         self.controls.clone_from(&project.controls);
         let Some(alignment) = self.alignment.clone() else { return };
@@ -271,8 +281,10 @@ impl Analysis {
             self.cut_fill = scan.summary;
             if let Some(section) = &project.section {
                 let interval = project.export.interval.unwrap_or(project.units.table_interval());
+                let mut samples = crate::ground::GroundSamples::new(&self.ground, samples);
                 self.earthwork =
-                    Some(earthwork_at(&alignment, &self.ground, section, interval, &scan.grade_points));
+                    Some(earthwork_at(&alignment, &mut samples, section, interval, &scan.grade_points));
+                self.ground_samples = Some(samples);
             }
             self.site = Some(Arc::new(scan));
         }

@@ -200,7 +200,8 @@ pub fn earthwork(
     interval: f64,
 ) -> Result<Earthwork, EarthworkError> {
     section.validate()?;
-    earthwork_at(alignment, ground, section, interval, &grade_points(alignment, ground))
+    let mut samples = crate::ground::GroundSamples::new(ground, None);
+    earthwork_at(alignment, &mut samples, section, interval, &grade_points(alignment, ground))
 }
 
 /// [`earthwork`] with the grade points already found (by a
@@ -210,13 +211,13 @@ pub fn earthwork(
 /// As [`earthwork`].
 pub fn earthwork_at(
     alignment: &Alignment,
-    ground: &Ground,
+    ground: &mut crate::ground::GroundSamples,
     section: &Section,
     interval: f64,
     grade_points: &[f64],
 ) -> Result<Earthwork, EarthworkError> {
     section.validate()?;
-    let (g0, g1) = ground.range().ok_or(EarthworkError::NoOverlap)?;
+    let (g0, g1) = ground.ground().range().ok_or(EarthworkError::NoOverlap)?;
     let start = alignment.start().0;
     let (lo, hi) = (g0.max(start), g1.min(alignment.end().0));
     if lo >= hi || lo.is_nan() || hi.is_nan() {
@@ -251,12 +252,11 @@ pub fn earthwork_at(
     let factor = volume_factor(alignment.units());
     let mut rows: Vec<EarthworkRow> = Vec::with_capacity(stations.len());
     let (mut cut, mut fill, mut mass) = (0.0, 0.0, 0.0);
-    // Stations in order: walk the ground and the profile instead of
-    // searching them at every station.
-    let mut walk = ground.walker();
+    // Stations in order: walk the profile; the ground under most stations
+    // is remembered from the last estimate.
     let mut cursor = alignment.cursor();
     for (s, kind) in stations {
-        let (Some(g), Ok(sample)) = (walk.elevation_at(s), cursor.sample(crate::Station(s))) else {
+        let (Some(g), Ok(sample)) = (ground.elevation_at(s), cursor.sample(crate::Station(s))) else {
             continue;
         };
         let depth = crate::Depth::new(s, g, sample.elevation);

@@ -64,10 +64,10 @@ impl Ground {
         Some(a.elevation + t * (b.elevation - a.elevation))
     }
 
-    /// The ground for drawing between stations `range`, at most about four
+    /// The ground for drawing between stations `range`, at most about two
     /// points per column when `columns` columns span the range: in each
-    /// column the first, lowest, highest and last point, in station order,
-    /// so a spike stays visible. A line short enough is returned whole. One
+    /// column the lowest and the highest point, in station order, so a spike
+    /// stays visible. A line short enough is returned whole. One
     /// point beyond each end of the range is kept so the line reaches the
     /// edges. For drawing only: never compute with the result.
     pub fn decimated(&self, range: (f64, f64), columns: usize) -> Vec<[f64; 2]> {
@@ -75,7 +75,7 @@ impl Ground {
         let hi = (self.partition_point(|p| p.station <= range.1) + 1).min(self.len());
         let Some(points) = self.get(lo..hi) else { return Vec::new() };
         let columns = columns.max(1);
-        if points.len() <= 4 * columns {
+        if points.len() <= 2 * columns {
             return points.iter().map(|p| [p.station, p.elevation]).collect();
         }
         let width = (range.1 - range.0) / columns as f64;
@@ -83,7 +83,7 @@ impl Ground {
         let column_of = |s: f64| -> i64 {
             if width > 0.0 && width.is_finite() { ((s - range.0) / width).floor() as i64 } else { 0 }
         };
-        let mut out = Vec::with_capacity(4 * columns + 8);
+        let mut out = Vec::with_capacity(2 * columns + 8);
         let mut start = 0;
         while let Some(first) = points.get(start) {
             let column = column_of(first.station);
@@ -101,8 +101,7 @@ impl Ground {
                     high = k;
                 }
             }
-            let mut picks = [0, low.min(high), low.max(high), run.len() - 1];
-            picks.sort_unstable();
+            let picks = [low.min(high), low.max(high)];
             let mut last_pick = usize::MAX;
             for k in picks {
                 if k != last_pick
@@ -163,6 +162,46 @@ impl Ground {
     /// A walker for elevations at increasing stations.
     pub fn walker(&self) -> GroundWalker<'_> {
         GroundWalker { ground: self, index: 0 }
+    }
+}
+
+/// Ground elevations at stations, remembered from one analysis to the
+/// next: a drag moves a few stations of the earthwork, and the ground under
+/// the others need not be read again (it is the same ground). Each value is
+/// [`Ground::elevation_at`] of its station, so the results are the same as
+/// without it.
+#[derive(Clone, Debug, Default)]
+pub struct GroundSamples {
+    ground: Ground,
+    old: std::collections::HashMap<u64, Option<f64>>,
+    new: std::collections::HashMap<u64, Option<f64>>,
+}
+
+impl GroundSamples {
+    /// Samples of `ground`, keeping what `previous` knew when it sampled
+    /// the very same ground.
+    pub fn new(ground: &Ground, previous: Option<Self>) -> Self {
+        let old = previous.filter(|p| p.ground.shares(ground)).map(|p| p.new).unwrap_or_default();
+        Self { ground: ground.clone(), new: std::collections::HashMap::with_capacity(old.len()), old }
+    }
+
+    /// The ground sampled.
+    pub fn ground(&self) -> &Ground {
+        &self.ground
+    }
+
+    /// The ground elevation at `station` (as [`Ground::elevation_at`]).
+    pub fn elevation_at(&mut self, station: f64) -> Option<f64> {
+        let key = station.to_bits();
+        if let Some(&v) = self.new.get(&key) {
+            return v;
+        }
+        let v = match self.old.remove(&key) {
+            Some(v) => v,
+            None => self.ground.elevation_at(station),
+        };
+        self.new.insert(key, v);
+        v
     }
 }
 
@@ -525,7 +564,7 @@ mod tests {
         }
         let g = ground(&points);
         let drawn = g.decimated((0.0, 10_000.0), 500);
-        assert!(drawn.len() <= 4 * 500 + 8, "{}", drawn.len());
+        assert!(drawn.len() <= 2 * 500 + 8, "{}", drawn.len());
         assert!(drawn.iter().any(|p| (p[1] - 80.0).abs() < 1e-12), "the spike is drawn");
         assert!(drawn.windows(2).all(|w| matches!(w, [a, b] if a[0] < b[0])), "in station order");
         assert_eq!(g.len(), 100_000, "the ground itself is untouched");
