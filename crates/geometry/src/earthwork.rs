@@ -226,7 +226,10 @@ pub fn earthwork_at(
     if !(interval.is_finite() && interval > 0.0) || (hi - lo) / interval > MAX_ROWS {
         return Err(EarthworkError::Interval(interval));
     }
-    let mut stations: Vec<(f64, RowKind)> = vec![(lo, RowKind::Interval), (hi, RowKind::Interval)];
+    // Three lists already in station order — the interval with both ends,
+    // the grade points, the PVCs, PVIs and PVTs — merged, interval first on
+    // a tie, then grade points.
+    let mut regular: Vec<f64> = vec![lo];
     let first = ((lo - start) / interval).ceil();
     let last = ((hi - start) / interval).floor();
     #[allow(clippy::cast_possible_truncation)]
@@ -234,19 +237,51 @@ pub fn earthwork_at(
         #[allow(clippy::cast_precision_loss)]
         let s = start + k as f64 * interval;
         if s > lo && s < hi {
-            stations.push((s, RowKind::Interval));
+            regular.push(s);
         }
     }
-    stations.extend(grade_points.iter().map(|&s| (s, RowKind::GradePoint)));
-    stations.extend(
-        alignment
-            .key_stations()
-            .into_iter()
-            .filter(|(s, _)| s.0 > lo && s.0 < hi)
-            .map(|(s, k)| (s.0, RowKind::Key(k))),
-    );
-    stations.sort_by(|a, b| a.0.total_cmp(&b.0));
-    stations.dedup_by(|b, a| b.0 - a.0 <= STATION_HAIR);
+    regular.push(hi);
+    let mut keys: Vec<(f64, KeyPoint)> = Vec::with_capacity(3 * alignment.pvis().len());
+    let mut curves = alignment.curves().iter().peekable();
+    for (i, p) in alignment.pvis().iter().enumerate() {
+        match curves.next_if(|c| c.index == i) {
+            Some(c) if c.length() > 0.0 => {
+                keys.extend([
+                    (c.pvc.0, KeyPoint::Pvc),
+                    (p.station.0, KeyPoint::Pvi),
+                    (c.pvt.0, KeyPoint::Pvt),
+                ]);
+            }
+            _ => keys.push((p.station.0, KeyPoint::Pvi)),
+        }
+    }
+    keys.retain(|(s, _)| *s > lo && *s < hi);
+    let mut stations: Vec<(f64, RowKind)> =
+        Vec::with_capacity(regular.len() + grade_points.len() + keys.len());
+    let (mut a, mut b, mut c) = (0, 0, 0);
+    loop {
+        let next = [
+            regular.get(a).map(|&s| (s, RowKind::Interval)),
+            grade_points.get(b).map(|&s| (s, RowKind::GradePoint)),
+            keys.get(c).map(|&(s, k)| (s, RowKind::Key(k))),
+        ];
+        let Some((pick, item)) = next
+            .iter()
+            .enumerate()
+            .filter_map(|(k, x)| x.map(|x| (k, x)))
+            .min_by(|x, y| x.1.0.total_cmp(&y.1.0).then(x.0.cmp(&y.0)))
+        else {
+            break;
+        };
+        match pick {
+            0 => a += 1,
+            1 => b += 1,
+            _ => c += 1,
+        }
+        if stations.last().is_none_or(|last| item.0 - last.0 > STATION_HAIR) {
+            stations.push(item);
+        }
+    }
 
     let shrink = 1.0 - section.shrinkage_percent / 100.0;
     let factor = volume_factor(alignment.units());
