@@ -63,6 +63,32 @@ pub struct Analysis {
     curve_notes: Arc<Vec<(CurveCheck, Vec<Finding>)>>,
 }
 
+impl Default for Analysis {
+    /// The analysis of nothing: no profile, no criteria, no site.
+    fn default() -> Self {
+        Self {
+            profile: Profile::default(),
+            ground: Ground::default(),
+            controls: Vec::new(),
+            control_status: Vec::new(),
+            cut_fill: CutFillSummary::default(),
+            earthwork: None,
+            problems: Vec::new(),
+            alignment: None,
+            curves: Vec::new(),
+            criteria: Err(CriteriaError::NoDesignSpeed),
+            report: CheckReport::default(),
+            sight: None,
+            source: None,
+            site: None,
+            ground_samples: None,
+            by_pvi: Vec::new(),
+            sight_notes: Arc::default(),
+            curve_notes: Arc::default(),
+        }
+    }
+}
+
 /// Whether a problem still lets every curve be computed (curves that
 /// overlap or do not fit are design failures, not unusable input).
 pub fn is_design_problem(problem: &ProfileProblem) -> bool {
@@ -152,27 +178,7 @@ impl Analysis {
     /// Replaces `self` by the analysis of `project` (the same project after
     /// an edit), reusing what the edit cannot have changed.
     pub fn refresh(&mut self, project: &Project) {
-        let empty = Self {
-            profile: Profile::default(),
-            ground: Ground::default(),
-            controls: Vec::new(),
-            control_status: Vec::new(),
-            cut_fill: CutFillSummary::default(),
-            earthwork: None,
-            site: None,
-            ground_samples: None,
-            by_pvi: Vec::new(),
-            sight_notes: Arc::default(),
-            curve_notes: Arc::default(),
-            problems: Vec::new(),
-            alignment: None,
-            curves: Vec::new(),
-            criteria: Err(CriteriaError::NoDesignSpeed),
-            report: CheckReport::default(),
-            sight: None,
-            source: None,
-        };
-        let previous = std::mem::replace(self, empty);
+        let previous = std::mem::take(self);
         *self = Self::after(project, Some(previous));
     }
 
@@ -233,20 +239,13 @@ impl Analysis {
             sight_notes,
             curve_notes,
             profile,
-            ground: Ground::default(),
-            controls: Vec::new(),
-            control_status: Vec::new(),
-            cut_fill: CutFillSummary::default(),
-            earthwork: None,
-            site: None,
-            ground_samples: None,
             problems,
             alignment,
             curves,
             criteria,
             report,
             sight,
-            source: None,
+            ..Self::default()
         }
     }
 

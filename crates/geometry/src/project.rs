@@ -298,31 +298,27 @@ pub fn pvi_positions(text: &str) -> Vec<(usize, usize)> {
         let after = text.get(at + "station".len()..).unwrap_or("");
         let before = text.get(..at).and_then(|b| b.chars().next_back());
         if after.trim_start().starts_with(':') && !before.is_some_and(|c| c.is_alphanumeric() || c == '_') {
-            let head = text.get(..at).unwrap_or("");
-            let line = head.matches('\n').count() + 1;
-            let column = head
-                .rfind('\n')
-                .map_or(head.chars().count(), |n| head.get(n + 1..).map_or(0, |h| h.chars().count()))
-                + 1;
-            positions.push((line, column));
+            positions.push(line_column(text, at));
         }
         rest = at + "station".len();
     }
     positions
 }
 
+/// The 1-based line and column of byte offset `at` in `text`.
+fn line_column(text: &str, at: usize) -> (usize, usize) {
+    let head = text.get(..at).unwrap_or("");
+    let line = head.matches('\n').count() + 1;
+    let column =
+        head.rfind('\n').map_or(head.chars().count(), |n| head.get(n + 1..).map_or(0, |h| h.chars().count()))
+            + 1;
+    (line, column)
+}
+
 /// The 1-based line and column of ground point `index` in project text
 /// (the start of the ground list when the point is not found).
 fn ground_position(text: &str, index: usize) -> (usize, usize) {
-    let position = |at: usize| {
-        let head = text.get(..at).unwrap_or("");
-        let line = head.matches('\n').count() + 1;
-        let column = head
-            .rfind('\n')
-            .map_or(head.chars().count(), |n| head.get(n + 1..).map_or(0, |h| h.chars().count()))
-            + 1;
-        (line, column)
-    };
+    let position = |at: usize| line_column(text, at);
     let Some(start) = text.find("ground:").or_else(|| text.find("ground")) else { return (1, 1) };
     let mut at = start;
     for _ in 0..=index {

@@ -218,38 +218,14 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
             }
             if c.kind == ControlKind::Fixed {
                 let id = CellId::Control(i, ControlColumn::Tolerance);
-                let parsed = |t: &str| {
-                    let v = if t.trim().is_empty() { Ok(0.0) } else { parse_number(t) }?;
-                    if v < 0.0 { Err(format!("tolerance {v} is negative")) } else { Ok(v) }
-                };
-                if let Some(text) = edit_cell(
-                    ui,
-                    &mut app.view,
-                    id,
-                    &format!("{:.3}", c.tolerance),
-                    44.0,
-                    &format!("Control {} tolerance", i + 1),
-                ) && let Some(v) = settle(&mut app.view, id, &text, parsed(&text))
-                {
+                if let Some(v) = length_cell(ui, &mut app.view, id, c.tolerance, &format!("Control {} tolerance", i + 1)) {
                     set(&mut |p| p.tolerance = v);
                 }
             } else if c.kind == ControlKind::Maximum {
                 // Under a structure: the clearance taken off the underside
                 // (0: no sight check under it).
                 let id = CellId::Control(i, ControlColumn::Clearance);
-                let parsed = |t: &str| {
-                    let v = if t.trim().is_empty() { Ok(0.0) } else { parse_number(t) }?;
-                    if v < 0.0 { Err(format!("clearance {v} is negative")) } else { Ok(v) }
-                };
-                if let Some(text) = edit_cell(
-                    ui,
-                    &mut app.view,
-                    id,
-                    &format!("{:.2}", c.clearance),
-                    44.0,
-                    &format!("Control {} clearance", i + 1),
-                ) && let Some(v) = settle(&mut app.view, id, &text, parsed(&text))
-                {
+                if let Some(v) = length_cell(ui, &mut app.view, id, c.clearance, &format!("Control {} clearance", i + 1)) {
                     set(&mut |p| p.clearance = v);
                 }
             } else {
@@ -289,6 +265,19 @@ pub fn controls_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     if let Some(next) = changed {
         app.push(Action::edit(Edit::SetControls(next)));
     }
+}
+
+/// A small cell for a length of 0 or more (empty is 0); the value when a
+/// valid one is committed.
+fn length_cell(
+    ui: &mut egui::Ui,
+    view: &mut super::view::ViewState,
+    id: CellId,
+    value: f64,
+    label: &str,
+) -> Option<f64> {
+    let text = edit_cell(ui, view, id, &format!("{value:.3}"), 44.0, label)?;
+    settle(view, id, &text, super::cell::parse_length(&text))
 }
 
 /// Adds a minimum control point at `station` (elevation: `elevation`, or
