@@ -167,14 +167,16 @@ impl Ground {
 
 /// Ground elevations at stations, remembered from one analysis to the
 /// next: a drag moves a few stations of the earthwork, and the ground under
-/// the others need not be read again (it is the same ground). Each value is
-/// [`Ground::elevation_at`] of its station, so the results are the same as
-/// without it.
+/// the others need not be read again (it is the same ground). Stations are
+/// asked for in increasing order, so the last run's list is walked alongside
+/// (no hashing). Each value is [`Ground::elevation_at`] of its station, so
+/// the results are the same as without it.
 #[derive(Clone, Debug, Default)]
 pub struct GroundSamples {
     ground: Ground,
-    old: std::collections::HashMap<u64, Option<f64>>,
-    new: std::collections::HashMap<u64, Option<f64>>,
+    old: Vec<(f64, Option<f64>)>,
+    at: usize,
+    new: Vec<(f64, Option<f64>)>,
 }
 
 impl GroundSamples {
@@ -182,7 +184,7 @@ impl GroundSamples {
     /// the very same ground.
     pub fn new(ground: &Ground, previous: Option<Self>) -> Self {
         let old = previous.filter(|p| p.ground.shares(ground)).map(|p| p.new).unwrap_or_default();
-        Self { ground: ground.clone(), new: std::collections::HashMap::with_capacity(old.len()), old }
+        Self { ground: ground.clone(), new: Vec::with_capacity(old.len()), old, at: 0 }
     }
 
     /// The ground sampled.
@@ -192,15 +194,18 @@ impl GroundSamples {
 
     /// The ground elevation at `station` (as [`Ground::elevation_at`]).
     pub fn elevation_at(&mut self, station: f64) -> Option<f64> {
-        let key = station.to_bits();
-        if let Some(&v) = self.new.get(&key) {
-            return v;
+        if self.new.last().is_some_and(|&(s, _)| s > station) {
+            // Out of order: nothing to walk alongside.
+            return self.ground.elevation_at(station);
         }
-        let v = match self.old.remove(&key) {
-            Some(v) => v,
-            None => self.ground.elevation_at(station),
+        while self.old.get(self.at).is_some_and(|&(s, _)| s < station) {
+            self.at += 1;
+        }
+        let v = match self.old.get(self.at) {
+            Some(&(s, v)) if s.to_bits() == station.to_bits() => v,
+            _ => self.ground.elevation_at(station),
         };
-        self.new.insert(key, v);
+        self.new.push((station, v));
         v
     }
 }
