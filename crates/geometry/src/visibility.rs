@@ -443,6 +443,10 @@ pub struct Shortfall {
     pub required: f64,
 }
 
+/// Stations of an update from which the two directions are computed on two
+/// threads (below it a thread costs more than it saves).
+const PARALLEL_STATIONS: usize = 1_500;
+
 impl SightProfile {
     /// After the road changed only between stations `lo` and `hi`: an eye
     /// travelling forward sees that stretch only from [lo − cap, hi], one
@@ -471,19 +475,52 @@ impl SightProfile {
         };
         let from = self.samples.partition_point(|s| s.station < lo - reach);
         let to = self.samples.partition_point(|s| s.station <= hi + reach);
-        for sample in self.samples.get_mut(from..to).unwrap_or(&mut []) {
-            let s = sample.station;
-            if s <= hi {
-                if s >= lo - setup.cap {
-                    sample.forward = roads[0].governing(s, setup);
+        let Some(window) = self.samples.get_mut(from..to) else { return };
+        let [ahead, behind] = &roads;
+        // The backward values of each station, computed from the stations
+        // alone (so they can be computed beside the forward ones).
+        let backward = |stations: &[f64]| -> Vec<(Option<f64>, Option<f64>)> {
+            stations
+                .iter()
+                .map(|&s| {
+                    if s < lo {
+                        return (None, None);
+                    }
+                    let seen = (s <= hi + setup.cap).then(|| behind.governing(-s, setup));
+                    (seen, Some(requirement.on_road(behind, -s)))
+                })
+                .collect()
+        };
+        let stations: Vec<f64> = window.iter().map(|s| s.station).collect();
+        let forward = |window: &mut [SightSample]| {
+            for sample in window.iter_mut() {
+                let s = sample.station;
+                if s <= hi {
+                    if s >= lo - setup.cap {
+                        sample.forward = ahead.governing(s, setup);
+                    }
+                    sample.required_forward = requirement.on_road(ahead, s);
                 }
-                sample.required_forward = requirement.on_road(&roads[0], s);
             }
-            if s >= lo {
-                if s <= hi + setup.cap {
-                    sample.backward = roads[1].governing(-s, setup);
-                }
-                sample.required_backward = requirement.on_road(&roads[1], -s);
+        };
+        // Both cores when there is enough to share: the two directions are
+        // independent and each is computed exactly as on one core.
+        let behind_values = if stations.len() >= PARALLEL_STATIONS {
+            std::thread::scope(|scope| {
+                let job = scope.spawn(|| backward(&stations));
+                forward(window);
+                job.join().unwrap_or_else(|_| backward(&stations))
+            })
+        } else {
+            forward(window);
+            backward(&stations)
+        };
+        for (sample, (seen, required)) in window.iter_mut().zip(behind_values) {
+            if let Some(d) = seen {
+                sample.backward = d;
+            }
+            if let Some(r) = required {
+                sample.required_backward = r;
             }
         }
     }
