@@ -12,12 +12,15 @@ use super::command::{Action, Edit};
 /// What a dropped CSV file holds, by its first line: control points when
 /// the header names a `kind` column, otherwise ground.
 fn is_controls_file(path: &Path) -> bool {
-    std::fs::read(path).ok().is_some_and(|bytes| {
-        let head =
-            String::from_utf8_lossy(bytes.get(..bytes.len().min(4096)).unwrap_or(&[])).to_ascii_lowercase();
-        head.lines().find(|l| !l.trim().is_empty() && !l.starts_with('#')).is_some_and(|l| {
-            l.split([',', ';', '\t']).any(|cell| cell.trim().trim_start_matches('\u{feff}') == "kind")
-        })
+    use std::io::Read as _;
+    // The first line is enough: read no more than the start of the file.
+    let mut bytes = Vec::new();
+    if std::fs::File::open(path).and_then(|f| f.take(4096).read_to_end(&mut bytes)).is_err() {
+        return false;
+    }
+    let head = String::from_utf8_lossy(&bytes).to_ascii_lowercase();
+    head.lines().find(|l| !l.trim().is_empty() && !l.starts_with('#')).is_some_and(|l| {
+        l.split([',', ';', '\t']).any(|cell| cell.trim().trim_start_matches('\u{feff}') == "kind")
     })
 }
 
