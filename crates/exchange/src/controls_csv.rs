@@ -9,7 +9,7 @@ use std::path::Path;
 use gradewright_geometry::{ControlKind, ControlPoint, Units, excerpt, parse_station};
 
 use crate::CsvError;
-use crate::ground_csv::{decode, delimiter};
+use crate::ground_csv::{read_text, records};
 
 /// The header a controls file is written with.
 pub const CONTROLS_HEADER: &str = "station,kind,elevation,tolerance,name";
@@ -22,7 +22,7 @@ pub const CONTROLS_HEADER: &str = "station,kind,elevation,tolerance,name";
 /// finite, an unknown kind, a negative tolerance or one on a minimum or
 /// maximum point, no rows.
 pub fn read_controls_csv(
-    mut reader: impl Read,
+    reader: impl Read,
     origin: &Path,
     units: Units,
 ) -> Result<Vec<ControlPoint>, CsvError> {
@@ -32,16 +32,8 @@ pub fn read_controls_csv(
         field: field.to_owned(),
         message,
     };
-    let mut bytes = Vec::new();
-    reader.read_to_end(&mut bytes).map_err(|e| err(0, "file", e.to_string()))?;
-    let text = decode(&bytes).map_err(|line| err(line, "record", "the file is not UTF-8 text".to_owned()))?;
-    let mut csv = csv::ReaderBuilder::new()
-        .has_headers(false)
-        .flexible(true)
-        .trim(csv::Trim::All)
-        .comment(Some(b'#'))
-        .delimiter(delimiter(text))
-        .from_reader(text.as_bytes());
+    let text = read_text(reader, origin)?;
+    let mut csv = records(&text);
     let mut columns: Option<[Option<usize>; 6]> = None;
     let mut controls = Vec::new();
     let mut last_line = 1;

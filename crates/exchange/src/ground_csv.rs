@@ -19,27 +19,47 @@ pub struct GroundTable {
     pub warnings: Vec<String>,
 }
 
-/// The text of a table file: its bytes less a UTF-8 byte-order mark, or
-/// the line where it stops being UTF-8.
-pub(crate) fn decode(bytes: &[u8]) -> Result<&str, u64> {
-    let body = bytes.strip_prefix(b"\xEF\xBB\xBF".as_slice()).unwrap_or(bytes);
-    std::str::from_utf8(body).map_err(|e| {
-        let line = body.get(..e.valid_up_to()).map_or(0, |b| b.iter().filter(|&&c| c == b'\n').count()) + 1;
-        line as u64
-    })
+/// The text of a table file (a UTF-8 byte-order mark left out), or the
+/// located error of a file that cannot be read or is not UTF-8.
+pub(crate) fn read_text(mut reader: impl Read, origin: &Path) -> Result<String, CsvError> {
+    let err = |line: u64, message: String| CsvError {
+        path: origin.to_owned(),
+        line,
+        field: if line == 0 { "file" } else { "record" }.to_owned(),
+        message,
+    };
+    let mut bytes = Vec::new();
+    reader.read_to_end(&mut bytes).map_err(|e| err(0, e.to_string()))?;
+    let body = bytes.strip_prefix(b"\xEF\xBB\xBF".as_slice()).unwrap_or(&bytes);
+    match std::str::from_utf8(body) {
+        Ok(text) => Ok(text.to_owned()),
+        Err(e) => {
+            let line =
+                body.get(..e.valid_up_to()).map_or(0, |b| b.iter().filter(|&&c| c == b'\n').count()) + 1;
+            Err(err(line as u64, "the file is not UTF-8 text".to_owned()))
+        }
+    }
 }
 
-/// The delimiter of a table: a tab or a semicolon if the first data line
-/// has one, else a comma.
-pub(crate) fn delimiter(text: &str) -> u8 {
+/// The records of table `text`: no header assumed, rows of any length,
+/// fields trimmed, `#` comments, the delimiter detected (a tab or a
+/// semicolon if the first data line has one, else a comma).
+pub(crate) fn records(text: &str) -> csv::Reader<&[u8]> {
     let first = text.lines().map(str::trim).find(|l| !l.is_empty() && !l.starts_with('#')).unwrap_or("");
-    if first.contains('\t') {
+    let delimiter = if first.contains('\t') {
         b'\t'
     } else if first.contains(';') {
         b';'
     } else {
         b','
-    }
+    };
+    csv::ReaderBuilder::new()
+        .has_headers(false)
+        .flexible(true)
+        .trim(csv::Trim::All)
+        .comment(Some(b'#'))
+        .delimiter(delimiter)
+        .from_reader(text.as_bytes())
 }
 
 /// Reads a ground profile. A first row whose station does not read as a
@@ -50,23 +70,15 @@ pub(crate) fn delimiter(text: &str) -> u8 {
 /// The first [`CsvError`] met, naming file, line and field: a value that is
 /// not a finite number, a station given twice with different elevations
 /// (both lines named), fewer than two points.
-pub fn read_ground_csv(mut reader: impl Read, origin: &Path, units: Units) -> Result<GroundTable, CsvError> {
+pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result<GroundTable, CsvError> {
     let err = |line: u64, field: &str, message: String| CsvError {
         path: origin.to_owned(),
         line,
         field: field.to_owned(),
         message,
     };
-    let mut bytes = Vec::new();
-    reader.read_to_end(&mut bytes).map_err(|e| err(0, "file", e.to_string()))?;
-    let text = decode(&bytes).map_err(|line| err(line, "record", "the file is not UTF-8 text".to_owned()))?;
-    let mut csv = csv::ReaderBuilder::new()
-        .has_headers(false)
-        .flexible(true)
-        .trim(csv::Trim::All)
-        .comment(Some(b'#'))
-        .delimiter(delimiter(text))
-        .from_reader(text.as_bytes());
+    let text = read_text(reader, origin)?;
+    let mut csv = records(&text);
     let mut columns: Option<(usize, usize)> = None;
     let mut names = ("station".to_owned(), "elevation".to_owned());
     let mut rows: Vec<(GroundPoint, u64)> = Vec::new();
