@@ -211,10 +211,11 @@ impl Analysis {
         let problems = profile.problems();
         let usable = problems.iter().all(is_design_problem);
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
-        let (mut report, spans) = match &criteria {
+        let (mut report, made) = match &criteria {
             Ok(c) => crate::checks::check_profile_reusing(&profile, c, sight, reuse),
-            Err(e) => (unchecked_report(&profile, e), Vec::new()),
+            Err(e) => (unchecked_report(&profile, e), crate::checks::Made::default()),
         };
+        let spans = made.curves;
         // The checks' curves are one per interior PVI, in order (index k + 1).
         let curve_notes = Arc::new(if spans.len() == report.curves.len() {
             report
@@ -227,7 +228,7 @@ impl Analysis {
             Vec::new()
         });
         let sight = report.sight.take().map(Arc::new);
-        let sight_notes = Arc::new(pair_shortfalls(sight.as_deref(), &report.findings));
+        let sight_notes = Arc::new(made.shortfalls);
         let mut by_pvi = vec![Vec::new(); profile.pvis.len()];
         for (k, f) in report.findings.iter().enumerate() {
             if let Some(list) = f.pvi.and_then(|i| by_pvi.get_mut(i)) {
@@ -387,19 +388,6 @@ fn shortfall_key(s: &Shortfall) -> [u64; 6] {
         s.available.to_bits(),
         s.required.to_bits(),
     ]
-}
-
-/// The sight shortfalls of `sight` paired with the findings the check made
-/// of them (one each, in order); empty when they do not pair up.
-fn pair_shortfalls(sight: Option<&SightProfile>, findings: &[Finding]) -> Vec<(Shortfall, Finding)> {
-    let Some(sight) = sight else { return Vec::new() };
-    let shorts = sight.shortfalls(crate::tolerance::PASS_RELATIVE);
-    let made: Vec<&Finding> =
-        findings.iter().filter(|f| matches!(f.code, "sight.forward" | "sight.backward")).collect();
-    if shorts.len() != made.len() {
-        return Vec::new();
-    }
-    shorts.into_iter().zip(made).map(|(s, f)| (s, f.clone())).collect()
 }
 
 #[cfg(test)]

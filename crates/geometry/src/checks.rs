@@ -193,6 +193,17 @@ pub fn check_profile_with_sight(
     check_profile_reusing(profile, criteria, sight, Reuse::default()).0
 }
 
+/// What a check made of each part, for the next check to reuse: the range
+/// of findings each curve's own check made (in the order of the report's
+/// curves), and each sight shortfall with its finding.
+#[derive(Clone, Debug, Default)]
+pub(crate) struct Made {
+    /// Findings of each curve.
+    pub curves: Vec<std::ops::Range<usize>>,
+    /// Each shortfall and the finding made of it.
+    pub shortfalls: Vec<(crate::visibility::Shortfall, Finding)>,
+}
+
 /// What an earlier check of the same criteria can vouch for: a curve's
 /// check and findings (when its geometry is unchanged), a shortfall's finding.
 #[derive(Clone, Copy, Default)]
@@ -212,16 +223,15 @@ pub(crate) type CurveReuse<'a> = &'a dyn Fn(&CurveGeometry) -> Option<(CurveChec
 pub(crate) type SightReuse<'a> = &'a dyn Fn(&crate::visibility::Shortfall) -> Option<Finding>;
 
 /// As [`check_profile_with_sight`], taking what `reuse` vouches for (the
-/// same a fresh check would make). Also gives the range of findings each
-/// curve's own check made, in the order of the report's curves.
+/// same a fresh check would make). Also says what it made of each part.
 pub(crate) fn check_profile_reusing(
     profile: &Profile,
     criteria: &ResolvedCriteria,
     sight: Option<SightProfile>,
     reuse: Reuse<'_>,
-) -> (CheckReport, Vec<std::ops::Range<usize>>) {
+) -> (CheckReport, Made) {
     let mut report = CheckReport::default();
-    let mut spans = Vec::new();
+    let mut made = Made::default();
     let problems = profile.problems();
     let usable = problems.iter().all(|problem| {
         matches!(
@@ -233,7 +243,7 @@ pub(crate) fn check_profile_reusing(
     });
     report.findings = group_repeats(problems.iter().map(|p| problem_finding(profile, p)).collect());
     if !usable {
-        return (report, spans);
+        return (report, made);
     }
     for curve in interior_curves(&profile.pvis) {
         let start = report.findings.len();
@@ -244,7 +254,7 @@ pub(crate) fn check_profile_reusing(
             }
             None => check_curve(&curve, criteria, &mut report.findings),
         };
-        spans.push(start..report.findings.len());
+        made.curves.push(start..report.findings.len());
         report.curves.push(check);
     }
     check_grades(profile, criteria, &mut report.findings);
@@ -252,7 +262,9 @@ pub(crate) fn check_profile_reusing(
         && let Ok(alignment) = Alignment::new(profile)
     {
         match &sight {
-            Some(sight) => check_sight(&alignment, criteria, sight, reuse.sight, &mut report.findings),
+            Some(sight) => {
+                made.shortfalls = check_sight(&alignment, criteria, sight, reuse.sight, &mut report.findings);
+            }
             // A check that did not run must not pass.
             None => report.findings.push(Finding {
                 severity: Severity::Fail,
@@ -290,7 +302,7 @@ pub(crate) fn check_profile_reusing(
     for check in &mut report.curves {
         check.ok = !failing.get(check.curve.index).copied().unwrap_or(false);
     }
-    (report, spans)
+    (report, made)
 }
 
 fn label(units: Units, station: Station) -> String {
@@ -615,13 +627,15 @@ fn check_sight(
     sight: &SightProfile,
     reuse: Option<SightReuse<'_>>,
     findings: &mut Vec<Finding>,
-) {
+) -> Vec<(crate::visibility::Shortfall, Finding)> {
+    let mut made = Vec::new();
     let units = criteria.units;
     let len = units.length_symbol();
     let setup = criteria.sight_setup();
     let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
     for short in sight.shortfalls(PASS_RELATIVE) {
         if let Some(finding) = reuse.and_then(|r| r(&short)) {
+            made.push((short, finding.clone()));
             findings.push(finding);
             continue;
         }
@@ -651,7 +665,7 @@ fn check_sight(
                 format!("; limited by {what} at PVI {} ({})", i + 1, label(units, p.station))
             })
             .unwrap_or_default();
-        findings.push(Finding {
+        let finding = Finding {
             severity: Severity::Fail,
             code: match short.direction {
                 Direction::Forward => "sight.forward",
@@ -669,8 +683,11 @@ fn check_sight(
                 label(units, Station(short.worst)),
                 short.available
             ),
-        });
+        };
+        made.push((short, finding.clone()));
+        findings.push(finding);
     }
+    made
 }
 
 fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut Vec<Finding>) {
