@@ -24,6 +24,15 @@ fn is_controls_file(path: &Path) -> bool {
     })
 }
 
+/// Opens `path` and reads it with `read`; either error as one line.
+fn read_table<T>(
+    path: &Path,
+    read: impl FnOnce(std::io::BufReader<std::fs::File>) -> Result<T, gradewright_exchange::CsvError>,
+) -> Result<T, String> {
+    let file = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display()))?;
+    read(std::io::BufReader::new(file)).map_err(|e| e.to_string())
+}
+
 impl GradewrightApp {
     fn say(&mut self, error: bool, text: String) {
         self.notice = Some(Notice { error, text });
@@ -34,10 +43,7 @@ impl GradewrightApp {
     /// field.
     pub fn import_ground(&mut self, path: &Path) -> bool {
         let units = self.project().units;
-        let read = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display())).and_then(|f| {
-            gradewright_exchange::read_ground_csv(std::io::BufReader::new(f), path, units)
-                .map_err(|e| e.to_string())
-        });
+        let read = read_table(path, |f| gradewright_exchange::read_ground_csv(f, path, units));
         match read {
             Ok(table) => {
                 let count = table.points.len();
@@ -63,10 +69,7 @@ impl GradewrightApp {
     /// Replaces the control points by the CSV file at `path` (one undo step).
     pub fn import_controls(&mut self, path: &Path) -> bool {
         let units = self.project().units;
-        let read = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display())).and_then(|f| {
-            gradewright_exchange::read_controls_csv(std::io::BufReader::new(f), path, units)
-                .map_err(|e| e.to_string())
-        });
+        let read = read_table(path, |f| gradewright_exchange::read_controls_csv(f, path, units));
         match read {
             Ok(points) => {
                 let count = points.len();
