@@ -8,7 +8,7 @@ use std::path::Path;
 
 use gradewright_geometry::{ControlKind, ControlPoint, Units, excerpt, parse_station};
 
-use crate::CsvError;
+use crate::ReadError;
 use crate::ground_csv::{read_text, records};
 
 /// The header a controls file is written with.
@@ -17,7 +17,7 @@ pub const CONTROLS_HEADER: &str = "station,kind,elevation,tolerance,name";
 /// Reads control points, in file order.
 ///
 /// # Errors
-/// The first [`CsvError`] met, naming file, line and field: a missing or
+/// The first [`ReadError`] met, naming file, line and field: a missing or
 /// repeated column, a station or number that does not read or is not
 /// finite, an unknown kind, a negative tolerance or one on a minimum or
 /// maximum point, no rows.
@@ -25,13 +25,8 @@ pub fn read_controls_csv(
     reader: impl Read,
     origin: &Path,
     units: Units,
-) -> Result<Vec<ControlPoint>, CsvError> {
-    let err = |line: u64, field: &str, message: String| CsvError {
-        path: origin.to_owned(),
-        line,
-        field: field.to_owned(),
-        message,
-    };
+) -> Result<Vec<ControlPoint>, ReadError> {
+    let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
     let text = read_text(reader, origin)?;
     let mut csv = records(&text);
     let mut columns: Option<[Option<usize>; 6]> = None;
@@ -89,7 +84,7 @@ pub fn read_controls_csv(
         let kind_text = cell(Some(k));
         let kind = ControlKind::from_key(kind_text)
             .ok_or_else(|| err(line, "kind", format!("'{}' is not fixed, min or max", excerpt(kind_text))))?;
-        let number = |field: &str, text: &str| -> Result<f64, CsvError> {
+        let number = |field: &str, text: &str| -> Result<f64, ReadError> {
             let v: f64 =
                 text.parse().map_err(|_| err(line, field, format!("'{}' is not a number", excerpt(text))))?;
             if v.is_finite() {
@@ -150,7 +145,7 @@ pub fn read_controls_csv(
 mod tests {
     use super::*;
 
-    fn read(text: &[u8]) -> Result<Vec<ControlPoint>, CsvError> {
+    fn read(text: &[u8]) -> Result<Vec<ControlPoint>, ReadError> {
         read_controls_csv(text, Path::new("controls.csv"), Units::Metric)
     }
 

@@ -7,7 +7,7 @@ use std::path::Path;
 
 use gradewright_geometry::{GroundPoint, Units, excerpt, parse_station};
 
-use crate::CsvError;
+use crate::ReadError;
 
 /// A ground profile as read: its points in station order, and what was
 /// put right on the way (rows sorted, exact repeats dropped).
@@ -21,22 +21,16 @@ pub struct GroundTable {
 
 /// The text of a table file (a UTF-8 byte-order mark left out), or the
 /// located error of a file that cannot be read or is not UTF-8.
-pub(crate) fn read_text(mut reader: impl Read, origin: &Path) -> Result<String, CsvError> {
-    let err = |line: u64, message: String| CsvError {
-        path: origin.to_owned(),
-        line,
-        field: if line == 0 { "file" } else { "record" }.to_owned(),
-        message,
-    };
+pub(crate) fn read_text(mut reader: impl Read, origin: &Path) -> Result<String, ReadError> {
     let mut bytes = Vec::new();
-    reader.read_to_end(&mut bytes).map_err(|e| err(0, e.to_string()))?;
+    reader.read_to_end(&mut bytes).map_err(|e| ReadError::io(origin, e))?;
     let body = bytes.strip_prefix(b"\xEF\xBB\xBF".as_slice()).unwrap_or(&bytes);
     match std::str::from_utf8(body) {
         Ok(text) => Ok(text.to_owned()),
         Err(e) => {
             let line =
                 body.get(..e.valid_up_to()).map_or(0, |b| b.iter().filter(|&&c| c == b'\n').count()) + 1;
-            Err(err(line as u64, "the file is not UTF-8 text".to_owned()))
+            Err(ReadError::new(origin, line as u64, "record", "the file is not UTF-8 text"))
         }
     }
 }
@@ -67,16 +61,11 @@ pub(crate) fn records(text: &str) -> csv::Reader<&[u8]> {
 /// columns are ignored); without a header the first two columns are taken.
 ///
 /// # Errors
-/// The first [`CsvError`] met, naming file, line and field: a value that is
+/// The first [`ReadError`] met, naming file, line and field: a value that is
 /// not a finite number, a station given twice with different elevations
 /// (both lines named), fewer than two points.
-pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result<GroundTable, CsvError> {
-    let err = |line: u64, field: &str, message: String| CsvError {
-        path: origin.to_owned(),
-        line,
-        field: field.to_owned(),
-        message,
-    };
+pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result<GroundTable, ReadError> {
+    let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
     let text = read_text(reader, origin)?;
     let mut csv = records(&text);
     let mut columns: Option<(usize, usize)> = None;
@@ -124,6 +113,20 @@ pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result
         }
         rows.push((GroundPoint { station, elevation }, line));
     }
+    order_ground(rows, origin, &names.0)
+}
+
+/// Puts ground points read from `origin` (each with its file line) in
+/// station order: unsorted points are sorted with a warning, a repeated
+/// point is dropped with a warning, and one station with two elevations is
+/// an error naming both lines (`field` names the station field). Fewer than
+/// two points is an error.
+pub(crate) fn order_ground(
+    mut rows: Vec<(GroundPoint, u64)>,
+    origin: &Path,
+    field: &str,
+) -> Result<GroundTable, ReadError> {
+    let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
     let mut table = GroundTable::default();
     if rows.windows(2).any(|w| w[1].0.station < w[0].0.station) {
         rows.sort_by(|a, b| a.0.station.total_cmp(&b.0.station));
@@ -137,7 +140,7 @@ pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result
             if prev.elevation.to_bits() != point.elevation.to_bits() {
                 return Err(err(
                     *line,
-                    &names.0,
+                    field,
                     format!(
                         "station {} is also on line {prev_line} with elevation {} (here {})",
                         point.station, prev.elevation, point.elevation
@@ -167,7 +170,7 @@ pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result
 mod tests {
     use super::*;
 
-    fn read(text: &[u8]) -> Result<GroundTable, CsvError> {
+    fn read(text: &[u8]) -> Result<GroundTable, ReadError> {
         read_ground_csv(text, Path::new("ground.csv"), Units::Metric)
     }
 

@@ -2,23 +2,11 @@
 //! (symmetric; 0 or empty = no curve) or `length_in,length_out`.
 
 use std::io::{Read, Write};
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use gradewright_geometry::{Pvi, Station, Units, VerticalCurve, excerpt, format_station, parse_station};
 
-/// A problem in a PVI CSV file, naming file, line and field.
-#[derive(Clone, Debug, PartialEq, thiserror::Error)]
-#[error("{}:{line}: {field}: {message}", .path.display())]
-pub struct CsvError {
-    /// The file.
-    pub path: PathBuf,
-    /// 1-based line.
-    pub line: u64,
-    /// Column name (or `header`, `record`).
-    pub field: String,
-    /// What was wrong.
-    pub message: String,
-}
+use crate::ReadError;
 
 enum Layout {
     Symmetric { length: usize },
@@ -38,14 +26,9 @@ pub struct PviTable {
 /// `units`. Every row must have every column; unknown columns are an error.
 ///
 /// # Errors
-/// The first [`CsvError`] met, naming file, line and column.
-pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<PviTable, CsvError> {
-    let err = |line: u64, field: &str, message: String| CsvError {
-        path: origin.to_owned(),
-        line,
-        field: field.to_owned(),
-        message,
-    };
+/// The first [`ReadError`] met, naming file, line and column.
+pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<PviTable, ReadError> {
+    let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
     let mut csv = csv::ReaderBuilder::new().trim(csv::Trim::All).comment(Some(b'#')).from_reader(reader);
     let headers = csv
         .headers()
@@ -99,7 +82,7 @@ pub fn read_pvi_csv(reader: impl Read, origin: &Path, units: Units) -> Result<Pv
         let line = record.position().map_or(0, csv::Position::line);
         let cell = |i: usize| record.get(i).unwrap_or("");
         let name = |i: usize| headers.get(i).map_or("?", String::as_str).to_owned();
-        let number = |i: usize, empty_is_zero: bool| -> Result<f64, CsvError> {
+        let number = |i: usize, empty_is_zero: bool| -> Result<f64, ReadError> {
             let text = cell(i);
             if text.is_empty() && empty_is_zero {
                 return Ok(0.0);

@@ -27,10 +27,10 @@ fn is_controls_file(path: &Path) -> bool {
 /// Opens `path` and reads it with `read`; either error as one line.
 fn read_table<T>(
     path: &Path,
-    read: impl FnOnce(std::io::BufReader<std::fs::File>) -> Result<T, gradewright_exchange::CsvError>,
+    read: impl FnOnce(std::io::BufReader<std::fs::File>) -> Result<T, gradewright_exchange::ReadError>,
 ) -> Result<T, String> {
-    let file = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display()))?;
-    read(std::io::BufReader::new(file)).map_err(|e| e.to_string())
+    let file = gradewright_exchange::open_file(path).map_err(|e| e.to_string())?;
+    read(file).map_err(|e| e.to_string())
 }
 
 impl GradewrightApp {
