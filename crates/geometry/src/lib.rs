@@ -55,5 +55,5 @@ pub use ground::{CutFillSummary, Depth, Ground, cut_fill_summary, depth_at, grad
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use project::{ExportSettings, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};
-pub use units::Units;
+pub use units::{Foot, Units, length_factor};
 pub use write::write_atomic;

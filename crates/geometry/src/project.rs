@@ -8,7 +8,7 @@ use std::path::{Path, PathBuf};
 
 use serde::{Deserialize, Serialize};
 
-use crate::{ControlPoint, Criteria, Ground, Profile, Pvi, Section, Units};
+use crate::{ControlPoint, Criteria, Foot, Ground, Profile, Pvi, Section, Units};
 
 /// The newest file format this build reads and the one it writes.
 pub const FORMAT_VERSION: u32 = 1;
@@ -142,6 +142,10 @@ pub struct Project {
     pub name: String,
     /// Unit system of everything in the file.
     pub units: Units,
+    /// Which foot a US customary project is in (international unless a
+    /// file read in US survey feet said otherwise); unused in metric.
+    #[serde(default, skip_serializing_if = "Foot::is_default")]
+    pub foot: Foot,
     /// Design criteria.
     #[serde(default)]
     pub criteria: Criteria,
@@ -172,6 +176,7 @@ impl Project {
             format_version: FORMAT_VERSION,
             name: name.into(),
             units,
+            foot: Foot::default(),
             criteria: Criteria::default(),
             pvis: Vec::new(),
             ground: Ground::default(),

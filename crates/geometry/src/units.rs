@@ -9,9 +9,52 @@ pub enum Units {
     /// Metres, km/h, stations of 1000 m written `1+234.567`.
     #[default]
     Metric,
-    /// Feet, mph, stations of 100 ft written `12+34.56`. No survey-foot
-    /// conversion is made: the US survey foot was retired at the end of 2022.
+    /// Feet, mph, stations of 100 ft written `12+34.56`. Which foot (the
+    /// international foot or the US survey foot) is recorded apart, as a
+    /// [`Foot`]; values are never converted between the two feet.
     UsCustomary,
+}
+
+/// Which foot a US customary project's lengths are in. The two differ by
+/// 2 parts per million; a profile keeps the numbers its source gave and
+/// records the foot, so that a file exchanged with other tools says the
+/// same foot it was read in. Only conversions to metres use it.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize, Default)]
+pub enum Foot {
+    /// The international foot, exactly 0.3048 m (the only US foot since the
+    /// start of 2023: NIST and NOAA, "Deprecation of the United States (U.S.)
+    /// Survey Foot", Federal Register 85 FR 62698, 5 October 2020, from memory).
+    #[default]
+    International,
+    /// The US survey foot, exactly 1200/3937 m (retired at the end of 2022,
+    /// still met in older survey data).
+    UsSurvey,
+}
+
+impl Foot {
+    /// Metres in one foot of this kind (0.3048, or 1200/3937).
+    pub fn metres(self) -> f64 {
+        match self {
+            Self::International => 0.3048,
+            Self::UsSurvey => 1200.0 / 3937.0,
+        }
+    }
+
+    /// Whether this is the default (international) foot.
+    pub fn is_default(&self) -> bool {
+        *self == Self::default()
+    }
+}
+
+/// The factor that turns a length in `from` (with its foot) into a length in
+/// `to` (with its foot): 1 when the systems and feet agree.
+pub fn length_factor(from: Units, from_foot: Foot, to: Units, to_foot: Foot) -> f64 {
+    let metres = |units: Units, foot: Foot| match units {
+        Units::Metric => 1.0,
+        Units::UsCustomary => foot.metres(),
+    };
+    let (a, b) = (metres(from, from_foot), metres(to, to_foot));
+    if a.to_bits() == b.to_bits() { 1.0 } else { a / b }
 }
 
 impl Units {
