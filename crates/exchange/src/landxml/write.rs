@@ -1,0 +1,195 @@
+//! Writing a project's design profile and ground line as LandXML 1.2.
+
+use std::io::Write;
+
+use gradewright_geometry::{Foot, Project, Units, VerticalCurve};
+
+use super::NAMESPACE;
+
+/// The `date` and `time` the `LandXML` element must carry.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Stamp {
+    /// `YYYY-MM-DD` (xs:date).
+    pub date: String,
+    /// `hh:mm:ss` (xs:time).
+    pub time: String,
+}
+
+impl Stamp {
+    /// The current time in UTC (`Z` suffixed).
+    pub fn now() -> Self {
+        let seconds =
+            std::time::SystemTime::now().duration_since(std::time::UNIX_EPOCH).map_or(0, |d| d.as_secs());
+        let days = i64::try_from(seconds / 86_400).unwrap_or(0);
+        let rest = seconds % 86_400;
+        let (y, m, d) = civil_from_days(days);
+        Self {
+            date: format!("{y:04}-{m:02}-{d:02}"),
+            time: format!("{:02}:{:02}:{:02}Z", rest / 3600, rest % 3600 / 60, rest % 60),
+        }
+    }
+}
+
+/// The proleptic Gregorian date of `days` since 1970-01-01 (H. Hinnant's
+/// `civil_from_days` algorithm, "chrono-Compatible Low-Level Date
+/// Algorithms", from memory).
+fn civil_from_days(days: i64) -> (i64, i64, i64) {
+    let z = days + 719_468;
+    let era = z.div_euclid(146_097);
+    let doe = z.rem_euclid(146_097);
+    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
+    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+    let mp = (5 * doy + 2) / 153;
+    let d = doy - (153 * mp + 2) / 5 + 1;
+    let m = if mp < 10 { mp + 3 } else { mp - 9 };
+    let y = yoe + era * 400 + i64::from(m <= 2);
+    (y, m, d)
+}
+
+/// The name of the design profile a project is written as.
+pub const PROFILE_NAME: &str = "Proposed";
+/// The name of the ground line a project is written as.
+pub const GROUND_NAME: &str = "Existing ground";
+
+/// A number as LandXML text: at most six decimals (a micrometre or a
+/// millionth of a foot), no trailing zeros, never `-0`.
+fn number(value: f64) -> String {
+    let text = format!("{value:.6}");
+    let text = text.trim_end_matches('0').trim_end_matches('.');
+    if text == "-0" || text.is_empty() { "0".to_owned() } else { text.to_owned() }
+}
+
+/// `text` escaped for an attribute value.
+fn escape(text: &str) -> String {
+    let mut out = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&apos;"),
+            c if c.is_control() => out.push(' '),
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+/// Writes `project`'s design profile (and its ground line, if it has one)
+/// as a LandXML 1.2 file valid against the schema: one `Alignment` named
+/// after the project whose `staStart` and `length` span the PVIs, holding
+/// one `Profile` with the ground as `ProfSurf` and the design as
+/// `ProfAlign` (`PVI` where there is no curve, `ParaCurve` for a
+/// symmetric curve, `UnsymParaCurve` for unequal tangents). Metric projects
+/// are written in metres; US customary ones in the project's foot
+/// (`foot` or `USSurveyFoot`). Control points and criteria have no LandXML
+/// element and stay in the project file.
+///
+/// # Errors
+/// Any I/O error of `out`; `InvalidInput` for a project with no PVI.
+pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> std::io::Result<()> {
+    let (Some(first), Some(last)) = (project.pvis.first(), project.pvis.last()) else {
+        return Err(std::io::Error::new(std::io::ErrorKind::InvalidInput, "the profile has no PVI to write"));
+    };
+    let name = if project.name.trim().is_empty() { "Alignment" } else { project.name.as_str() };
+    let units = match (project.units, project.foot) {
+        (Units::Metric, _) => concat!(
+            r#"<Metric linearUnit="meter" elevationUnit="meter" areaUnit="squareMeter" volumeUnit="cubicMeter""#,
+            r#" temperatureUnit="celsius" pressureUnit="milliBars"/>"#
+        ),
+        (Units::UsCustomary, foot) => match foot {
+            Foot::International => concat!(
+                r#"<Imperial linearUnit="foot" elevationUnit="feet" areaUnit="squareFoot" volumeUnit="cubicYard""#,
+                r#" temperatureUnit="fahrenheit" pressureUnit="inHG"/>"#
+            ),
+            Foot::UsSurvey => concat!(
+                r#"<Imperial linearUnit="USSurveyFoot" elevationUnit="feet" areaUnit="squareFoot" volumeUnit="cubicYard""#,
+                r#" temperatureUnit="fahrenheit" pressureUnit="inHG"/>"#
+            ),
+        },
+    };
+    let mut w = std::io::BufWriter::new(&mut out);
+    writeln!(w, r#"<?xml version="1.0" encoding="UTF-8"?>"#)?;
+    writeln!(
+        w,
+        r#"<LandXML xmlns="{NAMESPACE}" version="1.2" date="{}" time="{}">"#,
+        escape(&stamp.date),
+        escape(&stamp.time)
+    )?;
+    writeln!(w, "  <Units>{units}</Units>")?;
+    writeln!(w, r#"  <Application name="Gradewright" version="{}"/>"#, env!("CARGO_PKG_VERSION"))?;
+    writeln!(w, "  <Alignments>")?;
+    writeln!(
+        w,
+        r#"    <Alignment name="{}" staStart="{}" length="{}">"#,
+        escape(name),
+        number(first.station.0),
+        number((last.station.0 - first.station.0).max(0.0))
+    )?;
+    writeln!(w, r#"      <Profile name="{}">"#, escape(name))?;
+    if !project.ground.is_empty() {
+        writeln!(w, r#"        <ProfSurf name="{GROUND_NAME}">"#)?;
+        write!(w, "          <PntList2D>")?;
+        for (k, p) in project.ground.iter().enumerate() {
+            if k > 0 {
+                if k % 4 == 0 {
+                    write!(w, "\n            ")?;
+                } else {
+                    write!(w, " ")?;
+                }
+            }
+            write!(w, "{} {}", number(p.station), number(p.elevation))?;
+        }
+        writeln!(w, "</PntList2D>")?;
+        writeln!(w, "        </ProfSurf>")?;
+    }
+    writeln!(w, r#"        <ProfAlign name="{PROFILE_NAME}">"#)?;
+    for pvi in &project.pvis {
+        let at = format!("{} {}", number(pvi.station.0), number(pvi.elevation));
+        match pvi.curve {
+            VerticalCurve::None => writeln!(w, "          <PVI>{at}</PVI>")?,
+            VerticalCurve::Symmetric { length } => {
+                writeln!(w, r#"          <ParaCurve length="{}">{at}</ParaCurve>"#, number(length))?;
+            }
+            VerticalCurve::Unequal { length_in, length_out } => writeln!(
+                w,
+                r#"          <UnsymParaCurve lengthIn="{}" lengthOut="{}">{at}</UnsymParaCurve>"#,
+                number(length_in),
+                number(length_out)
+            )?,
+        }
+    }
+    writeln!(w, "        </ProfAlign>")?;
+    writeln!(w, "      </Profile>")?;
+    writeln!(w, "    </Alignment>")?;
+    writeln!(w, "  </Alignments>")?;
+    writeln!(w, "</LandXML>")?;
+    w.flush()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn numbers_are_short_and_exact_to_six_decimals() {
+        assert_eq!(number(1200.0), "1200");
+        assert_eq!(number(0.1 + 0.2), "0.3");
+        assert_eq!(number(-0.0000001), "0");
+        assert_eq!(number(215.125), "215.125");
+        assert_eq!(number(-3.5), "-3.5");
+    }
+
+    #[test]
+    fn dates_follow_the_civil_calendar() {
+        assert_eq!(civil_from_days(0), (1970, 1, 1));
+        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
+        assert_eq!(civil_from_days(20_790), (2026, 12, 3));
+    }
+
+    #[test]
+    fn attributes_are_escaped() {
+        assert_eq!(escape(r#"Mill & "Brook" <east>"#), "Mill &amp; &quot;Brook&quot; &lt;east&gt;");
+    }
+}
