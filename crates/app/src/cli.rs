@@ -8,7 +8,7 @@ use anyhow::{Context as _, anyhow, bail};
 use clap::{Parser, Subcommand, ValueEnum};
 use gradewright_geometry::{Alignment, Analysis, Units, parse_station};
 
-use crate::input::{Input, load_input};
+use crate::input::{FileKind, Input, load_input};
 use crate::report;
 
 /// Gradewright: design the vertical profile of a road.
@@ -48,6 +48,32 @@ pub enum Format {
     Json,
 }
 
+/// Which alignment, design profile and ground line of a LandXML input to
+/// read when the file holds several.
+#[derive(Clone, Debug, Default, clap::Args)]
+pub struct PickArgs {
+    /// LandXML input: the Alignment to read (by name) when the file has several
+    #[arg(long, value_name = "NAME")]
+    pub alignment: Option<String>,
+    /// LandXML input: the design profile (ProfAlign name) when there are several
+    #[arg(long, value_name = "NAME")]
+    pub profile: Option<String>,
+    /// LandXML input: the ground line (ProfSurf name) when there are several
+    #[arg(long, value_name = "NAME")]
+    pub surface: Option<String>,
+}
+
+impl PickArgs {
+    /// As the LandXML reader's selection.
+    pub fn selection(&self) -> gradewright_exchange::Selection {
+        gradewright_exchange::Selection {
+            alignment: self.alignment.clone(),
+            profile: self.profile.clone(),
+            surface: self.surface.clone(),
+        }
+    }
+}
+
 /// The subcommands.
 #[derive(Debug, Subcommand)]
 #[allow(clippy::large_enum_variant)] // parsed once per run
@@ -59,9 +85,12 @@ pub enum Command {
     },
     /// Elevation and grade at stations, as CSV
     Table {
-        /// Project file (.ron) or PVI table (.csv)
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml)
         input: PathBuf,
-        /// Units of a CSV input
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
+        /// Units of a CSV input; a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Station interval (default 20 m or 50 ft); not with --at
@@ -76,9 +105,12 @@ pub enum Command {
     },
     /// Available and required sight distance along the profile, as CSV
     Sight {
-        /// Project file (.ron) or PVI table (.csv)
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml)
         input: PathBuf,
-        /// Units of a CSV input
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
+        /// Units of a CSV input; a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Design speed (km/h or mph); overrides the project's
@@ -90,12 +122,16 @@ pub enum Command {
     },
     /// Lengthen every failing curve to the shortest length that clears it
     Fit {
-        /// Project file (.ron) or PVI table (.csv)
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml)
         input: PathBuf,
-        /// Where to write the fitted profile (same format as INPUT)
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
+        /// Where to write the fitted profile: .ron project, .csv PVI table or .xml LandXML
+        /// (another extension: the format of INPUT)
         #[arg(short, long)]
         output: PathBuf,
-        /// Units of a CSV input
+        /// Units of a CSV input; a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Round lengths up to this increment (default 5 m or 10 ft)
@@ -105,14 +141,18 @@ pub enum Command {
         #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
     },
-    /// Merge existing ground and/or control points (CSV) into a project, replacing what it had
+    /// Merge existing ground (CSV or LandXML) and/or control points (CSV) into a project, replacing what it had
     Import {
-        /// Project file (.ron) or PVI table (.csv)
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml)
         input: PathBuf,
-        /// Units of a CSV input (and of the ground and controls files' stations)
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
+        /// Units of a CSV input (and of the ground and controls files' stations); a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
-        /// Existing ground: station,elevation per row (header optional; comma, semicolon or tab)
+        /// Existing ground: a CSV of station,elevation rows (header optional; comma, semicolon or
+        /// tab), or a LandXML file's ground line (ProfSurf)
         #[arg(long, value_name = "FILE")]
         ground: Option<PathBuf>,
         /// Control points: header station,kind,elevation,tolerance,name; kind fixed, min or max
@@ -124,9 +164,12 @@ pub enum Command {
     },
     /// Centreline earthwork for a level typical section, as CSV
     Earthwork {
-        /// Project file (.ron) or PVI table (.csv); it needs ground
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml); it needs ground
         input: PathBuf,
-        /// Units of a CSV input
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
+        /// Units of a CSV input; a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Roadway width W (m or ft)
@@ -147,8 +190,11 @@ pub enum Command {
     },
     /// Hand the design over: the profile sheet (SVG, PNG, PDF) and the tables (CSV)
     Export {
-        /// Project file (.ron) or PVI table (.csv)
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml)
         input: PathBuf,
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
         /// Write the sheet as PNG (numbered NAME-1.png, … when there are several sheets)
         #[arg(long, value_name = "FILE")]
         png: Option<PathBuf>,
@@ -161,6 +207,9 @@ pub enum Command {
         /// Write stations.csv, curves.csv and findings.csv into this folder
         #[arg(long, value_name = "DIR")]
         csv_dir: Option<PathBuf>,
+        /// Write the design profile and the ground as LandXML 1.2
+        #[arg(long, value_name = "FILE")]
+        landxml: Option<PathBuf>,
         /// Sheet size: ansi-b, ansi-d, a3, a1, or WxHmm / WxHin
         #[arg(long, default_value = "ansi-b")]
         sheet: String,
@@ -197,7 +246,7 @@ pub enum Command {
         /// Leave the sight-distance band off the sheet
         #[arg(long)]
         no_sight_band: bool,
-        /// Units of a CSV input
+        /// Units of a CSV input; a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Design speed (km/h or mph); overrides the project's
@@ -206,9 +255,12 @@ pub enum Command {
     },
     /// Check curves and grades against the design criteria
     Check {
-        /// Project file (.ron) or PVI table (.csv)
+        /// Project file (.ron), PVI table (.csv) or LandXML file (.xml)
         input: PathBuf,
-        /// Units of a CSV input
+        /// Which alignment, profile and ground line of a LandXML input
+        #[command(flatten)]
+        pick: PickArgs,
+        /// Units of a CSV input; a LandXML input is converted to them
         #[arg(long, value_enum)]
         units: Option<UnitsArg>,
         /// Design speed (km/h or mph); overrides the project's
@@ -231,7 +283,12 @@ pub fn main() -> ExitCode {
         }
     };
     match run(cli) {
-        Ok(code) => code,
+        Ok(code) => {
+            for note in take_notes() {
+                eprintln!("note: {note}");
+            }
+            code
+        }
         // A reader that went away (`| head`) is the end of the output, not an error.
         Err(e) if is_broken_pipe(&e) => ExitCode::SUCCESS,
         Err(e) => {
@@ -282,7 +339,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             crate::gui::run(input.as_deref())?;
             Ok(ExitCode::SUCCESS)
         }
-        Some(Command::Table { input, units, interval, at, decimals }) => {
+        Some(Command::Table { input, pick, units, interval, at, decimals }) => {
             let decimals = match decimals {
                 None => None,
                 Some(d) => match usize::try_from(d) {
@@ -293,7 +350,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             if let Some(v) = interval {
                 positive("--interval", "the station interval", v)?;
             }
-            let loaded = load_input(&input, units.map(Into::into))?;
+            let loaded = load(&input, units, &pick)?;
             let alignment = build(&loaded)?;
             let project = &loaded.project;
             let stations = if at.is_empty() {
@@ -335,11 +392,11 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(&buffer)?;
             Ok(ExitCode::SUCCESS)
         }
-        Some(Command::Sight { input, units, design_speed, step }) => {
+        Some(Command::Sight { input, pick, units, design_speed, step }) => {
             if let Some(v) = design_speed {
                 positive("--design-speed", "the design speed", v)?;
             }
-            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let mut loaded = load(&input, units, &pick)?;
             if let Some(step) = step {
                 positive("--step", "the station step", step)?;
                 loaded.project.criteria.sight_step = gradewright_geometry::Setting::Override(step);
@@ -360,7 +417,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(&buffer)?;
             Ok(ExitCode::SUCCESS)
         }
-        Some(Command::Fit { input, output, units, increment, design_speed }) => {
+        Some(Command::Fit { input, pick, output, units, increment, design_speed }) => {
             if let Some(v) = design_speed {
                 positive("--design-speed", "the design speed", v)?;
             }
@@ -368,7 +425,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 positive("--increment", "the length increment", v)?;
             }
             crate::export::check_file("-o", &output)?;
-            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let mut loaded = load(&input, units, &pick)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             let alignment = build(&loaded)?;
             refuse_unchecked_sight(&alignment, &criteria, &input)?;
@@ -404,7 +461,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(text.as_bytes())?;
             Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
-        Some(Command::Import { input, units, ground, controls, output }) => {
+        Some(Command::Import { input, pick, units, ground, controls, output }) => {
             crate::export::check_file("-o", &output)?;
             if !output.extension().is_some_and(|e| e.eq_ignore_ascii_case("ron")) {
                 bail!("{}: -o: the output is a project file; give it the extension .ron", output.display());
@@ -412,18 +469,36 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             if ground.is_none() && controls.is_none() {
                 bail!("nothing to import: give --ground FILE and/or --controls FILE");
             }
-            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let mut loaded = load(&input, units, &pick)?;
             let units = loaded.project.units;
             let open = |flag: &str, path: &std::path::Path| {
-                std::fs::File::open(path)
-                    .map(std::io::BufReader::new)
-                    .map_err(|e| anyhow!("{}: {flag}: {e}", path.display()))
+                gradewright_exchange::open_file(path)
+                    .map_err(|e| anyhow!("{}: {flag}: {}", path.display(), e.message))
             };
             let label = |s: f64| gradewright_geometry::format_station(s, units, units.station_decimals());
             let mut text = String::new();
             if let Some(ground) = ground {
-                let table =
-                    gradewright_exchange::read_ground_csv(open("--ground", &ground)?, &ground, units)?;
+                let table = if gradewright_exchange::is_landxml_path(&ground) {
+                    let read = gradewright_exchange::read_landxml_ground(
+                        open("--ground", &ground)?,
+                        &ground,
+                        &pick.selection(),
+                        units,
+                        loaded.project.foot,
+                    )?;
+                    text.push_str(&format!(
+                        "note: {}: ground line '{}' of alignment '{}'\n",
+                        ground.display(),
+                        read.surface,
+                        read.alignment
+                    ));
+                    for n in &read.notes {
+                        text.push_str(&format!("note: {n}\n"));
+                    }
+                    gradewright_exchange::GroundTable { points: read.points, warnings: Vec::new() }
+                } else {
+                    gradewright_exchange::read_ground_csv(open("--ground", &ground)?, &ground, units)?
+                };
                 for w in &table.warnings {
                     text.push_str(&format!("warning: {w}\n"));
                 }
@@ -452,7 +527,16 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(text.as_bytes())?;
             Ok(ExitCode::SUCCESS)
         }
-        Some(Command::Earthwork { input, units, width, cut_slope, fill_slope, shrinkage, interval }) => {
+        Some(Command::Earthwork {
+            input,
+            pick,
+            units,
+            width,
+            cut_slope,
+            fill_slope,
+            shrinkage,
+            interval,
+        }) => {
             let section = gradewright_geometry::Section {
                 width,
                 cut_slope,
@@ -474,7 +558,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             if let Some(v) = interval {
                 positive("--interval", "the station interval", v)?;
             }
-            let loaded = load_input(&input, units.map(Into::into))?;
+            let loaded = load(&input, units, &pick)?;
             let alignment = build(&loaded)?;
             let project = &loaded.project;
             if project.ground.range().is_none() {
@@ -508,6 +592,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             svg,
             pdf,
             csv_dir,
+            landxml,
             sheet,
             dpi,
             h_scale,
@@ -522,12 +607,14 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             no_sight_band,
             units,
             design_speed,
+            pick,
         }) => {
             let request = crate::export::Request {
                 png,
                 svg,
                 pdf,
                 csv_dir,
+                landxml,
                 sheet,
                 dpi,
                 h_scale,
@@ -548,7 +635,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 positive("--design-speed", "the design speed", v)?;
             }
             let plan = crate::export::plan(&request)?;
-            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let mut loaded = load(&input, units, &pick)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             if let Some(problem) = loaded.project.profile().problems().into_iter().next() {
                 bail!("{}: {problem}", loaded.locate(&problem));
@@ -577,11 +664,11 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(text.as_bytes())?;
             Ok(if analysis.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
-        Some(Command::Check { input, units, design_speed, format }) => {
+        Some(Command::Check { input, pick, units, design_speed, format }) => {
             if let Some(v) = design_speed {
                 positive("--design-speed", "the design speed", v)?;
             }
-            let mut loaded = load_input(&input, units.map(Into::into))?;
+            let mut loaded = load(&input, units, &pick)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             // Input that cannot be evaluated at all is bad input (exit 2), as
             // for every other command; curves that overlap or do not fit are
@@ -611,6 +698,24 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
     }
+}
+
+/// What the readers noted during a run, told on standard error once the run
+/// succeeded (a failed run says only its one-line error).
+static NOTES: std::sync::Mutex<Vec<String>> = std::sync::Mutex::new(Vec::new());
+
+fn take_notes() -> Vec<String> {
+    NOTES.lock().map(|mut n| std::mem::take(&mut *n)).unwrap_or_default()
+}
+
+/// Loads INPUT and keeps what the reader noted (for LandXML: the alignment
+/// and profile taken, the units, anything skipped) to tell the user.
+fn load(input: &std::path::Path, units: Option<UnitsArg>, pick: &PickArgs) -> anyhow::Result<Input> {
+    let loaded = load_input(input, units.map(Into::into), &pick.selection())?;
+    if let Ok(mut notes) = NOTES.lock() {
+        notes.extend(loaded.notes.iter().cloned());
+    }
+    Ok(loaded)
 }
 
 /// A check that could not run must not pass: the sight distance at the step
@@ -655,19 +760,30 @@ fn resolve(
     })
 }
 
-/// Writes `project` in the format of `input`: a project file, or a PVI table.
+/// Writes `project` in the format `output`'s extension names (`.ron`
+/// project, `.csv` PVI table, `.xml` LandXML), or in the format of `input`
+/// when the extension names none.
 fn write_like_input(
     project: &gradewright_geometry::Project,
     input: &std::path::Path,
     output: &std::path::Path,
 ) -> anyhow::Result<()> {
-    let is_csv = input.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv"));
-    if is_csv {
-        let mut buffer = Vec::new();
-        gradewright_exchange::write_pvi_csv(&mut buffer, &project.pvis, project.units)?;
-        gradewright_geometry::write_atomic(output, &buffer, true)?;
-    } else {
-        project.save(output)?;
+    let named = output
+        .extension()
+        .is_some_and(|e| ["ron", "csv", "xml", "landxml"].iter().any(|known| e.eq_ignore_ascii_case(known)));
+    let kind = if named { FileKind::of(output) } else { FileKind::of(input) };
+    match kind {
+        FileKind::PviTable => {
+            let mut buffer = Vec::new();
+            gradewright_exchange::write_pvi_csv(&mut buffer, &project.pvis, project.units)?;
+            gradewright_geometry::write_atomic(output, &buffer, true)?;
+        }
+        FileKind::LandXml => {
+            let mut buffer = Vec::new();
+            gradewright_exchange::write_landxml(&mut buffer, project, &gradewright_exchange::Stamp::now())?;
+            gradewright_geometry::write_atomic(output, &buffer, true)?;
+        }
+        FileKind::Project => project.save(output)?,
     }
     Ok(())
 }

@@ -19,6 +19,8 @@ pub struct Request {
     pub pdf: Option<PathBuf>,
     /// Folder for stations.csv, curves.csv and findings.csv.
     pub csv_dir: Option<PathBuf>,
+    /// LandXML 1.2 file of the design profile and the ground.
+    pub landxml: Option<PathBuf>,
     /// Sheet size as typed.
     pub sheet: String,
     /// PNG resolution.
@@ -93,10 +95,20 @@ pub fn plan(request: &Request) -> anyhow::Result<Plan> {
     {
         bail!("--interval: the station interval must be a positive number (got {v})");
     }
-    if request.png.is_none() && request.svg.is_none() && request.pdf.is_none() && request.csv_dir.is_none() {
-        bail!("nothing to export: give --png, --svg, --pdf or --csv-dir");
+    if request.png.is_none()
+        && request.svg.is_none()
+        && request.pdf.is_none()
+        && request.csv_dir.is_none()
+        && request.landxml.is_none()
+    {
+        bail!("nothing to export: give --png, --svg, --pdf, --csv-dir or --landxml");
     }
-    for (name, path) in [("--png", &request.png), ("--svg", &request.svg), ("--pdf", &request.pdf)] {
+    for (name, path) in [
+        ("--png", &request.png),
+        ("--svg", &request.svg),
+        ("--pdf", &request.pdf),
+        ("--landxml", &request.landxml),
+    ] {
         if let Some(p) = path {
             check_file(name, p)?;
         }
@@ -181,6 +193,11 @@ pub fn render(
         if let Some(path) = &request.pdf {
             files.push((path.clone(), gradewright_draw::pdf(&svgs)?));
         }
+    }
+    if let Some(path) = &request.landxml {
+        let mut buffer = Vec::new();
+        gradewright_exchange::write_landxml(&mut buffer, project, &gradewright_exchange::Stamp::now())?;
+        files.push((path.clone(), buffer));
     }
     if let Some(dir) = &request.csv_dir {
         let Some(alignment) = analysis.alignment.as_ref() else {

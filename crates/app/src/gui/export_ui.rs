@@ -43,6 +43,7 @@ pub fn request(settings: &ExportSettings, base: &std::path::Path) -> crate::expo
             dir.push("-tables");
             PathBuf::from(dir)
         }),
+        landxml: None,
         sheet: settings.sheet.clone(),
         dpi: settings.dpi,
         h_scale: settings.h_scale,
