@@ -4,6 +4,7 @@
 mod criteria_tables;
 mod curve_relations;
 mod files;
+mod landxml;
 mod lengths;
 mod properties;
 mod trust;
