@@ -746,3 +746,70 @@ fn control_table_and_earthwork_totals_are_live() {
     assert!(h.query_by_label_contains("Net ").is_some(), "the earthwork totals are shown");
     assert!(h.query_by_label_contains("Largest fill").is_some());
 }
+
+/// File, Open on a LandXML file (what the dialog hands over) opens its design
+/// profile and ground line as a new, unsaved project in the file's units and
+/// foot; dropping the file does the same; File, Export LandXML… writes a file
+/// that opens back to the same profile; a file with two design profiles is
+/// refused with their names and the work is kept.
+#[test]
+fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
+    let text = r#"<?xml version="1.0" encoding="UTF-8"?>
+<LandXML xmlns="http://www.landxml.org/schema/LandXML-1.2" version="1.2" date="2026-12-03" time="09:00:00">
+  <Units><Imperial linearUnit="USSurveyFoot" areaUnit="squareFoot" volumeUnit="cubicYard" temperatureUnit="fahrenheit" pressureUnit="inHG"/></Units>
+  <Alignments>
+    <Alignment name="Heron Creek Road" staStart="1000" length="2400">
+      <Profile>
+        <ProfSurf name="Survey 2026"><PntList2D>1000 498.2 1800 507.9 2600 503.1 3400 511.6</PntList2D></ProfSurf>
+        <ProfAlign name="Finished grade">
+          <PVI>1000 500</PVI>
+          <ParaCurve length="400">1800 512</ParaCurve>
+          <UnsymParaCurve lengthIn="200" lengthOut="300">2600 504</UnsymParaCurve>
+          <PVI>3400 512</PVI>
+        </ProfAlign>
+      </Profile>
+    </Alignment>
+  </Alignments>
+</LandXML>
+"#;
+    let file = site_file("heron-creek.xml", text);
+    let mut h = demo();
+    h.state_mut().push(Action::Open(Some(file.clone())));
+    h.run();
+    let project = h.state().project().clone();
+    assert_eq!(project.name, "Heron Creek Road");
+    assert_eq!(project.units, gradewright_geometry::Units::UsCustomary);
+    assert_eq!(project.foot, gradewright_geometry::Foot::UsSurvey);
+    assert_eq!(project.pvis.len(), 4);
+    assert_eq!(project.pvis[2].curve.length_in(), 200.0);
+    assert_eq!(project.ground.len(), 4);
+    assert!(h.state().path().is_none(), "opened from LandXML: Save asks for a project file");
+    let notice = h.state().notice.as_ref().map(|n| n.text.clone()).unwrap_or_default();
+    assert!(notice.contains("'Finished grade'") && notice.contains("US survey feet"), "{notice}");
+    // Export it back from the editor and open the export: the same profile.
+    let out = file.with_file_name("heron-creek-out.xml");
+    h.state_mut().push(Action::ExportLandXml(Some(out.clone())));
+    h.run();
+    let written = std::fs::read_to_string(&out).unwrap_or_else(|e| panic!("{e}"));
+    assert!(written.contains(r#"linearUnit="USSurveyFoot""#), "the foot is written back");
+    let mut other = demo();
+    other.input_mut().dropped_files.push(std::sync::Arc::new(Dropped(out)));
+    other.run();
+    other.run();
+    assert_eq!(other.state().project().pvis, project.pvis, "a dropped LandXML file opens too");
+    assert_eq!(other.state().project().ground, project.ground);
+    // Two design profiles: refused with both names, nothing replaced.
+    let two = site_file(
+        "two.xml",
+        &text.replace("</ProfAlign>", "</ProfAlign>\n        <ProfAlign name=\"Option 2\"><PVI>1000 500</PVI><PVI>3400 510</PVI></ProfAlign>"),
+    );
+    h.state_mut().push(Action::Open(Some(two)));
+    h.run();
+    assert_eq!(h.state().project(), &project, "a refused file keeps the work");
+    let notice = h.state().notice.as_ref().map(|n| n.text.clone()).unwrap_or_default();
+    assert!(
+        notice.contains("'Heron Creek Road / Finished grade'")
+            && notice.contains("'Heron Creek Road / Option 2'"),
+        "{notice}"
+    );
+}

@@ -306,7 +306,13 @@ impl GradewrightApp {
     }
 
     /// Opens `path`, keeping the current work if it fails (the error is shown).
+    /// A LandXML file (`.xml`) opens as a new, unsaved project (Save asks
+    /// where to keep it as a project file); its design profile and ground
+    /// line are read, and when it holds several the error lists their names.
     pub fn open_path(&mut self, path: &Path) -> bool {
+        if gradewright_exchange::is_landxml_path(path) {
+            return self.open_landxml(path, &gradewright_exchange::Selection::default());
+        }
         match Project::load(path) {
             Ok(project) => {
                 self.view.lengthen_increment = default_increment(project.units);
@@ -317,6 +323,71 @@ impl GradewrightApp {
             }
             Err(e) => {
                 self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
+                false
+            }
+        }
+    }
+
+    /// Opens the design profile `selection` picks from the LandXML file at
+    /// `path` as a new, unsaved project.
+    pub fn open_landxml(&mut self, path: &Path, selection: &gradewright_exchange::Selection) -> bool {
+        let read = gradewright_exchange::open_file(path)
+            .and_then(|f| gradewright_exchange::read_landxml(f, path, selection, None));
+        match read {
+            Ok(read) => {
+                let mut project = Project::new(read.alignment.clone(), read.units);
+                project.foot = read.foot;
+                project.pvis = read.pvis;
+                project.ground = read.ground.into();
+                self.view.lengthen_increment = default_increment(project.units);
+                self.replace_project(project, None, true);
+                let skipped: Vec<&str> =
+                    read.notes.iter().filter(|n| !n.contains("lengths in")).map(String::as_str).collect();
+                let ground = read.surface.map(|s| format!(" and ground '{s}'")).unwrap_or_default();
+                let more =
+                    if skipped.is_empty() { String::new() } else { format!(" · {}", skipped.join(" · ")) };
+                self.notice = Some(Notice {
+                    error: false,
+                    text: format!(
+                        "Opened profile '{}'{ground} of alignment '{}' from LandXML {} in {}; Save keeps it as a project{more}",
+                        read.profile,
+                        read.alignment,
+                        path.display(),
+                        match (read.units, read.foot) {
+                            (Units::Metric, _) => "metres",
+                            (Units::UsCustomary, gradewright_geometry::Foot::UsSurvey) => "US survey feet",
+                            (Units::UsCustomary, _) => "feet",
+                        }
+                    ),
+                });
+                true
+            }
+            Err(e) => {
+                self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
+                false
+            }
+        }
+    }
+
+    /// Writes the design profile and the ground as LandXML 1.2 to `path`
+    /// (atomically); the outcome is shown in the status line.
+    pub fn export_landxml(&mut self, path: &Path) -> bool {
+        let mut buffer = Vec::new();
+        let written = gradewright_exchange::write_landxml(
+            &mut buffer,
+            &self.project,
+            &gradewright_exchange::Stamp::now(),
+        )
+        .map_err(|e| e.to_string())
+        .and_then(|()| gradewright_geometry::write_atomic(path, &buffer, true).map_err(|e| e.to_string()));
+        match written {
+            Ok(()) => {
+                self.notice =
+                    Some(Notice { error: false, text: format!("Exported LandXML {}", path.display()) });
+                true
+            }
+            Err(e) => {
+                self.notice = Some(Notice { error: true, text: format!("LandXML export failed: {e}") });
                 false
             }
         }
@@ -433,8 +504,11 @@ impl GradewrightApp {
                 self.open_path(&path);
             }
             Action::Open(None) => {
-                if let Some(path) =
-                    rfd::FileDialog::new().add_filter("Gradewright project", &["ron"]).pick_file()
+                if let Some(path) = rfd::FileDialog::new()
+                    .add_filter("Gradewright project or LandXML", &["ron", "xml"])
+                    .add_filter("Gradewright project", &["ron"])
+                    .add_filter("LandXML 1.2", &["xml"])
+                    .pick_file()
                 {
                     self.open_path(&path);
                 } else {
@@ -461,7 +535,10 @@ impl GradewrightApp {
                 self.apply_edit(*edit);
             }
             Action::New(_) | Action::Open(_) | Action::Quit => self.guarded(action),
-            Action::ImportGround(_) | Action::ImportControls(_) | Action::Dropped(_) => {
+            Action::ImportGround(_)
+            | Action::ImportControls(_)
+            | Action::Dropped(_)
+            | Action::ExportLandXml(_) => {
                 self.site_action(action);
             }
             Action::Save => match self.path.clone() {

@@ -63,6 +63,8 @@ pub enum Action {
     ImportGround(Option<PathBuf>),
     /// Import a control-points CSV (`None`: ask with a dialog).
     ImportControls(Option<PathBuf>),
+    /// Export the design profile and the ground as LandXML (`None`: ask with a dialog).
+    ExportLandXml(Option<PathBuf>),
     /// A file dropped on the window: open or import it by what it holds.
     Dropped(PathBuf),
     /// Save to the current file (asks for one if there is none).

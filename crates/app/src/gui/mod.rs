@@ -126,7 +126,7 @@ impl GradewrightApp {
                     }
                 });
                 ui.separator();
-                if ui.button("Import ground…").on_hover_text("A CSV of station, elevation: replaces the existing ground").clicked() {
+                if ui.button("Import ground…").on_hover_text("A CSV of station, elevation, or a LandXML ground line: replaces the existing ground").clicked() {
                     self.push(Action::ImportGround(None));
                     ui.close();
                 }
@@ -145,6 +145,14 @@ impl GradewrightApp {
                 }
                 if ui.button("Export tables…").clicked() {
                     self.view.show_tables_export = true;
+                    ui.close();
+                }
+                if ui
+                    .button("Export LandXML…")
+                    .on_hover_text("The design profile and the ground as LandXML 1.2, for other tools")
+                    .clicked()
+                {
+                    self.push(Action::ExportLandXml(None));
                     ui.close();
                 }
                 if ui.button("Open or save by path…").clicked() {

@@ -38,12 +38,32 @@ impl GradewrightApp {
         self.notice = Some(Notice { error, text });
     }
 
-    /// Replaces the ground by the CSV file at `path` (one undo step); on
-    /// failure the project is untouched and the error names file, line and
-    /// field.
+    /// Replaces the ground by the CSV file at `path`, or by the ground line
+    /// of a LandXML file (`.xml`, converted to the project's units), as one
+    /// undo step; on failure the project is untouched and the error names
+    /// file, line and field.
     pub fn import_ground(&mut self, path: &Path) -> bool {
-        let units = self.project().units;
-        let read = read_table(path, |f| gradewright_exchange::read_ground_csv(f, path, units));
+        let (units, foot) = (self.project().units, self.project().foot);
+        let read = if gradewright_exchange::is_landxml_path(path) {
+            read_table(path, |f| {
+                gradewright_exchange::read_landxml_ground(
+                    f,
+                    path,
+                    &gradewright_exchange::Selection::default(),
+                    units,
+                    foot,
+                )
+                .map(|g| {
+                    let notes = g.notes.into_iter().filter(|n| !n.contains("lengths in"));
+                    let mut warnings: Vec<String> =
+                        vec![format!("ground line '{}' of alignment '{}'", g.surface, g.alignment)];
+                    warnings.extend(notes);
+                    gradewright_exchange::GroundTable { points: g.points, warnings }
+                })
+            })
+        } else {
+            read_table(path, |f| gradewright_exchange::read_ground_csv(f, path, units))
+        };
         match read {
             Ok(table) => {
                 let count = table.points.len();
@@ -87,11 +107,34 @@ impl GradewrightApp {
     /// Runs a site action (import by path or by dialog, a dropped file).
     pub(super) fn site_action(&mut self, action: Action) {
         let pick = |title: &str| -> Option<PathBuf> {
-            rfd::FileDialog::new().set_title(title).add_filter("CSV table", &["csv", "txt"]).pick_file()
+            rfd::FileDialog::new()
+                .set_title(title)
+                .add_filter("CSV table", &["csv", "txt"])
+                .add_filter("LandXML ground line", &["xml"])
+                .pick_file()
         };
         match action {
             Action::ImportGround(Some(path)) => {
                 self.import_ground(&path);
+            }
+            Action::ExportLandXml(Some(path)) => {
+                self.export_landxml(&path);
+            }
+            Action::ExportLandXml(None) => {
+                let name = format!(
+                    "{}.xml",
+                    if self.project().name.is_empty() { "profile" } else { &self.project().name }
+                );
+                match rfd::FileDialog::new()
+                    .add_filter("LandXML 1.2", &["xml"])
+                    .set_file_name(name)
+                    .save_file()
+                {
+                    Some(path) => {
+                        self.export_landxml(&path);
+                    }
+                    None => self.say(false, "No file chosen".to_owned()),
+                }
             }
             Action::ImportControls(Some(path)) => {
                 self.import_controls(&path);
@@ -119,11 +162,11 @@ impl GradewrightApp {
                     Some("csv" | "txt") => {
                         self.import_ground(&path);
                     }
-                    Some("ron") => self.push(Action::Open(Some(path))),
+                    Some("ron" | "xml") => self.push(Action::Open(Some(path))),
                     _ => self.say(
                         true,
                         format!(
-                            "{}: drop a project (.ron), a ground table or a control-points table (.csv)",
+                            "{}: drop a project (.ron), a LandXML file (.xml), a ground table or a control-points table (.csv)",
                             path.display()
                         ),
                     ),
