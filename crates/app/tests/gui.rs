@@ -813,3 +813,26 @@ fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
         "{notice}"
     );
 }
+
+/// `gradewright edit FILE.xml` starts on the LandXML file's profile.
+#[test]
+fn the_editor_starts_on_a_landxml_file() {
+    let dir = std::env::temp_dir().join(format!("gradewright-gui-start-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
+    let path = dir.join("start.xml");
+    let mut project =
+        gradewright_geometry::Project::new("Birch Hill Road", gradewright_geometry::Units::Metric);
+    project.pvis = vec![
+        gradewright_geometry::Pvi::new(0.0, 100.0),
+        gradewright_geometry::Pvi::with_curve(400.0, 108.0, 150.0),
+        gradewright_geometry::Pvi::new(900.0, 101.5),
+    ];
+    let mut bytes = Vec::new();
+    gradewright_exchange::write_landxml(&mut bytes, &project, &gradewright_exchange::Stamp::now())
+        .unwrap_or_else(|e| panic!("{e}"));
+    std::fs::write(&path, bytes).unwrap_or_else(|e| panic!("{e}"));
+    let app = GradewrightApp::with_file(&path, AppFiles::new(None));
+    assert_eq!(app.project().name, "Birch Hill Road");
+    assert_eq!(app.project().pvis, project.pvis);
+    assert!(app.path().is_none());
+}

@@ -113,8 +113,14 @@ impl GradewrightApp {
         app
     }
 
-    /// Opens `path` at start, or falls back to the demo with the error shown.
+    /// Opens `path` at start (a project or a LandXML file), or falls back to
+    /// the demo with the error shown.
     pub fn with_file(path: &Path, files: AppFiles) -> Self {
+        if gradewright_exchange::is_landxml_path(path) {
+            let mut app = Self::with_demo(files);
+            app.open_landxml(path, &gradewright_exchange::Selection::default());
+            return app;
+        }
         match Project::load(path) {
             Ok(project) => {
                 let app = Self::new(project, Some(path.to_owned()), files);
