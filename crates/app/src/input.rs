@@ -104,10 +104,7 @@ pub fn load_input(path: &Path, units: Option<Units>, selection: &Selection) -> a
         FileKind::LandXml => {
             let file = gradewright_exchange::open_file(path)?;
             let read = gradewright_exchange::read_landxml(file, path, selection, units)?;
-            let mut project = Project::new(read.alignment.clone(), read.units);
-            project.foot = read.foot;
-            project.pvis = read.pvis;
-            project.ground = read.ground.into();
+            let project = read.project();
             let mut notes = read.notes;
             notes.insert(
                 0,

@@ -341,10 +341,7 @@ impl GradewrightApp {
             .and_then(|f| gradewright_exchange::read_landxml(f, path, selection, None));
         match read {
             Ok(read) => {
-                let mut project = Project::new(read.alignment.clone(), read.units);
-                project.foot = read.foot;
-                project.pvis = read.pvis;
-                project.ground = read.ground.into();
+                let project = read.project();
                 self.view.lengthen_increment = default_increment(project.units);
                 self.replace_project(project, None, true);
                 let skipped: Vec<&str> =

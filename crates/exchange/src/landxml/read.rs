@@ -47,6 +47,19 @@ pub struct LandXmlProfile {
     pub notes: Vec<String>,
 }
 
+impl LandXmlProfile {
+    /// A new project of this profile and ground, named after the alignment,
+    /// in the units and foot read (criteria at their defaults: LandXML has
+    /// none).
+    pub fn project(&self) -> gradewright_geometry::Project {
+        let mut project = gradewright_geometry::Project::new(self.alignment.clone(), self.units);
+        project.foot = self.foot;
+        project.pvis.clone_from(&self.pvis);
+        project.ground = self.ground.clone().into();
+        project
+    }
+}
+
 /// A ground line read from a LandXML file's `ProfSurf`.
 #[derive(Clone, Debug, PartialEq, Default)]
 pub struct LandXmlGround {
