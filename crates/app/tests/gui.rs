@@ -751,7 +751,7 @@ fn control_table_and_earthwork_totals_are_live() {
 /// profile and ground line as a new, unsaved project in the file's units and
 /// foot; dropping the file does the same; File, Export LandXML… writes a file
 /// that opens back to the same profile; a file with two design profiles is
-/// refused with their names and the work is kept.
+/// offered in a chooser, and the one clicked opens.
 #[test]
 fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
     let text = r#"<?xml version="1.0" encoding="UTF-8"?>
@@ -798,20 +798,25 @@ fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
     other.run();
     assert_eq!(other.state().project().pvis, project.pvis, "a dropped LandXML file opens too");
     assert_eq!(other.state().project().ground, project.ground);
-    // Two design profiles: refused with both names, nothing replaced.
+    // Two design profiles: a chooser offers both, nothing is replaced until
+    // one is clicked.
     let two = site_file(
         "two.xml",
-        &text.replace("</ProfAlign>", "</ProfAlign>\n        <ProfAlign name=\"Option 2\"><PVI>1000 500</PVI><PVI>3400 510</PVI></ProfAlign>"),
+        &text.replace(
+            "</ProfAlign>",
+            "</ProfAlign>\n        <ProfAlign name=\"Option 2\"><PVI>1000 500</PVI><PVI>3400 510</PVI></ProfAlign>",
+        ),
     );
     h.state_mut().push(Action::Open(Some(two)));
     h.run();
-    assert_eq!(h.state().project(), &project, "a refused file keeps the work");
+    assert_eq!(h.state().project(), &project, "nothing replaced before a choice");
     let notice = h.state().notice.as_ref().map(|n| n.text.clone()).unwrap_or_default();
-    assert!(
-        notice.contains("'Heron Creek Road / Finished grade'")
-            && notice.contains("'Heron Creek Road / Option 2'"),
-        "{notice}"
-    );
+    assert!(notice.contains("choose one"), "{notice}");
+    assert!(h.query_by_label("Heron Creek Road / Finished grade (ground: Survey 2026)").is_some());
+    h.get_by_label("Heron Creek Road / Option 2 (ground: Survey 2026)").click();
+    h.run();
+    assert_eq!(h.state().project().pvis.len(), 2, "the chosen profile opened");
+    assert_eq!(h.state().project().ground, project.ground);
 }
 
 /// `gradewright edit FILE.xml` starts on the LandXML file's profile.

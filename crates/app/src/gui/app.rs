@@ -366,7 +366,24 @@ impl GradewrightApp {
                 true
             }
             Err(e) => {
-                self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
+                // Several profiles or ground lines: offer them to choose from.
+                let choices = gradewright_exchange::open_file(path)
+                    .and_then(|f| gradewright_exchange::landxml_choices(f, path))
+                    .map(|c| landxml_selections(&c))
+                    .unwrap_or_default();
+                if choices.len() > 1 && selection.profile.is_none() {
+                    self.notice = Some(Notice {
+                        error: false,
+                        text: format!(
+                            "{} holds {} design profiles or ground lines: choose one",
+                            path.display(),
+                            choices.len()
+                        ),
+                    });
+                    self.view.landxml_choice = Some((path.to_owned(), choices));
+                } else {
+                    self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
+                }
                 false
             }
         }
@@ -506,6 +523,9 @@ impl GradewrightApp {
             Action::Open(Some(path)) => {
                 self.open_path(&path);
             }
+            Action::OpenLandXml(path, selection) => {
+                self.open_landxml(&path, &selection);
+            }
             Action::Open(None) => {
                 if let Some(path) = rfd::FileDialog::new()
                     .add_filter("Gradewright project or LandXML", &["ron", "xml"])
@@ -537,7 +557,7 @@ impl GradewrightApp {
             Action::Edit(edit) => {
                 self.apply_edit(*edit);
             }
-            Action::New(_) | Action::Open(_) | Action::Quit => self.guarded(action),
+            Action::New(_) | Action::Open(_) | Action::OpenLandXml(..) | Action::Quit => self.guarded(action),
             Action::ImportGround(_)
             | Action::ImportControls(_)
             | Action::Dropped(_)
@@ -763,4 +783,22 @@ fn slug(name: &str) -> String {
         name.chars().map(|c| if c.is_ascii_alphanumeric() { c.to_ascii_lowercase() } else { '-' }).collect();
     let s = s.split('-').filter(|p| !p.is_empty()).collect::<Vec<_>>().join("-");
     if s.is_empty() { "profile".to_owned() } else { s }
+}
+
+/// Every (alignment, design profile, ground line) a file offers, as the
+/// selections that open them.
+fn landxml_selections(choices: &[gradewright_exchange::Choice]) -> Vec<gradewright_exchange::Selection> {
+    let mut out = Vec::new();
+    for c in choices {
+        let surfaces: Vec<Option<String>> =
+            if c.surfaces.is_empty() { vec![None] } else { c.surfaces.iter().cloned().map(Some).collect() };
+        for surface in surfaces {
+            out.push(gradewright_exchange::Selection {
+                alignment: Some(c.alignment.clone()),
+                profile: Some(c.profile.clone()),
+                surface,
+            });
+        }
+    }
+    out
 }

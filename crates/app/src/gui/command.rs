@@ -63,6 +63,9 @@ pub enum Action {
     ImportGround(Option<PathBuf>),
     /// Import a control-points CSV (`None`: ask with a dialog).
     ImportControls(Option<PathBuf>),
+    /// Open the design profile (and ground line) a selection picks from a
+    /// LandXML file holding several.
+    OpenLandXml(PathBuf, gradewright_exchange::Selection),
     /// Export the design profile and the ground as LandXML (`None`: ask with a dialog).
     ExportLandXml(Option<PathBuf>),
     /// A file dropped on the window: open or import it by what it holds.

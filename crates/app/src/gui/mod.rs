@@ -84,6 +84,7 @@ impl GradewrightApp {
         });
         about_ui::about_ui(self, &ctx);
         self.path_dialog_ui(&ctx);
+        self.landxml_choice_ui(&ctx);
         export_ui::export_ui(self, &ctx);
         export_ui::tables_ui(self, &ctx);
         self.dialogs_ui(&ctx);
@@ -193,6 +194,35 @@ impl GradewrightApp {
                 self.push(Action::edit(Edit::SetName(name)));
             }
         });
+    }
+
+    /// The chooser for a LandXML file holding several design profiles or
+    /// ground lines: one button per choice.
+    fn landxml_choice_ui(&mut self, ctx: &egui::Context) {
+        let Some((path, choices)) = self.view.landxml_choice.clone() else { return };
+        let mut open = true;
+        let mut chosen = None;
+        egui::Window::new("Choose a profile").open(&mut open).collapsible(false).show(ctx, |ui| {
+            ui.label(format!("{} holds several design profiles or ground lines:", path.display()));
+            for selection in &choices {
+                let label = format!(
+                    "{} / {}{}",
+                    selection.alignment.as_deref().unwrap_or(""),
+                    selection.profile.as_deref().unwrap_or(""),
+                    selection.surface.as_ref().map(|s| format!(" (ground: {s})")).unwrap_or_default()
+                );
+                if ui.button(label).clicked() {
+                    chosen = Some(selection.clone());
+                }
+            }
+        });
+        if let Some(selection) = chosen {
+            self.push(Action::OpenLandXml(path, selection));
+            open = false;
+        }
+        if !open {
+            self.view.landxml_choice = None;
+        }
     }
 
     /// Open or save by typing a path: works where no file dialog is available.

@@ -129,6 +129,9 @@ pub struct ViewState {
     pub path_text: String,
     /// Whether the path dialog is open.
     pub show_path_dialog: bool,
+    /// A LandXML file holding several design profiles or ground lines, and
+    /// the choices it offers (the chooser window is open while set).
+    pub landxml_choice: Option<(std::path::PathBuf, Vec<gradewright_exchange::Selection>)>,
     /// Whether the sight-distance strip is shown under the profile.
     pub show_sight_strip: bool,
     /// "Lengthen to clear" rounds lengths up to this increment.
@@ -170,6 +173,7 @@ impl Default for ViewState {
             context_station: None,
             path_text: String::new(),
             show_path_dialog: false,
+            landxml_choice: None,
             show_sight_strip: true,
             lengthen_increment: 5.0,
             scroll_to_row: None,
