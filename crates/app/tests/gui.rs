@@ -841,3 +841,25 @@ fn the_editor_starts_on_a_landxml_file() {
     assert_eq!(app.project().pvis, project.pvis);
     assert!(app.path().is_none());
 }
+
+/// Dropping a PVI table (a CSV naming curve lengths) asks for its units and
+/// opens it as a new, unsaved project; a ground CSV still imports as ground.
+#[test]
+fn a_dropped_pvi_table_asks_its_units_and_opens() {
+    let file = site_file(
+        "pine-ridge.csv",
+        "station,elevation,curve_length\n10+00,612.0,0\n16+00,630.0,400\n24+00,618.0,0\n",
+    );
+    let mut h = demo();
+    let before = h.state().project().clone();
+    h.input_mut().dropped_files.push(std::sync::Arc::new(Dropped(file)));
+    h.run();
+    assert_eq!(h.state().project(), &before, "nothing opens before the units are chosen");
+    h.get_by_label("Feet (US customary)").click();
+    h.run();
+    let project = h.state().project().clone();
+    assert_eq!(project.units, gradewright_geometry::Units::UsCustomary);
+    assert_eq!(project.pvis.len(), 3);
+    assert!(matches!(project.pvis[1].curve, VerticalCurve::Symmetric { length: 400.0 }));
+    assert!(h.state().path().is_none(), "opened from CSV: Save asks for a project file");
+}

@@ -319,6 +319,15 @@ impl GradewrightApp {
         if gradewright_exchange::is_landxml_path(path) {
             return self.open_landxml(path, &gradewright_exchange::Selection::default());
         }
+        if path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv")) {
+            // A PVI table carries no units: ask for them first.
+            self.view.pvi_table_units = Some(path.to_owned());
+            self.notice = Some(Notice {
+                error: false,
+                text: format!("{}: a PVI table; choose its units", path.display()),
+            });
+            return false;
+        }
         match Project::load(path) {
             Ok(project) => {
                 self.view.lengthen_increment = default_increment(project.units);
@@ -384,6 +393,34 @@ impl GradewrightApp {
                 } else {
                     self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
                 }
+                false
+            }
+        }
+    }
+
+    /// Opens the PVI table (CSV) at `path`, read in `units`, as a new,
+    /// unsaved project.
+    pub fn open_pvi_table(&mut self, path: &Path, units: Units) -> bool {
+        let read = gradewright_exchange::open_file(path)
+            .and_then(|f| gradewright_exchange::read_pvi_csv(f, path, units));
+        match read {
+            Ok(table) => {
+                let name = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
+                let mut project = Project::new(name, units);
+                project.pvis = table.pvis;
+                self.view.lengthen_increment = default_increment(units);
+                self.replace_project(project, None, true);
+                self.notice = Some(Notice {
+                    error: false,
+                    text: format!(
+                        "Opened the PVI table {} in {units}; Save keeps it as a project",
+                        path.display()
+                    ),
+                });
+                true
+            }
+            Err(e) => {
+                self.notice = Some(Notice { error: true, text: format!("Could not open: {e}") });
                 false
             }
         }
@@ -526,6 +563,9 @@ impl GradewrightApp {
             Action::OpenLandXml(path, selection) => {
                 self.open_landxml(&path, &selection);
             }
+            Action::OpenPviTable(path, units) => {
+                self.open_pvi_table(&path, units);
+            }
             Action::Open(None) => {
                 if let Some(path) = rfd::FileDialog::new()
                     .add_filter("Gradewright project or LandXML", &["ron", "xml"])
@@ -557,7 +597,13 @@ impl GradewrightApp {
             Action::Edit(edit) => {
                 self.apply_edit(*edit);
             }
-            Action::New(_) | Action::Open(_) | Action::OpenLandXml(..) | Action::Quit => self.guarded(action),
+            Action::New(_)
+            | Action::Open(_)
+            | Action::OpenLandXml(..)
+            | Action::OpenPviTable(..)
+            | Action::Quit => {
+                self.guarded(action);
+            }
             Action::ImportGround(_)
             | Action::ImportControls(_)
             | Action::Dropped(_)

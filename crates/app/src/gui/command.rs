@@ -66,6 +66,8 @@ pub enum Action {
     /// Open the design profile (and ground line) a selection picks from a
     /// LandXML file holding several.
     OpenLandXml(PathBuf, gradewright_exchange::Selection),
+    /// Open a PVI table (CSV) in the units the user chose.
+    OpenPviTable(PathBuf, Units),
     /// Export the design profile and the ground as LandXML (`None`: ask with a dialog).
     ExportLandXml(Option<PathBuf>),
     /// A file dropped on the window: open or import it by what it holds.

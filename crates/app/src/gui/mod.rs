@@ -85,6 +85,7 @@ impl GradewrightApp {
         about_ui::about_ui(self, &ctx);
         self.path_dialog_ui(&ctx);
         self.landxml_choice_ui(&ctx);
+        self.pvi_table_units_ui(&ctx);
         export_ui::export_ui(self, &ctx);
         export_ui::tables_ui(self, &ctx);
         self.dialogs_ui(&ctx);
@@ -222,6 +223,34 @@ impl GradewrightApp {
         }
         if !open {
             self.view.landxml_choice = None;
+        }
+    }
+
+    /// Asks the units of a PVI table being opened (a CSV carries none).
+    fn pvi_table_units_ui(&mut self, ctx: &egui::Context) {
+        let Some(path) = self.view.pvi_table_units.clone() else { return };
+        let mut open = true;
+        let mut chosen = None;
+        egui::Window::new("Units of the PVI table").open(&mut open).collapsible(false).show(ctx, |ui| {
+            ui.label(format!(
+                "{} carries no units. Its stations, elevations and lengths are in:",
+                path.display()
+            ));
+            ui.horizontal(|ui| {
+                if ui.button("Metres (metric)").clicked() {
+                    chosen = Some(gradewright_geometry::Units::Metric);
+                }
+                if ui.button("Feet (US customary)").clicked() {
+                    chosen = Some(gradewright_geometry::Units::UsCustomary);
+                }
+            });
+        });
+        if let Some(units) = chosen {
+            self.push(Action::OpenPviTable(path, units));
+            open = false;
+        }
+        if !open {
+            self.view.pvi_table_units = None;
         }
     }
 

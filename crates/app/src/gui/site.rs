@@ -9,9 +9,9 @@ use gradewright_geometry::Ground;
 use super::app::{GradewrightApp, Notice};
 use super::command::{Action, Edit};
 
-/// What a dropped CSV file holds, by its first line: control points when
-/// the header names a `kind` column, otherwise ground.
-fn is_controls_file(path: &Path) -> bool {
+/// Whether the header of the CSV file at `path` (its first line that is
+/// not a comment) names one of `columns`.
+fn header_names(path: &Path, columns: &[&str]) -> bool {
     use std::io::Read as _;
     // The first line is enough: read no more than the start of the file.
     let mut bytes = Vec::new();
@@ -20,8 +20,19 @@ fn is_controls_file(path: &Path) -> bool {
     }
     let head = String::from_utf8_lossy(&bytes).to_ascii_lowercase();
     head.lines().find(|l| !l.trim().is_empty() && !l.starts_with('#')).is_some_and(|l| {
-        l.split([',', ';', '\t']).any(|cell| cell.trim().trim_start_matches('\u{feff}') == "kind")
+        l.split([',', ';', '\t']).any(|cell| columns.contains(&cell.trim().trim_start_matches('\u{feff}')))
     })
+}
+
+/// What a dropped CSV file holds, by its header: control points when it
+/// names a `kind` column.
+fn is_controls_file(path: &Path) -> bool {
+    header_names(path, &["kind"])
+}
+
+/// A PVI table, by its header: it names the curve lengths.
+pub(super) fn is_pvi_table(path: &Path) -> bool {
+    header_names(path, &["curve_length", "length_in", "length_out"])
 }
 
 /// Opens `path` and reads it with `read`; either error as one line.
@@ -156,6 +167,7 @@ impl GradewrightApp {
             Action::Dropped(path) => {
                 let ext = path.extension().map(|e| e.to_string_lossy().to_ascii_lowercase());
                 match ext.as_deref() {
+                    Some("csv" | "txt") if is_pvi_table(&path) => self.push(Action::Open(Some(path))),
                     Some("csv" | "txt") if is_controls_file(&path) => {
                         self.import_controls(&path);
                     }

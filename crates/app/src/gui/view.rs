@@ -129,6 +129,8 @@ pub struct ViewState {
     pub path_text: String,
     /// Whether the path dialog is open.
     pub show_path_dialog: bool,
+    /// A PVI table being opened, waiting for the user to say its units.
+    pub pvi_table_units: Option<std::path::PathBuf>,
     /// A LandXML file holding several design profiles or ground lines, and
     /// the choices it offers (the chooser window is open while set).
     pub landxml_choice: Option<(std::path::PathBuf, Vec<gradewright_exchange::Selection>)>,
@@ -174,6 +176,7 @@ impl Default for ViewState {
             path_text: String::new(),
             show_path_dialog: false,
             landxml_choice: None,
+            pvi_table_units: None,
             show_sight_strip: true,
             lengthen_increment: 5.0,
             scroll_to_row: None,
