@@ -591,34 +591,45 @@ fn blocking_pvi(
         let slack = PASS_RELATIVE * (1.0 + c.pvi.0.abs());
         (c.pvc.0 - slack, c.pvt.0 + slack)
     };
+    // The curves are in station order and do not overlap (sight distance is
+    // only checked on a profile without problems), so the few that can hold
+    // the point are found by binary search, not by a scan per shortfall
+    // (that made `check` quadratic in the number of PVIs).
+    let from = |u: f64| curves.partition_point(|c| span(c).1 < u);
     let found = if headlight {
         let hit = to_profile(at + road.headlight(at, setup));
         let (lo, hi) = (eye.min(hit), eye.max(hit));
         curves
+            .get(from(lo)..)
+            .unwrap_or(&[])
             .iter()
+            .take_while(|c| span(c).0 <= hi)
             .filter(|c| c.kind == CurveKind::Sag)
-            .filter(|c| {
-                let (a, b) = span(c);
-                b >= lo && a <= hi
-            })
             .min_by(|x, y| (x.pvi.0 - hit).abs().total_cmp(&(y.pvi.0 - hit).abs()))
     } else {
         let (_, horizon) = road.daylight_and_horizon(at, setup);
         horizon.map(to_profile).and_then(|u| {
-            curves.iter().filter(|c| c.kind == CurveKind::Crest).find(|c| {
-                let (a, b) = span(c);
-                u >= a && u <= b
-            })
+            curves
+                .get(from(u)..)
+                .unwrap_or(&[])
+                .iter()
+                .take_while(|c| span(c).0 <= u)
+                .find(|c| c.kind == CurveKind::Crest)
         })
     };
-    found.map(|c| c.index).or_else(|| {
-        alignment
-            .pvis()
-            .iter()
-            .enumerate()
-            .min_by(|a, b| (a.1.station.0 - eye).abs().total_cmp(&(b.1.station.0 - eye).abs()))
-            .map(|(i, _)| i)
-    })
+    found.map(|c| c.index).or_else(|| nearest_pvi(alignment.pvis(), eye))
+}
+
+/// The PVI nearest `station` (the first of two as near), by binary search.
+fn nearest_pvi(pvis: &[crate::Pvi], station: f64) -> Option<usize> {
+    let i = pvis.partition_point(|p| p.station.0 < station);
+    let distance = |k: usize| pvis.get(k).map(|p| (p.station.0 - station).abs());
+    match (i.checked_sub(1).and_then(distance), distance(i)) {
+        (Some(before), Some(after)) => Some(if before <= after { i - 1 } else { i }),
+        (Some(_), None) => Some(i - 1),
+        (None, Some(_)) => Some(i),
+        (None, None) => None,
+    }
 }
 
 fn check_sight(
