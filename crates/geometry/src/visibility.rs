@@ -88,6 +88,20 @@ impl Road {
         i.min(self.pieces.len().saturating_sub(1))
     }
 
+    /// [`Self::piece_index`], found by walking from `hint` (the answer for a
+    /// nearby station): the same index, without a search per station.
+    fn piece_index_near(&self, hint: usize, s: f64) -> usize {
+        let last = self.pieces.len().saturating_sub(1);
+        let mut i = hint.min(last);
+        while i < last && self.pieces.get(i).is_some_and(|p| p.end <= s) {
+            i += 1;
+        }
+        while i > 0 && self.pieces.get(i - 1).is_some_and(|p| p.end > s) {
+            i -= 1;
+        }
+        i
+    }
+
     /// Road elevation at road station `s`, end tangents extended (for tests
     /// and reference methods).
     pub fn elevation(&self, s: f64) -> f64 {
@@ -117,7 +131,11 @@ impl Road {
     /// the point that hides the object there (the horizon: where the line of
     /// sight touches the road; `None` when the distance reaches the cap).
     pub fn daylight_and_horizon(&self, s: f64, setup: &SightSetup) -> (f64, Option<f64>) {
-        let start = self.piece_index(s);
+        self.daylight_from(self.piece_index(s), s, setup)
+    }
+
+    /// [`Self::daylight_and_horizon`] with the piece holding `s` known.
+    fn daylight_from(&self, start: usize, s: f64, setup: &SightSetup) -> (f64, Option<f64>) {
         let Some(here) = self.pieces.get(start) else { return (0.0, None) };
         let eye = here.elevation_at(s) + setup.eye_height;
         let h2 = setup.object_height;
@@ -140,26 +158,31 @@ impl Road {
             // Split where φ turns (φ′ = −a/t² + c = 0), so φ is monotone on each part.
             let turn = if a * c > 0.0 { (a / c).sqrt() } else { f64::NAN };
             let cuts = if turn > p && turn < q { [p, turn, q] } else { [p, q, q] };
+            // φ at each cut, computed once (a part's end is the next one's start).
+            let mut phi_lo = phi(p);
             for w in cuts.windows(2) {
                 let [lo, hi] = [w[0], w[1]];
                 if hi <= lo {
                     continue;
                 }
+                let phi_hi = phi(hi);
                 let mid = 0.5 * (lo + hi);
-                let rising = -a / (mid * mid) + c > 0.0;
+                // φ′(mid) > 0, multiplied through by mid² > 0 (no division).
+                let rising = c * mid * mid > a;
                 let (level, level_at) =
-                    if !rising && phi(lo) > running { (phi(lo), lo) } else { (running, running_at) };
+                    if !rising && phi_lo > running { (phi_lo, lo) } else { (running, running_at) };
                 if level > f64::NEG_INFINITY
                     && let Some(t) = first_negative(a + h2, g - level, c, lo, hi)
                 {
                     return (t, Some(s + level_at));
                 }
-                for (value, at) in [(phi(lo), lo), (phi(hi), hi)] {
+                for (value, at) in [(phi_lo, lo), (phi_hi, hi)] {
                     if value > running {
                         running = value;
                         running_at = at;
                     }
                 }
+                phi_lo = phi_hi;
             }
             if piece.end - s >= setup.cap {
                 break;
@@ -171,13 +194,26 @@ impl Road {
     /// The governing available distance from road station `s`: the smaller of
     /// the daylight and headlight distances, of those `setup` asks for.
     pub fn governing(&self, s: f64, setup: &SightSetup) -> f64 {
-        let day = if setup.daylight { self.daylight(s, setup) } else { setup.cap };
-        if setup.headlights { day.min(self.headlight(s, setup)) } else { day }
+        self.governing_near(&mut self.piece_index(s), s, setup)
+    }
+
+    /// [`Self::governing`], finding the piece holding `s` from `hint` (the
+    /// piece of the station before, updated): stations taken in order cost
+    /// no search each.
+    fn governing_near(&self, hint: &mut usize, s: f64, setup: &SightSetup) -> f64 {
+        let start = self.piece_index_near(*hint, s);
+        *hint = start;
+        let day = if setup.daylight { self.daylight_from(start, s, setup).0 } else { setup.cap };
+        if setup.headlights { day.min(self.headlight_from(start, s, setup)) } else { day }
     }
 
     /// Headlight sight distance from road station `s`, up to `setup.cap`.
     pub fn headlight(&self, s: f64, setup: &SightSetup) -> f64 {
-        let start = self.piece_index(s);
+        self.headlight_from(self.piece_index(s), s, setup)
+    }
+
+    /// [`Self::headlight`] with the piece holding `s` known.
+    fn headlight_from(&self, start: usize, s: f64, setup: &SightSetup) -> f64 {
         let Some(here) = self.pieces.get(start) else { return 0.0 };
         let base = here.elevation_at(s) + setup.headlight_height;
         let slope = here.grade_at(s) + setup.headlight_angle_deg.to_radians().tan();
@@ -242,6 +278,18 @@ fn first_negative(c0: f64, c1: f64, c2: f64, lo: f64, hi: f64) -> Option<f64> {
     let f = |t: f64| c0 + t * (c1 + c2 * t);
     if f(lo) < 0.0 {
         return Some(lo);
+    }
+    // No root to look for when f stays positive: with f(lo) ≥ 0 and
+    // f(hi) > 0, f > 0 inside when it is concave or straight (c2 ≤ 0), or
+    // when its vertex lies outside (lo, hi) (f monotone there).
+    if f(hi) > 0.0 {
+        let vertex_inside = c2 > 0.0 && {
+            let vertex = -c1 / (2.0 * c2);
+            vertex > lo && vertex < hi
+        };
+        if !vertex_inside {
+            return None;
+        }
     }
     let scale = c0.abs() + (c1 * hi).abs() + (c2 * hi * hi).abs();
     let mut roots = [f64::NAN; 2];
@@ -404,27 +452,75 @@ pub fn stations_between(alignment: &Alignment, step: f64, lo: f64, hi: f64) -> V
     stations
 }
 
-/// Computes available and required sight distance at `stations` (sorted).
+/// Computes available and required sight distance at `stations` (sorted),
+/// on every core the machine has when there are enough stations to share.
+/// Each station is computed on its own, so the result is the same, bit for
+/// bit, as [`sight_profile_on`] with one thread.
 pub fn sight_profile(
     alignment: &Alignment,
     setup: &SightSetup,
     requirement: Requirement,
     stations: &[f64],
 ) -> SightProfile {
-    let forward = Road::new(alignment, Direction::Forward);
-    let backward = Road::new(alignment, Direction::Backward);
-    let samples = stations
-        .iter()
-        .map(|&s| SightSample {
-            station: s,
-            forward: forward.governing(s, setup),
-            backward: backward.governing(-s, setup),
-            required_forward: requirement.on_road(&forward, s),
-            required_backward: requirement.on_road(&backward, -s),
-        })
-        .collect();
+    let cores = std::thread::available_parallelism().map_or(1, std::num::NonZeroUsize::get);
+    sight_profile_on(alignment, setup, requirement, stations, cores)
+}
+
+/// [`sight_profile`] on at most `threads` threads (1: on the calling thread
+/// only). Stations are shared out in contiguous blocks, one per thread.
+pub fn sight_profile_on(
+    alignment: &Alignment,
+    setup: &SightSetup,
+    requirement: Requirement,
+    stations: &[f64],
+    threads: usize,
+) -> SightProfile {
+    let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
+    let threads = threads.clamp(1, MAX_THREADS).min(stations.len() / PARALLEL_STATIONS).max(1);
+    let mut samples = vec![
+        SightSample {
+            station: f64::NAN,
+            forward: f64::NAN,
+            backward: f64::NAN,
+            required_forward: f64::NAN,
+            required_backward: f64::NAN,
+        };
+        stations.len()
+    ];
+    let fill = |out: &mut [SightSample], stations: &[f64]| {
+        let [forward, backward] = &roads;
+        let (mut ahead, mut behind) = (0, usize::MAX);
+        for (sample, &s) in out.iter_mut().zip(stations) {
+            *sample = SightSample {
+                station: s,
+                forward: forward.governing_near(&mut ahead, s, setup),
+                backward: backward.governing_near(&mut behind, -s, setup),
+                required_forward: requirement.on_road(forward, s),
+                required_backward: requirement.on_road(backward, -s),
+            };
+        }
+    };
+    if threads == 1 {
+        fill(&mut samples, stations);
+    } else {
+        let block = stations.len().div_ceil(threads);
+        std::thread::scope(|scope| {
+            let mut jobs = samples.chunks_mut(block).zip(stations.chunks(block));
+            // The calling thread takes the first block itself.
+            let first = jobs.next();
+            for (out, part) in jobs {
+                scope.spawn(move || fill(out, part));
+            }
+            if let Some((out, part)) = first {
+                fill(out, part);
+            }
+        });
+    }
     SightProfile { samples, cap: setup.cap }
 }
+
+/// The most threads one sight computation uses.
+const MAX_THREADS: usize = 16;
 
 /// A stretch where available sight distance falls short, one direction.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -443,8 +539,8 @@ pub struct Shortfall {
     pub required: f64,
 }
 
-/// Stations of an update from which the two directions are computed on two
-/// threads (below it a thread costs more than it saves).
+/// Stations per thread below which a computation stays on one thread (a
+/// thread costs more than it saves).
 const PARALLEL_STATIONS: usize = 1_500;
 
 impl SightProfile {
@@ -480,24 +576,26 @@ impl SightProfile {
         // The backward values of each station, computed from the stations
         // alone (so they can be computed beside the forward ones).
         let backward = |stations: &[f64]| -> Vec<(Option<f64>, Option<f64>)> {
+            let mut hint = usize::MAX;
             stations
                 .iter()
                 .map(|&s| {
                     if s < lo {
                         return (None, None);
                     }
-                    let seen = (s <= hi + setup.cap).then(|| behind.governing(-s, setup));
+                    let seen = (s <= hi + setup.cap).then(|| behind.governing_near(&mut hint, -s, setup));
                     (seen, Some(requirement.on_road(behind, -s)))
                 })
                 .collect()
         };
         let stations: Vec<f64> = window.iter().map(|s| s.station).collect();
         let forward = |window: &mut [SightSample]| {
+            let mut hint = 0;
             for sample in window.iter_mut() {
                 let s = sample.station;
                 if s <= hi {
                     if s >= lo - setup.cap {
-                        sample.forward = ahead.governing(s, setup);
+                        sample.forward = ahead.governing_near(&mut hint, s, setup);
                     }
                     sample.required_forward = requirement.on_road(ahead, s);
                 }

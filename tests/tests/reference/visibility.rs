@@ -5,9 +5,9 @@
 use gradewright_acceptance::alignment;
 use gradewright_geometry::visibility::{
     Direction, Requirement, Road, SightSetup, reference_daylight, reference_headlight, sight_profile,
-    stations_every,
+    sight_profile_on, stations_every,
 };
-use gradewright_geometry::{Alignment, Profile, Pvi, Units};
+use gradewright_geometry::{Alignment, Profile, Pvi, Units, synthetic::rolling_profile};
 use proptest::prelude::*;
 
 fn setup(cap: f64, headlights: bool) -> SightSetup {
@@ -190,4 +190,38 @@ fn grade_adjusted_requirement_follows_the_direction_of_travel() {
         assert!((s.required_forward - 65.8).abs() < 0.05, "{s:?}");
         assert!((s.required_backward - 65.0).abs() < 1e-12, "{s:?}");
     }
+}
+
+/// Sharing the stations out over threads changes nothing, bit for bit, and
+/// the piece found by walking from the previous station is the one a search
+/// finds (every sample equals the station computed alone).
+#[test]
+fn threads_and_walking_do_not_change_the_result() {
+    let a =
+        Alignment::new(&rolling_profile(Units::Metric, 200, 20_000.0)).unwrap_or_else(|e| panic!("{e:?}"));
+    let stations = stations_every(&a, 1.0);
+    let s = setup(480.0, true);
+    let requirement = Requirement::Design(160.0);
+    let one = sight_profile_on(&a, &s, requirement, &stations, 1);
+    for threads in [2, 3, 7] {
+        assert_eq!(sight_profile_on(&a, &s, requirement, &stations, threads), one, "{threads} threads");
+    }
+    assert_eq!(sight_profile(&a, &s, requirement, &stations), one);
+    let (ahead, behind) = (Road::new(&a, Direction::Forward), Road::new(&a, Direction::Backward));
+    for sample in one.samples.iter().step_by(37) {
+        assert_eq!(
+            sample.forward.to_bits(),
+            ahead.governing(sample.station, &s).to_bits(),
+            "at {}",
+            sample.station
+        );
+        assert_eq!(
+            sample.backward.to_bits(),
+            behind.governing(-sample.station, &s).to_bits(),
+            "at {}",
+            sample.station
+        );
+    }
+    // Something is measured: on this rolling profile crests hide the object.
+    assert!(one.samples.iter().filter(|x| !one.reaches_cap(x.forward)).count() > 1000);
 }
