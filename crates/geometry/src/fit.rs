@@ -5,7 +5,7 @@
 //! without overlapping its neighbours.
 
 use crate::tolerance::{below, ceil_to};
-use crate::visibility::{Direction, SightProfile, sight_profile, stations_between};
+use crate::visibility::{Direction, SightProfile, grid_between, sight_profile};
 use crate::{
     Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, MAX_SIGHT_STATIONS,
     Profile, ResolvedCriteria, Units, check_controls, check_curve, format_station,
@@ -45,12 +45,76 @@ pub fn lengthen_to_clear(
     targets.sort_unstable();
     targets.dedup();
     let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
+    let run = Run::new(&profile, criteria, controls);
     let mut outcomes = Vec::new();
     for index in targets {
-        let outcome = fit_one(&mut profile, criteria, controls, index, increment);
+        let outcome = fit_one(&mut profile, &run, index, increment);
         outcomes.push(outcome);
     }
     (profile, outcomes)
+}
+
+/// What every fit of one run shares. A curve's length changes neither the
+/// grades nor the PVIs, so what they decide is found once, and each fit
+/// looks only at the stretch its curve can reach: the run is linear in the
+/// number of curves, not quadratic.
+struct Run<'a> {
+    criteria: &'a ResolvedCriteria,
+    controls: &'a [ControlPoint],
+    /// Whether the profile had no problem when the run began (a fit keeps
+    /// it so: a length that makes one is never taken).
+    clean: bool,
+    /// The furthest from a curve an eye can be held up by it ([`reach`]).
+    reach: f64,
+    /// How far beyond the eyes the road is looked at: the cap, or the
+    /// longest braking stretch when that is longer. `None` when no bound
+    /// exists (a grade too steep to stop on): the whole profile is used.
+    beyond: Option<f64>,
+    /// Where the whole profile starts and ends: the sight stations are its
+    /// grid even when only part of it is built.
+    span: (f64, f64),
+}
+
+impl<'a> Run<'a> {
+    fn new(profile: &Profile, criteria: &'a ResolvedCriteria, controls: &'a [ControlPoint]) -> Self {
+        let cap = criteria.get(CriterionId::SightCap);
+        let largest = criteria.largest_requirement(steepest(profile));
+        let beyond = (largest.is_finite() && cap.is_finite()).then(|| cap.max(largest));
+        Self {
+            criteria,
+            controls,
+            clean: profile.problems().is_empty(),
+            reach: reach(profile, criteria),
+            beyond,
+            span: (profile.start().map_or(f64::NAN, |s| s.0), profile.end().map_or(f64::NAN, |s| s.0)),
+        }
+    }
+}
+
+/// The PVIs around `index` whose road is the whole profile's, piece for
+/// piece and bit for bit, over [lo, hi]: the neighbours of `index` and as
+/// many more as it takes for the curves cut off at the ends to lie outside
+/// (the end PVIs of the part lose their curves).
+fn part(profile: &Profile, index: usize, lo: f64, hi: f64) -> Profile {
+    let pvis = &profile.pvis;
+    let last = pvis.len().saturating_sub(1);
+    let pvc = |i: usize| pvis.get(i).map_or(f64::NEG_INFINITY, |p| p.station.0 - p.curve.length_in());
+    let pvt = |i: usize| pvis.get(i).map_or(f64::INFINITY, |p| p.station.0 + p.curve.length_out());
+    let mut first = index.saturating_sub(2);
+    while first > 0 && pvc(first + 1) >= lo {
+        first -= 1;
+    }
+    let mut end = (index + 2).min(last);
+    while end < last && pvt(end - 1) <= hi {
+        end += 1;
+    }
+    let mut list = pvis.get(first..=end).unwrap_or(&[]).to_vec();
+    for at in [0, list.len().saturating_sub(1)] {
+        if let Some(p) = list.get_mut(at) {
+            p.curve = crate::VerticalCurve::None;
+        }
+    }
+    Profile::new(profile.units, list)
 }
 
 fn label(units: Units, s: f64) -> String {
@@ -73,35 +137,58 @@ fn room(profile: &Profile, index: usize) -> Option<f64> {
     Some((back / share_in).min(ahead / share_out).max(0.0))
 }
 
-/// The control points `profile` meets.
-fn met_controls(profile: &Profile, controls: &[ControlPoint]) -> Vec<bool> {
-    if controls.is_empty() {
-        return Vec::new();
-    }
-    let Ok(alignment) = Alignment::new(profile) else { return vec![false; controls.len()] };
-    check_controls(&alignment, controls).iter().map(|s| matches!(s, ControlStatus::Met(_))).collect()
+/// The control points a change of the curve at `index` can move: those
+/// between its neighbouring PVIs (no other elevation changes).
+fn controls_near(profile: &Profile, controls: &[ControlPoint], index: usize) -> Vec<usize> {
+    let at = |i: usize| profile.pvis.get(i).map(|p| p.station.0);
+    let (Some(lo), Some(hi)) = (index.checked_sub(1).and_then(at), at(index + 1)) else { return Vec::new() };
+    (0..controls.len())
+        .filter(|&i| controls.get(i).is_some_and(|c| c.station >= lo && c.station <= hi))
+        .collect()
 }
 
-/// The first control point met before (`met`) that `profile` misses, with
-/// the amount.
-fn broken_control(profile: &Profile, controls: &[ControlPoint], met: &[bool]) -> Option<(usize, f64)> {
+/// The status of the control points `near` (indices into all of them),
+/// from the stretch of the profile around `index` that holds them.
+fn near_status(profile: &Profile, run: &Run<'_>, index: usize, near: &[usize]) -> Option<Vec<ControlStatus>> {
+    let points: Vec<ControlPoint> = near.iter().filter_map(|&i| run.controls.get(i).cloned()).collect();
+    let lo = points.iter().map(|c| c.station).fold(f64::INFINITY, f64::min);
+    let hi = points.iter().map(|c| c.station).fold(f64::NEG_INFINITY, f64::max);
+    let alignment = Alignment::new(&part(profile, index, lo, hi)).ok()?;
+    Some(check_controls(&alignment, &points))
+}
+
+/// Which of the control points `near` the profile meets.
+fn met_controls(profile: &Profile, run: &Run<'_>, index: usize, near: &[usize]) -> Vec<bool> {
+    if near.is_empty() {
+        return Vec::new();
+    }
+    near_status(profile, run, index, near).map_or_else(
+        || vec![false; near.len()],
+        |status| status.iter().map(|s| matches!(s, ControlStatus::Met(_))).collect(),
+    )
+}
+
+/// The first control point met before (`met`, one per point `near`) that
+/// `profile` misses, with the amount: its index among all control points.
+fn broken_control(
+    profile: &Profile,
+    run: &Run<'_>,
+    index: usize,
+    near: &[usize],
+    met: &[bool],
+) -> Option<(usize, f64)> {
     if !met.contains(&true) {
         return None;
     }
-    let alignment = Alignment::new(profile).ok()?;
-    check_controls(&alignment, controls).iter().zip(met).enumerate().find_map(|(i, (s, &was))| match s {
+    let status = near_status(profile, run, index, near)?;
+    status.iter().zip(met).zip(near).find_map(|((s, &was), &i)| match s {
         ControlStatus::Missed(_, miss) if was => Some((i, *miss)),
         _ => None,
     })
 }
 
-fn fit_one(
-    profile: &mut Profile,
-    criteria: &ResolvedCriteria,
-    controls: &[ControlPoint],
-    index: usize,
-    increment: f64,
-) -> FitOutcome {
+fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -> FitOutcome {
+    let (criteria, controls) = (run.criteria, run.controls);
     let units = profile.units;
     let len = units.length_symbol();
     let old_length = profile.pvis.get(index).map_or(0.0, |p| p.curve.length());
@@ -121,11 +208,11 @@ fn fit_one(
         outcome.message = format!("{name}: no grade change, no curve needed");
         return outcome;
     }
-    if let Some(reason) = sight_refused(profile, criteria, index) {
+    if let Some(reason) = sight_refused(profile, run, index) {
         outcome.message = format!("{name}: {reason}; unchanged");
         return outcome;
     }
-    if clears(profile, criteria, index) {
+    if clears(profile, run, index) {
         outcome.cleared = true;
         outcome.message = format!("{name}: already clears every criterion at {old_length:.2} {len}");
         return outcome;
@@ -138,13 +225,14 @@ fn fit_one(
     let needed = check.length_required.max(check.min_length).max(old_length);
     let mut length = ceil_to(needed, increment);
     let steps_limit = 400;
-    let met = met_controls(profile, controls);
+    let near = controls_near(profile, controls, index);
+    let met = met_controls(profile, run, index, &near);
     for _ in 0..steps_limit {
         if length > max_length * (1.0 + 1e-12) {
             break;
         }
         set_length(profile, index, length);
-        if let Some((c, miss)) = broken_control(profile, controls, &met) {
+        if let Some((c, miss)) = broken_control(profile, run, index, &near, &met) {
             if let Some(p) = profile.pvis.get_mut(index) {
                 *p = original;
             }
@@ -155,7 +243,7 @@ fn fit_one(
             );
             return outcome;
         }
-        if clears(profile, criteria, index) {
+        if clears(profile, run, index) {
             outcome.new_length = length;
             outcome.cleared = true;
             outcome.message = format!("{name}: lengthened from {old_length:.2} {len} to {length:.2} {len}");
@@ -194,10 +282,9 @@ fn geometry_at(profile: &Profile, index: usize) -> Option<CurveGeometry> {
     Some(CurveGeometry::new(index, a, b, c))
 }
 
-/// How far from a curve an eye can still be held up by it: the largest
-/// sight distance any station of the profile can require.
-fn reach(profile: &Profile, criteria: &ResolvedCriteria) -> f64 {
-    let steepest = profile
+/// The steepest tangent grade of `profile`, percent.
+fn steepest(profile: &Profile) -> f64 {
+    profile
         .pvis
         .windows(2)
         .filter_map(|w| match w {
@@ -205,29 +292,33 @@ fn reach(profile: &Profile, criteria: &ResolvedCriteria) -> f64 {
             _ => None,
         })
         .filter(|g| g.is_finite())
-        .fold(0.0, f64::max);
+        .fold(0.0, f64::max)
+}
+
+/// How far from a curve an eye can still be held up by it: the largest
+/// sight distance any station of the profile can require.
+fn reach(profile: &Profile, criteria: &ResolvedCriteria) -> f64 {
     let ssd = criteria.get(CriterionId::StoppingSightDistance);
-    let largest = criteria.largest_requirement(steepest);
+    let largest = criteria.largest_requirement(steepest(profile));
     let cap = criteria.get(CriterionId::SightCap);
     if largest.is_finite() { largest.max(ssd).min(cap.max(ssd)) } else { cap.max(ssd) }
 }
 
 /// The eye stations around the curve at `index` that can see onto it.
-fn window(profile: &Profile, criteria: &ResolvedCriteria, curve: &CurveGeometry) -> (f64, f64) {
-    let reach = reach(profile, criteria);
+fn window(profile: &Profile, run: &Run<'_>, curve: &CurveGeometry) -> (f64, f64) {
     let length = (profile.pvis.get(curve.index + 1).map_or(curve.pvt.0, |p| p.station.0)
         - profile.pvis.get(curve.index.wrapping_sub(1)).map_or(curve.pvc.0, |p| p.station.0))
     .max(0.0);
     // The curve can grow to the neighbouring PVIs: look that far too.
-    (curve.pvi.0 - length - reach, curve.pvi.0 + length + reach)
+    (curve.pvi.0 - length - run.reach, curve.pvi.0 + length + run.reach)
 }
 
 /// Why the sight distance around the curve at `index` would not be computed
 /// (too many stations at the step in force), if so.
-fn sight_refused(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> Option<String> {
+fn sight_refused(profile: &Profile, run: &Run<'_>, index: usize) -> Option<String> {
     let curve = geometry_at(profile, index)?;
-    let (lo, hi) = window(profile, criteria, &curve);
-    let step = criteria.get(CriterionId::SightStep);
+    let (lo, hi) = window(profile, run, &curve);
+    let step = run.criteria.get(CriterionId::SightStep);
     let count = (hi - lo) / step;
     (count.is_nan() || count > MAX_SIGHT_STATIONS).then(|| {
         format!(
@@ -240,8 +331,9 @@ fn sight_refused(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -
 
 /// Whether the curve at `index` meets the curve criteria (minimum length
 /// included) and the available sight distance around it.
-fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool {
-    if !profile.problems().is_empty() {
+fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
+    let criteria = run.criteria;
+    if !run.clean {
         return false;
     }
     let Some(curve) = geometry_at(profile, index) else { return false };
@@ -250,12 +342,19 @@ fn clears(profile: &Profile, criteria: &ResolvedCriteria, index: usize) -> bool 
     if !check.ok || below(curve.length(), check.min_length) {
         return false;
     }
-    let Ok(alignment) = Alignment::new(profile) else { return false };
     let step = criteria.get(CriterionId::SightStep);
     // Eyes that can see onto the curve: up to the largest requirement before
     // it travelling forward, and after it travelling backward.
-    let reach = reach(profile, criteria);
-    let stations = stations_between(&alignment, step, curve.pvc.0 - reach, curve.pvt.0 + reach);
+    let (lo, hi) = (curve.pvc.0 - run.reach, curve.pvt.0 + run.reach);
+    // Only the stretch those eyes look at is built (they look `beyond` at
+    // most; one step more to be safe). Its problems are the whole profile's
+    // there, and the rest of the profile was clean.
+    let local = match run.beyond {
+        Some(beyond) => part(profile, index, lo - beyond - step, hi + beyond + step),
+        None => profile.clone(),
+    };
+    let Ok(alignment) = Alignment::new(&local) else { return false };
+    let stations = grid_between(run.span.0, run.span.1, step, lo, hi);
     // A crest limits daylight sight distance and a sag headlight sight
     // distance; only the kind this curve can cause counts against it.
     let mut setup = criteria.sight_setup();

@@ -423,3 +423,71 @@ fn lengthen_to_clear_never_breaks_a_met_control_point() {
     assert!(outcomes.first().is_some_and(|o| o.cleared), "{outcomes:?}");
     assert!(fitted.pvis.get(1).is_some_and(|p| p.curve.length() >= 104.0));
 }
+
+/// Each fit builds only the stretch of profile its curve's eyes look at.
+/// On an 80-PVI rolling profile (PVIs 150 m apart, closer than the eyes
+/// look), with the grade-adjusted requirement (which
+/// looks furthest) and control points near several curves, what the fit
+/// clears the check of the whole profile passes, so the stretch was wide
+/// enough; and fitting the curves of a long profile gives, curve for curve,
+/// the lengths found when the same curves sit in a profile cut short around
+/// them (the rest of the profile cannot change them).
+#[test]
+fn each_fit_looks_only_as_far_as_it_must() {
+    let pvis: Vec<Pvi> = gradewright_geometry::synthetic::rolling_profile(Units::Metric, 81, 12_000.0)
+        .pvis
+        .into_iter()
+        .map(|p| if p.curve.is_curve() { Pvi::with_curve(p.station.0, p.elevation, 40.0) } else { p })
+        .collect();
+    let profile = Profile::new(Units::Metric, pvis.clone());
+    let criteria = grade_adjusted(100.0);
+    let before = check_profile(&profile, &criteria);
+    let targets = before.failing_curves();
+    assert!(targets.len() > 20, "{targets:?}");
+    // Two curves the fit lengthens when nothing holds it back get a control
+    // point at the road's elevation with their short curves (met exactly):
+    // a minimum under a crest, a maximum over a sag, so a longer curve
+    // there would miss it.
+    let (_, free) = lengthen_to_clear(&profile, &criteria, &[], &targets, 5.0);
+    let lengthened: Vec<usize> =
+        free.iter().filter(|o| o.cleared && o.new_length > o.old_length).map(|o| o.index).collect();
+    assert!(lengthened.len() > 10, "{free:?}");
+    let held = [lengthened[2], lengthened[lengthened.len() - 3]];
+    let alignment = Alignment::new(&profile).unwrap_or_else(|e| panic!("{e:?}"));
+    let controls = held.map(|i| {
+        let y = alignment.sample(pvis[i].station).map_or(f64::NAN, |s| s.elevation);
+        ControlPoint {
+            name: format!("Held {i}"),
+            station: pvis[i].station.0,
+            kind: if y < pvis[i].elevation { ControlKind::Minimum } else { ControlKind::Maximum },
+            elevation: y,
+            tolerance: 0.0,
+            clearance: 0.0,
+        }
+    });
+    let (fitted, outcomes) = lengthen_to_clear(&profile, &criteria, &controls, &targets, 5.0);
+    let after = check_profile(&fitted, &criteria);
+    let cleared: Vec<usize> = outcomes.iter().filter(|o| o.cleared).map(|o| o.index).collect();
+    assert!(cleared.len() > 10, "{outcomes:?}");
+    for o in outcomes.iter().filter(|o| held.contains(&o.index)) {
+        assert!(!o.cleared && o.message.contains("would miss"), "{o:?}");
+    }
+    for &i in &cleared {
+        let fails: Vec<_> =
+            after.findings.iter().filter(|f| f.pvi == Some(i) && f.severity == Severity::Fail).collect();
+        assert!(fails.is_empty(), "PVI {} cleared by the fit but fails the whole check: {fails:?}", i + 1);
+    }
+    // The first 40 PVIs alone, ending at PVI 40 as a plain end: the curves
+    // up to PVI 30 (1.5 km from the cut, beyond every eye that sees them)
+    // get the same lengths as in the whole profile.
+    let short = Profile::new(Units::Metric, {
+        let mut p = pvis[..40].to_vec();
+        p[39].curve = VerticalCurve::None;
+        p
+    });
+    let near: Vec<usize> = targets.iter().copied().filter(|&i| i < 30).collect();
+    let (alone, _) = lengthen_to_clear(&short, &criteria, &controls, &near, 5.0);
+    for &i in &near {
+        assert_eq!(alone.pvis[i].curve, fitted.pvis[i].curve, "PVI {}", i + 1);
+    }
+}
