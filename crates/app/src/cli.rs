@@ -140,6 +140,9 @@ pub enum Command {
         /// Design speed (km/h or mph); overrides the project's
         #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
+        /// Sight-distance station step (default 1 m or 5 ft); overrides the project's
+        #[arg(long, allow_negative_numbers = true)]
+        step: Option<f64>,
     },
     /// Merge existing ground (CSV or LandXML) and/or control points (CSV) into a project, replacing what it had
     Import {
@@ -266,6 +269,9 @@ pub enum Command {
         /// Design speed (km/h or mph); overrides the project's
         #[arg(long, allow_negative_numbers = true)]
         design_speed: Option<f64>,
+        /// Sight-distance station step (default 1 m or 5 ft); overrides the project's
+        #[arg(long, allow_negative_numbers = true)]
+        step: Option<f64>,
         /// Output format
         #[arg(long, value_enum, default_value_t)]
         format: Format,
@@ -397,10 +403,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 positive("--design-speed", "the design speed", v)?;
             }
             let mut loaded = load(&input, units, &pick)?;
-            if let Some(step) = step {
-                positive("--step", "the station step", step)?;
-                loaded.project.criteria.sight_step = gradewright_geometry::Setting::Override(step);
-            }
+            override_step(&mut loaded, step)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             let alignment = build(&loaded)?;
             let Some(sight) = gradewright_geometry::compute_sight(&alignment, &criteria) else {
@@ -417,7 +420,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(&buffer)?;
             Ok(ExitCode::SUCCESS)
         }
-        Some(Command::Fit { input, pick, output, units, increment, design_speed }) => {
+        Some(Command::Fit { input, pick, output, units, increment, design_speed, step }) => {
             if let Some(v) = design_speed {
                 positive("--design-speed", "the design speed", v)?;
             }
@@ -426,6 +429,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             }
             crate::export::check_file("-o", &output)?;
             let mut loaded = load(&input, units, &pick)?;
+            override_step(&mut loaded, step)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             let alignment = build(&loaded)?;
             refuse_unchecked_sight(&alignment, &criteria, &input)?;
@@ -664,11 +668,12 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             print(text.as_bytes())?;
             Ok(if analysis.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
         }
-        Some(Command::Check { input, pick, units, design_speed, format }) => {
+        Some(Command::Check { input, pick, units, design_speed, step, format }) => {
             if let Some(v) = design_speed {
                 positive("--design-speed", "the design speed", v)?;
             }
             let mut loaded = load(&input, units, &pick)?;
+            override_step(&mut loaded, step)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
             // Input that cannot be evaluated at all is bad input (exit 2), as
             // for every other command; curves that overlap or do not fit are
@@ -718,6 +723,15 @@ fn load(input: &std::path::Path, units: Option<UnitsArg>, pick: &PickArgs) -> an
     Ok(loaded)
 }
 
+/// `--step`: the sight-distance station step, over the project's.
+fn override_step(loaded: &mut Input, step: Option<f64>) -> anyhow::Result<()> {
+    if let Some(step) = step {
+        positive("--step", "the station step", step)?;
+        loaded.project.criteria.sight_step = gradewright_geometry::Setting::Override(step);
+    }
+    Ok(())
+}
+
 /// A check that could not run must not pass: the sight distance at the step
 /// in force must be computable, or the command stops with the limit named.
 fn refuse_unchecked_sight(
@@ -731,7 +745,7 @@ fn refuse_unchecked_sight(
     if count.is_nan() || count > gradewright_geometry::MAX_SIGHT_STATIONS {
         bail!(
             "{}: criteria.sight_step: a step of {step} {} over {span} {} would need more than {} stations; \
-             the sight distance could not be checked (use a larger step)",
+             the sight distance could not be checked (use a larger step: --step)",
             input.display(),
             alignment.units().length_symbol(),
             alignment.units().length_symbol(),
