@@ -407,3 +407,32 @@ fn site_data_flows_through_check_table_and_earthwork() {
     assert_eq!(o.status.code(), Some(2));
     assert!(stderr(&o).contains("no ground"), "{}", stderr(&o));
 }
+
+/// `check --step` and `fit --step` set the sight-distance station step as
+/// `sight --step` does: a step so small that the stations pass the limit is
+/// refused (exit 2, naming the option to use), a usable one runs, and a
+/// step that is not a positive number is bad usage.
+#[test]
+fn check_and_fit_take_the_sight_step() {
+    let project = asset("alder-brook-road.ron");
+    let project = project.to_string_lossy();
+    let out = temp_file("fitted.ron", "");
+    let out = out.to_string_lossy();
+    let tiny = run(&["check", &project, "--step", "1e-6"]);
+    assert_eq!(tiny.status.code(), Some(2), "{}", stderr(&tiny));
+    assert!(stderr(&tiny).contains("--step"), "{}", stderr(&tiny));
+    let coarse = run(&["check", &project, "--step", "10", "--format", "json"]);
+    assert!(matches!(coarse.status.code(), Some(0 | 1)), "{}", stderr(&coarse));
+    assert!(stdout(&coarse).contains("\"findings\""), "{}", stdout(&coarse));
+    for args in [["check", &project, "--step", "0"], ["fit", &project, "--step", "-5"]] {
+        let bad = if args[0] == "fit" {
+            run(&[args[0], args[1], args[2], args[3], "-o", &out])
+        } else {
+            run(&args)
+        };
+        assert_eq!(bad.status.code(), Some(2), "{args:?}: {}", stderr(&bad));
+        assert!(stderr(&bad).contains("--step"), "{}", stderr(&bad));
+    }
+    let fitted = run(&["fit", &project, "--step", "2", "-o", &out]);
+    assert!(matches!(fitted.status.code(), Some(0 | 1)), "{}", stderr(&fitted));
+}
