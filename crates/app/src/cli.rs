@@ -327,6 +327,58 @@ fn print(bytes: &[u8]) -> anyhow::Result<()> {
     Ok(())
 }
 
+/// Bytes held before standard output starts to stream.
+const SPILL_BYTES: usize = 8 << 20;
+
+/// Standard output for a table: what is written is held until it passes
+/// [`SPILL_BYTES`], so a table that fits is written whole or not at all (an
+/// error part-way writes nothing); a longer one streams, and memory stays
+/// flat however many rows there are (an error then ends the output where it
+/// happened, with exit status 2).
+struct Spill {
+    held: Vec<u8>,
+    /// The error standard output gave, if it did (a reader gone away ends
+    /// the output, it is not an error).
+    failed: Option<std::io::ErrorKind>,
+}
+
+impl Spill {
+    fn new() -> Self {
+        Self { held: Vec::new(), failed: None }
+    }
+
+    fn pass_on(&mut self) -> std::io::Result<()> {
+        let mut out = std::io::stdout().lock();
+        let written = out.write_all(&self.held).and_then(|()| out.flush());
+        self.held.clear();
+        written.inspect_err(|e| self.failed = Some(e.kind()))
+    }
+
+    /// Writes what is held. A table written with an error is passed on here
+    /// too when the error came from standard output itself.
+    fn finish(mut self, written: anyhow::Result<()>) -> anyhow::Result<()> {
+        if self.failed == Some(std::io::ErrorKind::BrokenPipe) {
+            return Ok(());
+        }
+        written?;
+        self.pass_on().context("writing to standard output")
+    }
+}
+
+impl std::io::Write for Spill {
+    fn write(&mut self, bytes: &[u8]) -> std::io::Result<usize> {
+        self.held.extend_from_slice(bytes);
+        if self.held.len() >= SPILL_BYTES {
+            self.pass_on()?;
+        }
+        Ok(bytes.len())
+    }
+
+    fn flush(&mut self) -> std::io::Result<()> {
+        Ok(())
+    }
+}
+
 fn one_line(e: &anyhow::Error) -> String {
     e.chain().map(ToString::to_string).collect::<Vec<_>>().join(": ").replace('\n', " ")
 }
@@ -356,8 +408,8 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             if let Some(v) = interval {
                 positive("--interval", "the station interval", v)?;
             }
-            let loaded = load(&input, units, &pick)?;
-            let alignment = build(&loaded)?;
+            let mut loaded = load(&input, units, &pick)?;
+            let alignment = build_moving(&mut loaded)?;
             let project = &loaded.project;
             let stations = if at.is_empty() {
                 let len = project.units.length_symbol();
@@ -384,9 +436,9 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                     .map(|text| parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}")))
                     .collect::<anyhow::Result<Vec<_>>>()?
             };
-            let mut buffer = Vec::new();
-            gradewright_exchange::write_station_table(
-                &mut buffer,
+            let mut out = Spill::new();
+            let written = gradewright_exchange::write_station_table(
+                &mut out,
                 &alignment,
                 &project.ground,
                 &stations,
@@ -394,8 +446,8 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             )
             .map_err(|e| {
                 if at.is_empty() { anyhow!("{}: {e}", input.display()) } else { anyhow!("--at: {e}") }
-            })?;
-            print(&buffer)?;
+            });
+            out.finish(written)?;
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Sight { input, pick, units, design_speed, step }) => {
@@ -405,7 +457,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let mut loaded = load(&input, units, &pick)?;
             override_step(&mut loaded, step)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
-            let alignment = build(&loaded)?;
+            let alignment = build_moving(&mut loaded)?;
             let Some(sight) = gradewright_geometry::compute_sight(&alignment, &criteria) else {
                 bail!(
                     "--step: more than {} stations for a profile {} {} long; use a larger step",
@@ -414,10 +466,10 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                     alignment.units().length_symbol()
                 );
             };
-            let mut buffer = Vec::new();
-            gradewright_exchange::write_sight_table(&mut buffer, &sight)
-                .map_err(|e| anyhow!("{}: {e}", input.display()))?;
-            print(&buffer)?;
+            let mut out = Spill::new();
+            let written = gradewright_exchange::write_sight_table(&mut out, &sight)
+                .map_err(|e| anyhow!("{}: {e}", input.display()));
+            out.finish(written)?;
             Ok(ExitCode::SUCCESS)
         }
         Some(Command::Fit { input, pick, output, units, increment, design_speed, step }) => {
@@ -805,12 +857,23 @@ fn write_like_input(
 /// Builds the alignment, or one line naming file, line and field of the first
 /// problem (and how many more there are).
 fn build(input: &Input) -> anyhow::Result<Alignment> {
-    Alignment::new(&input.project.profile()).map_err(|problems| {
-        let Some(first) = problems.first() else { return anyhow!("invalid profile") };
-        let more = match problems.len() {
-            1 => String::new(),
-            n => format!(" (and {} more problem(s); `gradewright check` lists them all)", n - 1),
-        };
-        anyhow!("{}: {first}{more}", input.locate(first))
-    })
+    Alignment::new(&input.project.profile()).map_err(|problems| refused(input, &problems))
+}
+
+/// [`build`], moving the PVIs out of the project into the alignment (no
+/// copy: for commands that need nothing else of them).
+fn build_moving(input: &mut Input) -> anyhow::Result<Alignment> {
+    let pvis = std::mem::take(&mut input.project.pvis);
+    Alignment::from_profile(gradewright_geometry::Profile::new(input.project.units, pvis))
+        .map_err(|problems| refused(input, &problems))
+}
+
+/// The error for a profile that cannot be built, at its first problem.
+fn refused(input: &Input, problems: &[gradewright_geometry::ProfileProblem]) -> anyhow::Error {
+    let Some(first) = problems.first() else { return anyhow!("invalid profile") };
+    let more = match problems.len() {
+        1 => String::new(),
+        n => format!(" (and {} more problem(s); `gradewright check` lists them all)", n - 1),
+    };
+    anyhow!("{}: {first}{more}", input.locate(first))
 }

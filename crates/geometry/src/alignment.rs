@@ -56,7 +56,24 @@ impl Alignment {
         if !problems.is_empty() {
             return Err(problems);
         }
-        let pvis = profile.pvis.clone();
+        Ok(Self::build(profile.units, profile.pvis.clone()))
+    }
+
+    /// [`Self::new`], keeping the profile's PVIs instead of copying them
+    /// (for a profile of millions of PVIs, read once and not needed again).
+    ///
+    /// # Errors
+    /// Every [`ProfileProblem`] found, when there is any.
+    pub fn from_profile(profile: Profile) -> Result<Self, Vec<ProfileProblem>> {
+        let problems = profile.problems();
+        if !problems.is_empty() {
+            return Err(problems);
+        }
+        Ok(Self::build(profile.units, profile.pvis))
+    }
+
+    /// The pieces of PVIs already validated.
+    fn build(units: Units, pvis: Vec<Pvi>) -> Self {
         let curves = interior_curves(&pvis);
         let mut segments = Vec::with_capacity(pvis.len() * 3);
         // Tangent from the end of the previous curve (or the first PVI) to the
@@ -84,7 +101,7 @@ impl Alignment {
                 tangent_start = (c.pvt.0, c.pvt_elevation);
             }
         }
-        Ok(Self { units: profile.units, pvis, curves, segments })
+        Self { units, pvis, curves, segments }
     }
 
     /// Unit system.
