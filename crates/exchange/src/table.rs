@@ -42,6 +42,23 @@ pub fn interval_stations(alignment: &Alignment, interval: f64) -> Vec<f64> {
     stations
 }
 
+/// [`number`], written into `buffer` (cleared first): no allocation per
+/// number once the buffer has grown.
+pub(crate) fn number_into(buffer: &mut String, value: f64, decimals: Option<usize>) {
+    use std::fmt::Write as _;
+    buffer.clear();
+    let value = if value == 0.0 { 0.0 } else { value }; // no "-0"
+    // A whole number prints as the integer it is (what `{}` writes for it),
+    // without the float formatter.
+    let whole = value.fract() == 0.0 && value.abs() < 1e15;
+    #[allow(clippy::cast_possible_truncation)]
+    let _ = match decimals {
+        None if whole => write!(buffer, "{}", value as i64),
+        None => write!(buffer, "{value}"),
+        Some(_) => write!(buffer, "{}", number(value, decimals)),
+    };
+}
+
 pub(crate) fn number(value: f64, decimals: Option<usize>) -> String {
     let value = if value == 0.0 { 0.0 } else { value }; // no "-0"
     match decimals {
@@ -180,6 +197,7 @@ pub fn write_sight_table(
 ) -> Result<(), TableError> {
     let mut csv = csv::Writer::from_writer(out);
     csv.write_record(SIGHT_HEADER)?;
+    let mut field = String::new();
     for s in &sight.samples {
         if ![s.station, s.forward, s.backward, s.required_forward, s.required_backward]
             .iter()
@@ -187,19 +205,17 @@ pub fn write_sight_table(
         {
             return Err(TableError::NotFinite { station: s.station });
         }
-        csv.write_record([
-            number(s.station, None),
-            number(s.forward, None),
-            number(s.backward, None),
-            number(s.required_forward, None),
-            number(s.required_backward, None),
-            match (sight.reaches_cap(s.forward), sight.reaches_cap(s.backward)) {
-                (false, false) => "none".to_owned(),
-                (true, false) => "forward".to_owned(),
-                (false, true) => "backward".to_owned(),
-                (true, true) => "both".to_owned(),
-            },
-        ])?;
+        for value in [s.station, s.forward, s.backward, s.required_forward, s.required_backward] {
+            number_into(&mut field, value, None);
+            csv.write_field(&field)?;
+        }
+        csv.write_field(match (sight.reaches_cap(s.forward), sight.reaches_cap(s.backward)) {
+            (false, false) => "none",
+            (true, false) => "forward",
+            (false, true) => "backward",
+            (true, true) => "both",
+        })?;
+        csv.write_record(None::<&[u8]>)?;
     }
     csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
     Ok(())
