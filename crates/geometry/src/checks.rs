@@ -175,6 +175,75 @@ pub fn compute_sight(alignment: &Alignment, criteria: &ResolvedCriteria) -> Opti
     Some(sight_profile(alignment, &criteria.sight_setup(), criteria.sight_requirement(), &stations))
 }
 
+/// PVIs per stretch when a long profile's sight distance is computed one
+/// stretch at a time ([`sight_by_stretch`]).
+pub const PVIS_PER_STRETCH: usize = 2048;
+
+/// What [`sight_by_stretch`] did.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Streamed {
+    /// Every station was handed over.
+    Done,
+    /// Nothing was: the stations would pass [`MAX_SIGHT_STATIONS`].
+    TooManyStations,
+    /// Nothing was: the profile has problems ([`Profile::problems`]).
+    Problems,
+}
+
+/// [`compute_sight`] for a profile too long to hold at once: the samples, in
+/// station order, handed to `each` one stretch of `pvis_each` PVIs at a time.
+/// Each stretch is built from the PVIs around it ([`Profile::part`]), wide
+/// enough for every eye in it to look as far as the cap and to brake as far
+/// as the longest requirement the grades allow, so the samples are the
+/// whole profile's, bit for bit, in memory that does not grow with it.
+///
+/// # Errors
+/// The first error `each` returns (nothing more is computed).
+pub fn sight_by_stretch<E>(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    pvis_each: usize,
+    mut each: impl FnMut(&SightProfile) -> Result<(), E>,
+) -> Result<Streamed, E> {
+    if !profile.problems().is_empty() {
+        return Ok(Streamed::Problems);
+    }
+    let (Some(start), Some(end)) = (profile.start(), profile.end()) else { return Ok(Streamed::Problems) };
+    let (start, end) = (start.0, end.0);
+    let step = criteria.get(CriterionId::SightStep);
+    let count = (end - start) / step;
+    if count.is_nan() || count > MAX_SIGHT_STATIONS {
+        return Ok(Streamed::TooManyStations);
+    }
+    let setup = criteria.sight_setup();
+    let requirement = criteria.sight_requirement();
+    let steepest = profile
+        .pvis
+        .windows(2)
+        .filter_map(|w| match w {
+            [a, b] => Some(((b.elevation - a.elevation) / (b.station - a.station) * 100.0).abs()),
+            _ => None,
+        })
+        .fold(0.0, f64::max);
+    // How far around its eyes a stretch must be built: the cap, or the
+    // longest braking stretch; without a bound, the whole profile at once.
+    let beyond = setup.cap.max(requirement.look_ahead(steepest)) + step;
+    let pvis_each = if beyond.is_finite() { pvis_each } else { profile.pvis.len() };
+    for stretch in profile.stretches(pvis_each) {
+        let stations: Vec<f64> = crate::visibility::grid_between(start, end, step, stretch.from, stretch.to)
+            .into_iter()
+            .filter(|&s| stretch.holds(s))
+            .collect();
+        if stations.is_empty() {
+            continue;
+        }
+        let part = profile.part(stretch.from - beyond, stretch.to + beyond, stretch.first..=stretch.last);
+        let Ok(alignment) = Alignment::new(&part) else { return Ok(Streamed::Problems) };
+        each(&sight_profile(&alignment, &setup, requirement, &stations))?;
+    }
+    Ok(Streamed::Done)
+}
+
 /// Checks `profile` against `criteria`: structural problems (as failures), then
 /// every curve, every tangent grade, and the available sight distance at every
 /// station in both directions.

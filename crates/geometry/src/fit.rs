@@ -78,8 +78,8 @@ struct Run<'a> {
 impl<'a> Run<'a> {
     fn new(profile: &Profile, criteria: &'a ResolvedCriteria, controls: &'a [ControlPoint]) -> Self {
         let cap = criteria.get(CriterionId::SightCap);
-        let largest = criteria.largest_requirement(steepest(profile));
-        let beyond = (largest.is_finite() && cap.is_finite()).then(|| cap.max(largest));
+        let ahead = criteria.sight_requirement().look_ahead(steepest(profile));
+        let beyond = (ahead.is_finite() && cap.is_finite()).then(|| cap.max(ahead));
         Self {
             criteria,
             controls,
@@ -89,32 +89,6 @@ impl<'a> Run<'a> {
             span: (profile.start().map_or(f64::NAN, |s| s.0), profile.end().map_or(f64::NAN, |s| s.0)),
         }
     }
-}
-
-/// The PVIs around `index` whose road is the whole profile's, piece for
-/// piece and bit for bit, over [lo, hi]: the neighbours of `index` and as
-/// many more as it takes for the curves cut off at the ends to lie outside
-/// (the end PVIs of the part lose their curves).
-fn part(profile: &Profile, index: usize, lo: f64, hi: f64) -> Profile {
-    let pvis = &profile.pvis;
-    let last = pvis.len().saturating_sub(1);
-    let pvc = |i: usize| pvis.get(i).map_or(f64::NEG_INFINITY, |p| p.station.0 - p.curve.length_in());
-    let pvt = |i: usize| pvis.get(i).map_or(f64::INFINITY, |p| p.station.0 + p.curve.length_out());
-    let mut first = index.saturating_sub(2);
-    while first > 0 && pvc(first + 1) >= lo {
-        first -= 1;
-    }
-    let mut end = (index + 2).min(last);
-    while end < last && pvt(end - 1) <= hi {
-        end += 1;
-    }
-    let mut list = pvis.get(first..=end).unwrap_or(&[]).to_vec();
-    for at in [0, list.len().saturating_sub(1)] {
-        if let Some(p) = list.get_mut(at) {
-            p.curve = crate::VerticalCurve::None;
-        }
-    }
-    Profile::new(profile.units, list)
 }
 
 fn label(units: Units, s: f64) -> String {
@@ -153,7 +127,7 @@ fn near_status(profile: &Profile, run: &Run<'_>, index: usize, near: &[usize]) -
     let points: Vec<ControlPoint> = near.iter().filter_map(|&i| run.controls.get(i).cloned()).collect();
     let lo = points.iter().map(|c| c.station).fold(f64::INFINITY, f64::min);
     let hi = points.iter().map(|c| c.station).fold(f64::NEG_INFINITY, f64::max);
-    let alignment = Alignment::new(&part(profile, index, lo, hi)).ok()?;
+    let alignment = Alignment::new(&profile.part(lo, hi, index.saturating_sub(1)..=index + 1)).ok()?;
     Some(check_controls(&alignment, &points))
 }
 
@@ -350,7 +324,9 @@ fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
     // most; one step more to be safe). Its problems are the whole profile's
     // there, and the rest of the profile was clean.
     let local = match run.beyond {
-        Some(beyond) => part(profile, index, lo - beyond - step, hi + beyond + step),
+        Some(beyond) => {
+            profile.part(lo - beyond - step, hi + beyond + step, index.saturating_sub(1)..=index + 1)
+        }
         None => profile.clone(),
     };
     let Ok(alignment) = Alignment::new(&local) else { return false };

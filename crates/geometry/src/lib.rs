@@ -27,6 +27,7 @@ mod profile;
 mod project;
 pub mod sight;
 mod station;
+pub mod stretch;
 pub mod synthetic;
 pub mod tolerance;
 mod units;
@@ -36,8 +37,8 @@ mod write;
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
 pub use analysis::{Analysis, is_design_problem, unchecked_report};
 pub use checks::{
-    CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, Severity, check_curve, check_profile,
-    check_profile_with_sight, compute_sight, structural_findings,
+    CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Severity, Streamed, check_curve,
+    check_profile, check_profile_with_sight, compute_sight, sight_by_stretch, structural_findings,
 };
 pub use controls::{ControlKind, ControlPoint, ControlStatus, check_controls, control_findings};
 pub use criteria::{
@@ -55,5 +56,6 @@ pub use ground::{CutFillSummary, Depth, Ground, cut_fill_summary, depth_at, grad
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use project::{ExportSettings, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};
+pub use stretch::Stretch;
 pub use units::{Foot, Units, length_factor};
 pub use write::write_atomic;

@@ -383,6 +383,25 @@ impl Requirement {
         }
     }
 
+    /// How far ahead of an eye working out this requirement can look on
+    /// grades no steeper than `max_grade_percent`: [`Self::largest`], or
+    /// infinity when a downgrade that steep leaves no finite braking distance
+    /// (the fixed point's iterates then have no bound).
+    pub fn look_ahead(self, max_grade_percent: f64) -> f64 {
+        match self {
+            Self::Design(d) => d,
+            Self::GradeAdjusted { units, speed, decel, .. } => {
+                let grade = -max_grade_percent.abs() / 100.0;
+                let braking = sight::braking_distance(units, speed, decel, grade);
+                if braking.is_finite() && braking > 0.0 {
+                    self.largest(max_grade_percent)
+                } else {
+                    f64::INFINITY
+                }
+            }
+        }
+    }
+
     /// The largest distance this can require on grades no steeper than
     /// `max_grade_percent` (for how far to look around a curve).
     pub fn largest(self, max_grade_percent: f64) -> f64 {

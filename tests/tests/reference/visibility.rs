@@ -225,3 +225,41 @@ fn threads_and_walking_do_not_change_the_result() {
     // Something is measured: on this rolling profile crests hide the object.
     assert!(one.samples.iter().filter(|x| !one.reaches_cap(x.forward)).count() > 1000);
 }
+
+/// A long profile computed one stretch of PVIs at a time gives the whole
+/// profile's samples bit for bit, for the design SSD and for the
+/// grade-adjusted requirement (which looks furthest ahead), with stretches
+/// far shorter than the cap.
+#[test]
+fn stretch_by_stretch_is_the_whole_profile() {
+    use gradewright_geometry::{Criteria, Streamed, compute_sight, sight_by_stretch};
+    let profile = rolling_profile(Units::Metric, 300, 15_000.0);
+    let a = Alignment::new(&profile).unwrap_or_else(|e| panic!("{e:?}"));
+    for grade_adjusted in [false, true] {
+        let criteria =
+            Criteria { design_speed: Some(90.0), grade_adjusted_ssd: grade_adjusted, ..Criteria::default() }
+                .resolve(Units::Metric)
+                .unwrap_or_else(|e| panic!("{e}"));
+        let whole = compute_sight(&a, &criteria).unwrap_or_else(|| panic!("stations"));
+        for each in [1, 3, 40] {
+            let mut samples = Vec::new();
+            let done = sight_by_stretch(&profile, &criteria, each, |block| {
+                samples.extend_from_slice(&block.samples);
+                Ok::<(), ()>(())
+            });
+            assert_eq!(done, Ok(Streamed::Done));
+            assert_eq!(samples.len(), whole.samples.len(), "{each} PVIs a stretch");
+            for (x, y) in samples.iter().zip(&whole.samples) {
+                assert_eq!(x, y, "{each} PVIs a stretch, grade adjusted: {grade_adjusted}");
+            }
+        }
+    }
+    let tiny = Criteria {
+        design_speed: Some(90.0),
+        sight_step: gradewright_geometry::Setting::Override(1e-4),
+        ..Criteria::default()
+    }
+    .resolve(Units::Metric)
+    .unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(sight_by_stretch(&profile, &tiny, 40, |_| Ok::<(), ()>(())), Ok(Streamed::TooManyStations));
+}
