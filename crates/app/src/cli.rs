@@ -457,18 +457,33 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let mut loaded = load(&input, units, &pick)?;
             override_step(&mut loaded, step)?;
             let criteria = resolve(&mut loaded.project, design_speed, &input)?;
-            let alignment = build_moving(&mut loaded)?;
-            let Some(sight) = gradewright_geometry::compute_sight(&alignment, &criteria) else {
-                bail!(
-                    "--step: more than {} stations for a profile {} {} long; use a larger step",
-                    gradewright_geometry::MAX_SIGHT_STATIONS,
-                    alignment.end() - alignment.start(),
-                    alignment.units().length_symbol()
-                );
-            };
+            let profile = take_profile(&mut loaded)?;
+            // One stretch of PVIs at a time, straight to the output: memory
+            // stays flat however long the profile is.
             let mut out = Spill::new();
-            let written = gradewright_exchange::write_sight_table(&mut out, &sight)
-                .map_err(|e| anyhow!("{}: {e}", input.display()));
+            let written = {
+                let mut table = gradewright_exchange::SightTable::new(&mut out)?;
+                let streamed = gradewright_geometry::sight_by_stretch(
+                    &profile,
+                    &criteria,
+                    gradewright_geometry::PVIS_PER_STRETCH,
+                    |block| table.rows(block),
+                );
+                match streamed {
+                    Ok(gradewright_geometry::Streamed::Done) => table.finish().map_err(anyhow::Error::from),
+                    Ok(gradewright_geometry::Streamed::TooManyStations) => {
+                        let span = profile.end().unwrap_or_default() - profile.start().unwrap_or_default();
+                        bail!(
+                            "--step: more than {} stations for a profile {span} {} long; use a larger step",
+                            gradewright_geometry::MAX_SIGHT_STATIONS,
+                            profile.units.length_symbol()
+                        );
+                    }
+                    Ok(gradewright_geometry::Streamed::Problems) => Err(anyhow!("invalid profile")),
+                    Err(e) => Err(e.into()),
+                }
+            }
+            .map_err(|e| anyhow!("{}: {e}", input.display()));
             out.finish(written)?;
             Ok(ExitCode::SUCCESS)
         }
@@ -866,6 +881,15 @@ fn build_moving(input: &mut Input) -> anyhow::Result<Alignment> {
     let pvis = std::mem::take(&mut input.project.pvis);
     Alignment::from_profile(gradewright_geometry::Profile::new(input.project.units, pvis))
         .map_err(|problems| refused(input, &problems))
+}
+
+/// The project's profile, moved out of it (no copy), once it is known to
+/// have no problem.
+fn take_profile(input: &mut Input) -> anyhow::Result<gradewright_geometry::Profile> {
+    let pvis = std::mem::take(&mut input.project.pvis);
+    let profile = gradewright_geometry::Profile::new(input.project.units, pvis);
+    let problems = profile.problems();
+    if problems.is_empty() { Ok(profile) } else { Err(refused(input, &problems)) }
 }
 
 /// The error for a profile that cannot be built, at its first problem.

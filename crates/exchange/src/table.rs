@@ -195,28 +195,60 @@ pub fn write_sight_table(
     out: impl Write,
     sight: &gradewright_geometry::visibility::SightProfile,
 ) -> Result<(), TableError> {
-    let mut csv = csv::Writer::from_writer(out);
-    csv.write_record(SIGHT_HEADER)?;
-    let mut field = String::new();
-    for s in &sight.samples {
-        if ![s.station, s.forward, s.backward, s.required_forward, s.required_backward]
-            .iter()
-            .all(|v| v.is_finite())
-        {
-            return Err(TableError::NotFinite { station: s.station });
-        }
-        for value in [s.station, s.forward, s.backward, s.required_forward, s.required_backward] {
-            number_into(&mut field, value, None);
-            csv.write_field(&field)?;
-        }
-        csv.write_field(match (sight.reaches_cap(s.forward), sight.reaches_cap(s.backward)) {
-            (false, false) => "none",
-            (true, false) => "forward",
-            (false, true) => "backward",
-            (true, true) => "both",
-        })?;
-        csv.write_record(None::<&[u8]>)?;
+    let mut table = SightTable::new(out)?;
+    table.rows(sight)?;
+    table.finish()
+}
+
+/// A sight-distance table written a block of stations at a time (for a
+/// profile computed one stretch at a time): the header, then the rows of
+/// each block as [`write_sight_table`] writes them.
+pub struct SightTable<W: Write> {
+    csv: csv::Writer<W>,
+    field: String,
+}
+
+impl<W: Write> SightTable<W> {
+    /// Starts the table: writes the header.
+    ///
+    /// # Errors
+    /// An I/O error of `out`.
+    pub fn new(out: W) -> Result<Self, TableError> {
+        let mut csv = csv::Writer::from_writer(out);
+        csv.write_record(SIGHT_HEADER)?;
+        Ok(Self { csv, field: String::new() })
     }
-    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
-    Ok(())
+
+    /// Writes one row per sample of `sight`.
+    ///
+    /// # Errors
+    /// A value that is not finite (nothing of that row is written), or an I/O error.
+    pub fn rows(&mut self, sight: &gradewright_geometry::visibility::SightProfile) -> Result<(), TableError> {
+        for s in &sight.samples {
+            let values = [s.station, s.forward, s.backward, s.required_forward, s.required_backward];
+            if !values.iter().all(|v| v.is_finite()) {
+                return Err(TableError::NotFinite { station: s.station });
+            }
+            for value in values {
+                number_into(&mut self.field, value, None);
+                self.csv.write_field(&self.field)?;
+            }
+            self.csv.write_field(match (sight.reaches_cap(s.forward), sight.reaches_cap(s.backward)) {
+                (false, false) => "none",
+                (true, false) => "forward",
+                (false, true) => "backward",
+                (true, true) => "both",
+            })?;
+            self.csv.write_record(None::<&[u8]>)?;
+        }
+        Ok(())
+    }
+
+    /// Ends the table.
+    ///
+    /// # Errors
+    /// An I/O error of the output.
+    pub fn finish(mut self) -> Result<(), TableError> {
+        self.csv.flush().map_err(|e| TableError::Io(e.to_string()))
+    }
 }
