@@ -409,15 +409,16 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 positive("--interval", "the station interval", v)?;
             }
             let mut loaded = load(&input, units, &pick)?;
-            let alignment = build_moving(&mut loaded)?;
+            let profile = take_profile(&mut loaded)?;
             let project = &loaded.project;
-            let stations = if at.is_empty() {
+            let mut out = Spill::new();
+            let written = if at.is_empty() {
                 let len = project.units.length_symbol();
                 let (interval, given) = match interval {
                     Some(v) => (v, true),
                     None => (project.units.table_interval(), false),
                 };
-                let span = alignment.end() - alignment.start();
+                let span = profile.end().unwrap_or_default() - profile.start().unwrap_or_default();
                 if span / interval > 1.0e7 {
                     if given {
                         bail!(
@@ -430,23 +431,32 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                         input.display()
                     );
                 }
-                gradewright_exchange::interval_stations(&alignment, interval)
+                // One stretch of PVIs at a time, straight to the output.
+                gradewright_exchange::write_interval_table(
+                    &mut out,
+                    &profile,
+                    &project.ground,
+                    interval,
+                    decimals,
+                    gradewright_geometry::PVIS_PER_STRETCH,
+                )
+                .map_err(|e| anyhow!("{}: {e}", input.display()))
             } else {
-                at.iter()
+                let stations = at
+                    .iter()
                     .map(|text| parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}")))
-                    .collect::<anyhow::Result<Vec<_>>>()?
+                    .collect::<anyhow::Result<Vec<_>>>()?;
+                let alignment =
+                    Alignment::from_profile(profile).map_err(|problems| refused(&loaded, &problems))?;
+                gradewright_exchange::write_station_table(
+                    &mut out,
+                    &alignment,
+                    &project.ground,
+                    &stations,
+                    decimals,
+                )
+                .map_err(|e| anyhow!("--at: {e}"))
             };
-            let mut out = Spill::new();
-            let written = gradewright_exchange::write_station_table(
-                &mut out,
-                &alignment,
-                &project.ground,
-                &stations,
-                decimals,
-            )
-            .map_err(|e| {
-                if at.is_empty() { anyhow!("{}: {e}", input.display()) } else { anyhow!("--at: {e}") }
-            });
             out.finish(written)?;
             Ok(ExitCode::SUCCESS)
         }
@@ -873,14 +883,6 @@ fn write_like_input(
 /// problem (and how many more there are).
 fn build(input: &Input) -> anyhow::Result<Alignment> {
     Alignment::new(&input.project.profile()).map_err(|problems| refused(input, &problems))
-}
-
-/// [`build`], moving the PVIs out of the project into the alignment (no
-/// copy: for commands that need nothing else of them).
-fn build_moving(input: &mut Input) -> anyhow::Result<Alignment> {
-    let pvis = std::mem::take(&mut input.project.pvis);
-    Alignment::from_profile(gradewright_geometry::Profile::new(input.project.units, pvis))
-        .map_err(|problems| refused(input, &problems))
 }
 
 /// The project's profile, moved out of it (no copy), once it is known to

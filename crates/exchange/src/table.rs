@@ -2,7 +2,7 @@
 
 use std::io::Write;
 
-use gradewright_geometry::{Alignment, Earthwork, Ground, Station, format_station};
+use gradewright_geometry::{Alignment, Earthwork, Ground, Profile, Station, format_station};
 
 /// The header of a station table.
 pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "grade_percent"];
@@ -91,43 +91,145 @@ pub fn write_station_table(
     stations: &[f64],
     decimals: Option<usize>,
 ) -> Result<(), TableError> {
-    let units = alignment.units();
-    let mut csv = csv::Writer::from_writer(out);
-    let with_ground = ground.range().is_some();
-    if with_ground {
-        csv.write_record(TABLE_HEADER.iter().chain(&GROUND_COLUMNS))?;
-    } else {
-        csv.write_record(TABLE_HEADER)?;
-    }
-    let mut cursor = alignment.cursor();
-    let mut row: Vec<String> = Vec::with_capacity(7);
-    for &s in stations {
-        let sample = cursor.sample(Station(s))?;
-        if !(sample.elevation.is_finite() && sample.grade_percent.is_finite()) {
-            return Err(TableError::NotFinite { station: s });
-        }
-        let label_decimals = decimals.unwrap_or(units.station_decimals());
-        row.clear();
-        row.extend([
-            number(s, decimals),
-            format_station(s, units, label_decimals),
-            number(sample.elevation, decimals),
-            number(sample.grade_percent, decimals),
-        ]);
-        if with_ground {
-            match ground.elevation_at(s) {
-                Some(g) => row.extend([
-                    number(g, decimals),
-                    number((g - sample.elevation).max(0.0), decimals),
-                    number((sample.elevation - g).max(0.0), decimals),
-                ]),
-                None => row.extend([String::new(), String::new(), String::new()]),
+    let mut table = StationTable::new(out, ground)?;
+    table.rows(alignment, ground, stations, decimals)?;
+    table.finish()
+}
+
+/// The table [`interval_stations`] and [`write_station_table`] make of a
+/// whole profile, made one stretch of `pvis_each` PVIs at a time
+/// ([`Profile::stretches`]): the same rows, bit for bit, in memory that does
+/// not grow with the profile. The profile must have no problem.
+///
+/// # Errors
+/// A profile with a problem, a value that is not finite, or an I/O error.
+pub fn write_interval_table(
+    out: impl Write,
+    profile: &Profile,
+    ground: &Ground,
+    interval: f64,
+    decimals: Option<usize>,
+    pvis_each: usize,
+) -> Result<(), TableError> {
+    let (Some(start), Some(end)) = (profile.start(), profile.end()) else {
+        return Err(TableError::Invalid);
+    };
+    let (start, end) = (start.0, end.0);
+    let scale = (end - start).abs().max(1.0) * 1e-12;
+    let mut table = StationTable::new(out, ground)?;
+    let mut kept: Option<f64> = None;
+    let mut stations = Vec::new();
+    for stretch in profile.stretches(pvis_each) {
+        let part = profile.part(stretch.from, stretch.to, stretch.first..=stretch.last);
+        let alignment = Alignment::new(&part).map_err(|_| TableError::Invalid)?;
+        stations.clear();
+        stations.extend(alignment.key_stations().iter().map(|(s, _)| s.0));
+        if interval.is_finite() && interval > 0.0 {
+            let steps = ((end - start) / interval).floor().clamp(0.0, 1.0e7);
+            // From a step before the stretch, so rounding never skips one.
+            let first = ((stretch.from - start) / interval).floor().clamp(1.0, 1.0e7 + 1.0) - 1.0;
+            #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+            for k in (first as u64)..=(steps as u64) {
+                #[allow(clippy::cast_precision_loss)]
+                let s = start + k as f64 * interval;
+                if s > end || !(s < stretch.to || stretch.closes) {
+                    break;
+                }
+                stations.push(s);
             }
         }
-        csv.write_record(&row)?;
+        stations.extend([start, end]);
+        stations.retain(|&s| stretch.holds(s));
+        stations.sort_by(f64::total_cmp);
+        // Duplicates go as in the whole table: each station against the last
+        // one kept, across stretches too.
+        stations.retain(|&s| {
+            let repeat = kept.is_some_and(|k| (s - k).abs() <= scale);
+            if !repeat {
+                kept = Some(s);
+            }
+            !repeat
+        });
+        table.rows(&alignment, ground, &stations, decimals)?;
     }
-    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
-    Ok(())
+    table.finish()
+}
+
+/// A station table written a block of stations at a time: the header, then
+/// the rows of each block as [`write_station_table`] writes them.
+pub struct StationTable<W: Write> {
+    csv: csv::Writer<W>,
+    with_ground: bool,
+    row: Vec<String>,
+}
+
+impl<W: Write> StationTable<W> {
+    /// Starts the table: writes the header, with [`GROUND_COLUMNS`] when
+    /// `ground` has points.
+    ///
+    /// # Errors
+    /// An I/O error of `out`.
+    pub fn new(out: W, ground: &Ground) -> Result<Self, TableError> {
+        let mut csv = csv::Writer::from_writer(out);
+        let with_ground = ground.range().is_some();
+        if with_ground {
+            csv.write_record(TABLE_HEADER.iter().chain(&GROUND_COLUMNS))?;
+        } else {
+            csv.write_record(TABLE_HEADER)?;
+        }
+        Ok(Self { csv, with_ground, row: Vec::with_capacity(7) })
+    }
+
+    /// Writes one row per station of `stations` (in the order given).
+    ///
+    /// # Errors
+    /// An out-of-range station (nothing more is written after it), a value
+    /// that is not finite, or an I/O error.
+    pub fn rows(
+        &mut self,
+        alignment: &Alignment,
+        ground: &Ground,
+        stations: &[f64],
+        decimals: Option<usize>,
+    ) -> Result<(), TableError> {
+        let units = alignment.units();
+        let mut cursor = alignment.cursor();
+        let row = &mut self.row;
+        for &s in stations {
+            let sample = cursor.sample(Station(s))?;
+            if !(sample.elevation.is_finite() && sample.grade_percent.is_finite()) {
+                return Err(TableError::NotFinite { station: s });
+            }
+            let label_decimals = decimals.unwrap_or(units.station_decimals());
+            row.clear();
+            row.extend([
+                number(s, decimals),
+                format_station(s, units, label_decimals),
+                number(sample.elevation, decimals),
+                number(sample.grade_percent, decimals),
+            ]);
+            if self.with_ground {
+                match ground.elevation_at(s) {
+                    Some(g) => row.extend([
+                        number(g, decimals),
+                        number((g - sample.elevation).max(0.0), decimals),
+                        number((sample.elevation - g).max(0.0), decimals),
+                    ]),
+                    None => row.extend([String::new(), String::new(), String::new()]),
+                }
+            }
+            self.csv.write_record(&*row)?;
+        }
+        Ok(())
+    }
+
+    /// Ends the table.
+    ///
+    /// # Errors
+    /// An I/O error of the output.
+    pub fn finish(mut self) -> Result<(), TableError> {
+        self.csv.flush().map_err(|e| TableError::Io(e.to_string()))
+    }
 }
 
 /// Why a table could not be written.
@@ -145,6 +247,9 @@ pub enum TableError {
     /// Writing failed.
     #[error("{0}")]
     Io(String),
+    /// The profile has a problem (check it first).
+    #[error("the profile has problems; `gradewright check` lists them")]
+    Invalid,
 }
 
 impl From<csv::Error> for TableError {
@@ -250,5 +355,39 @@ impl<W: Write> SightTable<W> {
     /// An I/O error of the output.
     pub fn finish(mut self) -> Result<(), TableError> {
         self.csv.flush().map_err(|e| TableError::Io(e.to_string()))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use gradewright_geometry::{GroundPoint, Units, synthetic::rolling_profile};
+
+    /// The table made one stretch at a time is the whole profile's, byte
+    /// for byte: with ground, at an interval that falls on PVIs and one that
+    /// does not, with stretches of one PVI upwards.
+    #[test]
+    fn stretch_by_stretch_is_the_whole_table() {
+        let profile = rolling_profile(Units::Metric, 60, 6_000.0);
+        let alignment = Alignment::new(&profile).unwrap_or_else(|e| panic!("{e:?}"));
+        let ground: Ground = (0..700)
+            .map(|i| GroundPoint { station: f64::from(i) * 7.3 + 500.0, elevation: 100.0 + f64::from(i % 9) })
+            .collect::<Vec<_>>()
+            .into();
+        for interval in [20.0, 7.77, 100.0 * 100.0 / 59.0] {
+            for decimals in [None, Some(2)] {
+                let mut whole = Vec::new();
+                let stations = interval_stations(&alignment, interval);
+                write_station_table(&mut whole, &alignment, &ground, &stations, decimals)
+                    .unwrap_or_else(|e| panic!("{e}"));
+                for each in [1, 2, 7, 1000] {
+                    let mut parts = Vec::new();
+                    write_interval_table(&mut parts, &profile, &ground, interval, decimals, each)
+                        .unwrap_or_else(|e| panic!("{e}"));
+                    assert!(parts == whole, "interval {interval}, {each} PVIs a stretch");
+                }
+                assert!(whole.len() > 5_000, "{}", whole.len());
+            }
+        }
     }
 }
