@@ -33,6 +33,21 @@ fn sight(c: &mut Criterion) {
             black_box(sight_profile(&alignment, &s, Requirement::Design(160.0), &stations).samples.len())
         });
     });
+    // The dense case: PVIs 20 m apart with 12 m curves, so an eye crosses
+    // some 60 pieces within the cap.
+    let dense = rolling_profile(Units::Metric, 1001, 20_000.0);
+    let Ok(dense) = Alignment::new(&dense) else { return };
+    let dense_stations = stations_every(&dense, 1.0);
+    c.bench_function(
+        "sight distance, 20 km / 1000 PVIs (20 m apart), 1 m step, both directions (exact)",
+        |b| {
+            b.iter(|| {
+                black_box(
+                    sight_profile(&dense, &s, Requirement::Design(160.0), &dense_stations).samples.len(),
+                )
+            });
+        },
+    );
     let mut group = c.benchmark_group("reference");
     group.sample_size(10);
     group.bench_function("sight distance, same grid, ray-marching reference (0.1 m march)", |b| {

@@ -29,6 +29,12 @@ pub const STATION_HAIR: f64 = 1e-6;
 /// Fraction of a step taken off before rounding up to it.
 pub const ROUNDING_HAIR: f64 = 1e-9;
 
+/// Room (relative to the elevations) a block of road pieces must leave
+/// before the sight-distance walk passes it whole: a block is passed only
+/// when the exact walk, piece by piece, could not have stopped in it, even
+/// allowing for rounding.
+pub const BLOCK_ROOM: f64 = 1e-9;
+
 /// Whether `value` falls short of the minimum `required` by more than the
 /// allowance [`PASS_RELATIVE`] (relative, with the same amount absolute near
 /// zero).

@@ -14,6 +14,12 @@
 //! quadratic, so each condition is a quadratic in t): no sampling, so the
 //! results match the closed-form AASHTO length formulas. Beyond the ends the
 //! end tangents are taken to continue (common practice for tie-ins).
+//!
+//! The walk passes whole blocks of pieces when their highest and lowest
+//! points show that nothing in them can stop the beam or hide the object
+//! (with [`crate::tolerance::BLOCK_ROOM`] to spare), and makes the running
+//! maximum exact again before it goes on piece by piece: every result is
+//! the piece-by-piece walk's, bit for bit ([`Road::piece_by_piece`]).
 
 use crate::{Alignment, Segment, Units, sight};
 
@@ -50,6 +56,48 @@ pub struct SightSetup {
 #[derive(Clone, Debug)]
 pub struct Road {
     pieces: Vec<Segment>,
+    /// The pieces summed up [`BLOCK`] at a time (the last, endless one
+    /// left out), so an eye can pass a block whole when nothing in it can
+    /// stop the beam or hide the object.
+    blocks: Vec<Block>,
+}
+
+/// Pieces per [`Block`].
+const BLOCK: usize = 2;
+
+/// Blocks passed whose bounds are kept for [`Road::restore`].
+const PASSED: usize = 64;
+
+/// [`BLOCK`] consecutive pieces of a road: where they run and how high and
+/// low the road gets on them.
+#[derive(Clone, Copy, Debug)]
+struct Block {
+    start: f64,
+    end: f64,
+    high: f64,
+    low: f64,
+}
+
+impl Block {
+    fn of(pieces: &[Segment]) -> Option<Self> {
+        let (first, last) = (pieces.first()?, pieces.last()?);
+        let (mut low, mut high) = (f64::INFINITY, f64::NEG_INFINITY);
+        for piece in pieces {
+            let mut points = [piece.elevation, piece.elevation_at(piece.end), f64::NAN];
+            if piece.rate != 0.0 {
+                let level = piece.start - piece.grade / piece.rate;
+                if level > piece.start && level < piece.end {
+                    points[2] = piece.elevation_at(level);
+                }
+            }
+            for y in points.into_iter().filter(|y| !y.is_nan()) {
+                low = low.min(y);
+                high = high.max(y);
+            }
+        }
+        let room = crate::tolerance::BLOCK_ROOM * (1.0 + high.abs().max(low.abs()));
+        Some(Self { start: first.start, end: last.end, high: high + room, low: low - room })
+    }
 }
 
 impl Road {
@@ -79,7 +127,17 @@ impl Road {
                 rate: 0.0,
             });
         }
-        Self { pieces }
+        let finite = pieces.len().saturating_sub(1);
+        let blocks = pieces.get(..finite).unwrap_or(&[]).chunks_exact(BLOCK).filter_map(Block::of).collect();
+        Self { pieces, blocks }
+    }
+
+    /// The same road walked piece by piece only, never a block at a time:
+    /// slower, and the yardstick the blocked walk is held to, bit for bit.
+    #[must_use]
+    pub fn piece_by_piece(mut self) -> Self {
+        self.blocks.clear();
+        self
     }
 
     /// The index of the piece holding road station `s` (the first when before).
@@ -141,7 +199,31 @@ impl Road {
         let h2 = setup.object_height;
         let mut running = f64::NEG_INFINITY;
         let mut running_at = f64::NAN;
-        for piece in self.pieces.iter().skip(start) {
+        let mut tried = usize::MAX;
+        let mut i = start;
+        while let Some(piece) = self.pieces.get(i) {
+            // Once there is a line of sight, whole blocks are passed while
+            // the object on them stays above every line of sight they could
+            // make (found from their highest and lowest points). If that
+            // carries past the cap, nothing hides the object; if a block
+            // might hide it, the running maximum is made exact over the
+            // blocks passed and the walk goes on piece by piece.
+            if tried != i && i.is_multiple_of(BLOCK) && running > f64::NEG_INFINITY {
+                tried = i;
+                let mut before = [f64::NAN; PASSED];
+                let first = i / BLOCK;
+                let passed = self.pass_blocks(first, s, eye, running, setup, &mut before);
+                if passed == usize::MAX {
+                    return (setup.cap, None);
+                }
+                if passed > first {
+                    (running, running_at) =
+                        self.restore(first, passed, s, eye, (running, running_at), &before);
+                    i = passed * BLOCK;
+                }
+                continue;
+            }
+            i += 1;
             let p = (piece.start - s).max(0.0);
             let q = (piece.end - s).min(setup.cap);
             if q <= p {
@@ -191,6 +273,86 @@ impl Road {
         (setup.cap, None)
     }
 
+    /// From block `first` on, the blocks an eye at road station `s` (at
+    /// elevation `eye`, the line of sight so far at most `running`) sees the
+    /// object over without a doubt: the index of the first block it may not
+    /// (`first` when none), or `usize::MAX` when the sure blocks reach the cap.
+    /// `before[k]` is left holding a bound on the line of sight before
+    /// block `first + k` (for the first [`PASSED`] blocks passed).
+    fn pass_blocks(
+        &self,
+        first: usize,
+        s: f64,
+        eye: f64,
+        running: f64,
+        setup: &SightSetup,
+        before: &mut [f64; PASSED],
+    ) -> usize {
+        // The line of sight the block can make at the steepest (its highest
+        // point at the nearer end if above the eye, else at the farther),
+        // when the object stays above it over the whole block.
+        let sure = |block: &Block, upper: f64| -> Option<f64> {
+            let (p, q) = (block.start - s, block.end - s);
+            if p <= 0.0 {
+                return None;
+            }
+            let d = block.high - eye;
+            let level = upper.max(if d >= 0.0 { d / p } else { d / q });
+            let lift = block.low + setup.object_height - eye;
+            (lift >= level * p && lift >= level * q.min(setup.cap)).then_some(level)
+        };
+        let mut upper = running;
+        let mut j = first;
+        while let Some(block) = self.blocks.get(j) {
+            if block.start - s >= setup.cap {
+                return usize::MAX;
+            }
+            let Some(level) = sure(block, upper) else { return j };
+            if let Some(slot) = before.get_mut(j - first) {
+                *slot = upper;
+            }
+            if block.end - s >= setup.cap {
+                return usize::MAX;
+            }
+            upper = level;
+            j += 1;
+        }
+        j
+    }
+
+    /// The exact running maximum of the road's angle (and where it is) after
+    /// blocks `first..passed` were passed with only bounds on it: the
+    /// blocks' own maxima are found from the last one back, until the bound
+    /// on everything before (`before`, then `running` as it was before
+    /// `first`) falls below the largest found. The first of equal maxima
+    /// wins, as in the walk piece by piece.
+    fn restore(
+        &self,
+        first: usize,
+        passed: usize,
+        s: f64,
+        eye: f64,
+        running: (f64, f64),
+        before: &[f64; PASSED],
+    ) -> (f64, f64) {
+        let (mut best, mut best_at) = (f64::NEG_INFINITY, f64::NAN);
+        for k in (first..passed).rev() {
+            let (mut value, mut at) = (f64::NEG_INFINITY, f64::NAN);
+            for piece in self.pieces.get(k * BLOCK..(k + 1) * BLOCK).unwrap_or(&[]) {
+                raise_running(piece, s, eye, &mut value, &mut at);
+            }
+            if value >= best && value > f64::NEG_INFINITY {
+                (best, best_at) = (value, at);
+            }
+            // Nothing before block k can reach `best` (a bound is kept for
+            // the first PASSED blocks only).
+            if before.get(k - first).is_some_and(|&bound| bound < best) {
+                return (best, best_at);
+            }
+        }
+        if running.0 >= best { running } else { (best, best_at) }
+    }
+
     /// The governing available distance from road station `s`: the smaller of
     /// the daylight and headlight distances, of those `setup` asks for.
     pub fn governing(&self, s: f64, setup: &SightSetup) -> f64 {
@@ -217,7 +379,23 @@ impl Road {
         let Some(here) = self.pieces.get(start) else { return 0.0 };
         let base = here.elevation_at(s) + setup.headlight_height;
         let slope = here.grade_at(s) + setup.headlight_angle_deg.to_radians().tan();
-        for piece in self.pieces.iter().skip(start) {
+        let mut i = start;
+        while let Some(piece) = self.pieces.get(i) {
+            // A whole block under the beam cannot stop it.
+            if i.is_multiple_of(BLOCK)
+                && let Some(block) = self.blocks.get(i / BLOCK)
+                && block.start - s > 0.0
+            {
+                let (p, q) = (block.start - s, block.end - s);
+                if block.high < (base + slope * p).min(base + slope * q) {
+                    if q >= setup.cap {
+                        return setup.cap;
+                    }
+                    i += BLOCK;
+                    continue;
+                }
+            }
+            i += 1;
             let p = (piece.start - s).max(0.0);
             let q = (piece.end - s).min(setup.cap);
             if q > p {
@@ -234,6 +412,29 @@ impl Road {
             }
         }
         setup.cap
+    }
+}
+
+/// Raises the running maximum of the road's angle from an eye at road
+/// station `s` and elevation `eye` to the highest on `piece`, as the
+/// piece-by-piece walk of [`Road::daylight_and_horizon`] does.
+fn raise_running(piece: &Segment, s: f64, eye: f64, running: &mut f64, running_at: &mut f64) {
+    let p = (piece.start - s).max(0.0);
+    let q = piece.end - s;
+    if q <= p {
+        return;
+    }
+    let a = piece.elevation_at(s) - eye;
+    let g = piece.grade_at(s);
+    let c = 0.5 * piece.rate;
+    let phi = |t: f64| if t > 0.0 { a / t + g + c * t } else { f64::NEG_INFINITY };
+    let turn = if a * c > 0.0 { (a / c).sqrt() } else { f64::NAN };
+    let cuts = if turn > p && turn < q { [p, turn, q] } else { [p, q, q] };
+    for (value, at) in cuts.map(|t| (phi(t), t)) {
+        if value > *running {
+            *running = value;
+            *running_at = at;
+        }
     }
 }
 
