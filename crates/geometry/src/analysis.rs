@@ -136,10 +136,22 @@ impl Analysis {
             .as_ref()
             .filter(|p| p.criteria.as_ref().ok() == criteria.as_ref().ok() && p.criteria.is_ok())
             .map(|p| p.curve_notes.clone());
-        let (sight, changed) = match (&alignment, &criteria) {
-            (Some(a), Ok(c)) => sight_after(project, previous, a, c),
-            _ => (None, None),
-        };
+        // On a long profile checked afresh, the curves are checked on a core
+        // of their own while the sight distance is computed (the same checks,
+        // handed to the report as reused ones).
+        let fresh = curve_notes.is_none() && profile.pvis.len() >= PARALLEL_CURVES;
+        let (sight, changed, checked) = std::thread::scope(|scope| {
+            let job = match &criteria {
+                Ok(c) if fresh => Some(scope.spawn(|| check_curves(&profile, c))),
+                _ => None,
+            };
+            let (sight, changed) = match (&alignment, &criteria) {
+                (Some(a), Ok(c)) => sight_after(project, previous.take(), a, c),
+                _ => (None, None),
+            };
+            (sight, changed, job.and_then(|j| j.join().ok()))
+        });
+        let curve_notes = curve_notes.or_else(|| checked.map(Arc::new));
         // A shortfall whose sight lines stay clear of the changed stretch
         // gets the finding it had: the road it sees is the same.
         let reuse = match (changed, notes.as_deref(), &criteria) {
@@ -328,6 +340,23 @@ impl Analysis {
 
 /// The sight distance of `project`, recomputed only where an edit since
 /// `previous` can have changed it.
+/// Interior PVIs from which a fresh analysis checks the curves beside the
+/// sight distance, on another core (below it a thread costs more than it saves).
+const PARALLEL_CURVES: usize = 2_000;
+
+/// Every interior curve of `profile` checked against `criteria`, with the
+/// findings of each (as [`Analysis`] keeps them for reuse).
+fn check_curves(profile: &Profile, criteria: &ResolvedCriteria) -> Vec<(crate::CurveCheck, Vec<Finding>)> {
+    interior_curves(&profile.pvis)
+        .iter()
+        .map(|curve| {
+            let mut found = Vec::new();
+            let check = crate::check_curve(curve, criteria, &mut found);
+            (check, found)
+        })
+        .collect()
+}
+
 fn sight_after(
     project: &Project,
     previous: Option<Analysis>,
@@ -394,6 +423,30 @@ fn shortfall_key(s: &Shortfall) -> [u64; 6] {
 mod tests {
     use super::*;
     use crate::{Station, Units};
+
+    /// A profile long enough for its curves to be checked beside the sight
+    /// distance, on another core, gives the report the checks give on one
+    /// thread, finding for finding; and an edit after it reuses those checks.
+    #[test]
+    fn curves_checked_beside_the_sight_distance_give_the_same_report() {
+        let profile = crate::synthetic::rolling_profile(Units::Metric, PARALLEL_CURVES + 50, 200_000.0);
+        let mut project = Project::new("long", Units::Metric);
+        project.pvis = profile.pvis.clone();
+        project.criteria.design_speed = Some(90.0);
+        let criteria = project.criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+        let analysis = Analysis::of(&project);
+        let alone = crate::check_profile(&project.profile(), &criteria);
+        assert_eq!(analysis.report.curves, alone.curves);
+        assert_eq!(analysis.report.findings, alone.findings);
+        assert!(analysis.report.findings.len() > PARALLEL_CURVES, "{}", analysis.report.findings.len());
+        let mut moved = project.clone();
+        if let Some(p) = moved.pvis.get_mut(700) {
+            p.elevation += 0.8;
+        }
+        let after = Analysis::after(&moved, Some(analysis));
+        let fresh = crate::check_profile(&moved.profile(), &criteria);
+        assert_eq!(after.report.findings, fresh.findings);
+    }
 
     /// Dragging one PVI of a long profile whose curves all fall short: the
     /// analysis after each step (sight distance updated in place, the
