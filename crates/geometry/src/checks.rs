@@ -638,18 +638,20 @@ fn check_curve_inner(
     check
 }
 
+/// What limits the sight of one eye: the daylight distance's horizon (road
+/// station), or the headlight distance when the beam governs.
+#[derive(Clone, Copy)]
+enum Limit {
+    Horizon(Option<f64>),
+    Beam(f64),
+}
+
 /// The PVI whose curve (or bare grade break) blocks the sight line of an eye
 /// at profile station `eye` looking `direction`: for daylight, the curve the
-/// line of sight touches; for headlights, the last sag between the eye and
-/// where the beam meets the road. Falls back to the nearest PVI.
-fn blocking_pvi(
-    alignment: &Alignment,
-    road: &Road,
-    direction: Direction,
-    eye: f64,
-    setup: &crate::visibility::SightSetup,
-    headlight: bool,
-) -> Option<usize> {
+/// line of sight touches (at the horizon); for headlights, the last sag
+/// between the eye and where the beam meets the road. Falls back to the
+/// nearest PVI.
+fn blocking_pvi(alignment: &Alignment, direction: Direction, eye: f64, limit: Limit) -> Option<usize> {
     let to_profile = |u: f64| match direction {
         Direction::Forward => u,
         Direction::Backward => -u,
@@ -665,26 +667,26 @@ fn blocking_pvi(
     // the point are found by binary search, not by a scan per shortfall
     // (that made `check` quadratic in the number of PVIs).
     let from = |u: f64| curves.partition_point(|c| span(c).1 < u);
-    let found = if headlight {
-        let hit = to_profile(at + road.headlight(at, setup));
-        let (lo, hi) = (eye.min(hit), eye.max(hit));
-        curves
-            .get(from(lo)..)
-            .unwrap_or(&[])
-            .iter()
-            .take_while(|c| span(c).0 <= hi)
-            .filter(|c| c.kind == CurveKind::Sag)
-            .min_by(|x, y| (x.pvi.0 - hit).abs().total_cmp(&(y.pvi.0 - hit).abs()))
-    } else {
-        let (_, horizon) = road.daylight_and_horizon(at, setup);
-        horizon.map(to_profile).and_then(|u| {
+    let found = match limit {
+        Limit::Beam(distance) => {
+            let hit = to_profile(at + distance);
+            let (lo, hi) = (eye.min(hit), eye.max(hit));
+            curves
+                .get(from(lo)..)
+                .unwrap_or(&[])
+                .iter()
+                .take_while(|c| span(c).0 <= hi)
+                .filter(|c| c.kind == CurveKind::Sag)
+                .min_by(|x, y| (x.pvi.0 - hit).abs().total_cmp(&(y.pvi.0 - hit).abs()))
+        }
+        Limit::Horizon(horizon) => horizon.map(to_profile).and_then(|u| {
             curves
                 .get(from(u)..)
                 .unwrap_or(&[])
                 .iter()
                 .take_while(|c| span(c).0 <= u)
                 .find(|c| c.kind == CurveKind::Crest)
-        })
+        }),
     };
     found.map(|c| c.index).or_else(|| nearest_pvi(alignment.pvis(), eye))
 }
@@ -701,6 +703,10 @@ fn nearest_pvi(pvis: &[crate::Pvi], station: f64) -> Option<usize> {
     }
 }
 
+/// Shortfalls from which their findings are made on every core (below it a
+/// thread costs more than it saves).
+const PARALLEL_SHORTFALLS: usize = 2_000;
+
 fn check_sight(
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
@@ -708,29 +714,25 @@ fn check_sight(
     reuse: Option<SightReuse<'_>>,
     findings: &mut Vec<Finding>,
 ) -> Vec<(crate::visibility::Shortfall, Finding)> {
-    let mut made = Vec::new();
     let units = criteria.units;
     let len = units.length_symbol();
     let setup = criteria.sight_setup();
     let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
-    for short in sight.shortfalls(PASS_RELATIVE) {
-        if let Some(finding) = reuse.and_then(|r| r(&short)) {
-            made.push((short, finding.clone()));
-            findings.push(finding);
-            continue;
-        }
+    let fresh = |short: &crate::visibility::Shortfall| -> Finding {
         let (road, at, way) = match short.direction {
             Direction::Forward => (&roads[0], short.worst, "forward (increasing stations)"),
             Direction::Backward => (&roads[1], -short.worst, "backward (decreasing stations)"),
         };
-        let day = road.daylight(at, &setup);
-        let headlight = setup.headlights && road.headlight(at, &setup) < day;
+        let (day, horizon) = road.daylight_and_horizon(at, &setup);
+        let beam = if setup.headlights { road.headlight(at, &setup) } else { f64::INFINITY };
+        let headlight = beam < day;
         let governs = if headlight {
             "headlight sight distance (sag, at night)"
         } else {
             "daylight sight distance over the crest"
         };
-        let pvi = blocking_pvi(alignment, road, short.direction, short.worst, &setup, headlight);
+        let limit = if headlight { Limit::Beam(beam) } else { Limit::Horizon(horizon) };
+        let pvi = blocking_pvi(alignment, short.direction, short.worst, limit);
         let blamed = pvi
             .and_then(|i| alignment.pvis().get(i).map(|p| (i, p)))
             .map(|(i, p)| {
@@ -745,7 +747,7 @@ fn check_sight(
                 format!("; limited by {what} at PVI {} ({})", i + 1, label(units, p.station))
             })
             .unwrap_or_default();
-        let finding = Finding {
+        Finding {
             severity: Severity::Fail,
             code: match short.direction {
                 Direction::Forward => "sight.forward",
@@ -763,10 +765,41 @@ fn check_sight(
                 label(units, Station(short.worst)),
                 short.available
             ),
-        };
-        made.push((short, finding.clone()));
-        findings.push(finding);
-    }
+        }
+    };
+    let shortfalls = sight.shortfalls(PASS_RELATIVE);
+    let made: Vec<(crate::visibility::Shortfall, Finding)> = match reuse {
+        Some(reuse) => shortfalls
+            .into_iter()
+            .map(|short| {
+                let finding = reuse(&short).unwrap_or_else(|| fresh(&short));
+                (short, finding)
+            })
+            .collect(),
+        // Checked afresh, each shortfall's finding stands alone: on every
+        // core when there are many, in contiguous blocks, order kept.
+        None => {
+            let cores = std::thread::available_parallelism().map_or(1, std::num::NonZeroUsize::get);
+            let block = shortfalls.len().div_ceil(cores.clamp(1, 16)).max(PARALLEL_SHORTFALLS);
+            let make =
+                |part: &[crate::visibility::Shortfall]| -> Vec<(crate::visibility::Shortfall, Finding)> {
+                    part.iter().map(|short| (*short, fresh(short))).collect()
+                };
+            std::thread::scope(|scope| {
+                let mut parts = shortfalls.chunks(block);
+                let first = parts.next();
+                let jobs: Vec<_> = parts.map(|part| (part, scope.spawn(move || make(part)))).collect();
+                let mut made = first.map(make).unwrap_or_default();
+                for (part, job) in jobs {
+                    // A block whose thread failed is made again here: no
+                    // finding may be lost.
+                    made.extend(job.join().unwrap_or_else(|_| make(part)));
+                }
+                made
+            })
+        }
+    };
+    findings.extend(made.iter().map(|(_, f)| f.clone()));
     made
 }
 
@@ -829,5 +862,24 @@ mod tests {
         assert_eq!(problems.len(), 2);
         assert!(problems.iter().all(|p| p.code() == "profile.out-of-range"), "{problems:?}");
         assert!(Alignment::new(&profile).is_err());
+    }
+
+    /// The findings of many shortfalls made on every core are those made one
+    /// by one (the reuse path, given nothing to reuse), in the same order.
+    #[test]
+    fn shortfall_findings_made_on_every_core_are_those_made_one_by_one() {
+        let profile = crate::synthetic::rolling_profile(Units::Metric, 4001, 80_000.0);
+        let criteria = crate::Criteria { design_speed: Some(90.0), ..crate::Criteria::default() }
+            .resolve(Units::Metric)
+            .unwrap_or_else(|e| panic!("{e}"));
+        let alignment = Alignment::new(&profile).unwrap_or_else(|e| panic!("{e:?}"));
+        let sight = compute_sight(&alignment, &criteria).unwrap_or_else(|| panic!("stations"));
+        let (mut together, mut alone) = (Vec::new(), Vec::new());
+        let made = check_sight(&alignment, &criteria, &sight, None, &mut together);
+        let nothing = |_: &crate::visibility::Shortfall| None;
+        let one_by_one = check_sight(&alignment, &criteria, &sight, Some(&nothing), &mut alone);
+        assert!(made.len() > PARALLEL_SHORTFALLS, "{}", made.len());
+        assert_eq!(made, one_by_one);
+        assert_eq!(together, alone);
     }
 }
