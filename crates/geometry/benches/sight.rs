@@ -48,6 +48,25 @@ fn sight(c: &mut Criterion) {
             });
         },
     );
+    // The editor's incremental update while a PVI is dragged: PVI 101
+    // moved, only the stations that can see the changed stretch recomputed.
+    let mut moved = profile.clone();
+    let full = sight_profile(&alignment, &s, Requirement::Design(160.0), &stations);
+    let (lo, hi) = {
+        let at = |i: usize| moved.pvis.get(i).map_or(0.0, |p| p.station.0);
+        (at(99), at(102))
+    };
+    if let Some(p) = moved.pvis.get_mut(100) {
+        p.elevation += 0.5;
+    }
+    let Ok(after) = Alignment::new(&moved) else { return };
+    c.bench_function("incremental sight update, one PVI of 200 moved (1 m step, both directions)", |b| {
+        b.iter(|| {
+            let mut sight = full.clone();
+            sight.update_after_change(&after, &s, Requirement::Design(160.0), lo, hi);
+            black_box(sight.samples.len())
+        });
+    });
     let mut group = c.benchmark_group("reference");
     group.sample_size(10);
     group.bench_function("sight distance, same grid, ray-marching reference (0.1 m march)", |b| {
