@@ -217,14 +217,7 @@ pub fn sight_by_stretch<E>(
     }
     let setup = criteria.sight_setup();
     let requirement = criteria.sight_requirement();
-    let steepest = profile
-        .pvis
-        .windows(2)
-        .filter_map(|w| match w {
-            [a, b] => Some(((b.elevation - a.elevation) / (b.station - a.station) * 100.0).abs()),
-            _ => None,
-        })
-        .fold(0.0, f64::max);
+    let steepest = profile.steepest_grade_percent();
     // How far around its eyes a stretch must be built: the cap, or the
     // longest braking stretch; without a bound, the whole profile at once.
     let beyond = setup.cap.max(requirement.look_ahead(steepest)) + step;
@@ -666,27 +659,20 @@ fn blocking_pvi(alignment: &Alignment, direction: Direction, eye: f64, limit: Li
     // only checked on a profile without problems), so the few that can hold
     // the point are found by binary search, not by a scan per shortfall
     // (that made `check` quadratic in the number of PVIs).
-    let from = |u: f64| curves.partition_point(|c| span(c).1 < u);
+    let touching = |lo: f64, hi: f64| {
+        let from = curves.partition_point(|c| span(c).1 < lo);
+        curves.get(from..).unwrap_or(&[]).iter().take_while(move |c| span(c).0 <= hi)
+    };
     let found = match limit {
         Limit::Beam(distance) => {
             let hit = to_profile(at + distance);
-            let (lo, hi) = (eye.min(hit), eye.max(hit));
-            curves
-                .get(from(lo)..)
-                .unwrap_or(&[])
-                .iter()
-                .take_while(|c| span(c).0 <= hi)
+            touching(eye.min(hit), eye.max(hit))
                 .filter(|c| c.kind == CurveKind::Sag)
                 .min_by(|x, y| (x.pvi.0 - hit).abs().total_cmp(&(y.pvi.0 - hit).abs()))
         }
-        Limit::Horizon(horizon) => horizon.map(to_profile).and_then(|u| {
-            curves
-                .get(from(u)..)
-                .unwrap_or(&[])
-                .iter()
-                .take_while(|c| span(c).0 <= u)
-                .find(|c| c.kind == CurveKind::Crest)
-        }),
+        Limit::Horizon(horizon) => {
+            horizon.map(to_profile).and_then(|u| touching(u, u).find(|c| c.kind == CurveKind::Crest))
+        }
     };
     found.map(|c| c.index).or_else(|| nearest_pvi(alignment.pvis(), eye))
 }

@@ -78,7 +78,7 @@ struct Run<'a> {
 impl<'a> Run<'a> {
     fn new(profile: &Profile, criteria: &'a ResolvedCriteria, controls: &'a [ControlPoint]) -> Self {
         let cap = criteria.get(CriterionId::SightCap);
-        let ahead = criteria.sight_requirement().look_ahead(steepest(profile));
+        let ahead = criteria.sight_requirement().look_ahead(profile.steepest_grade_percent());
         let beyond = (ahead.is_finite() && cap.is_finite()).then(|| cap.max(ahead));
         Self {
             criteria,
@@ -256,24 +256,11 @@ fn geometry_at(profile: &Profile, index: usize) -> Option<CurveGeometry> {
     Some(CurveGeometry::new(index, a, b, c))
 }
 
-/// The steepest tangent grade of `profile`, percent.
-fn steepest(profile: &Profile) -> f64 {
-    profile
-        .pvis
-        .windows(2)
-        .filter_map(|w| match w {
-            [a, b] => Some(((b.elevation - a.elevation) / (b.station - a.station) * 100.0).abs()),
-            _ => None,
-        })
-        .filter(|g| g.is_finite())
-        .fold(0.0, f64::max)
-}
-
 /// How far from a curve an eye can still be held up by it: the largest
 /// sight distance any station of the profile can require.
 fn reach(profile: &Profile, criteria: &ResolvedCriteria) -> f64 {
     let ssd = criteria.get(CriterionId::StoppingSightDistance);
-    let largest = criteria.largest_requirement(steepest(profile));
+    let largest = criteria.largest_requirement(profile.steepest_grade_percent());
     let cap = criteria.get(CriterionId::SightCap);
     if largest.is_finite() { largest.max(ssd).min(cap.max(ssd)) } else { cap.max(ssd) }
 }

@@ -288,6 +288,19 @@ impl Profile {
         Self { units, pvis }
     }
 
+    /// The steepest tangent grade, PVI to PVI, in percent (grades that are
+    /// not finite numbers left out; 0 for fewer than two PVIs).
+    pub fn steepest_grade_percent(&self) -> f64 {
+        self.pvis
+            .windows(2)
+            .filter_map(|w| match w {
+                [a, b] => Some(((b.elevation - a.elevation) / (b.station - a.station) * 100.0).abs()),
+                _ => None,
+            })
+            .filter(|g| g.is_finite())
+            .fold(0.0, f64::max)
+    }
+
     /// Every problem that stops the profile from being evaluated, all at once.
     /// An empty list means [`crate::Alignment::new`] will succeed.
     pub fn problems(&self) -> Vec<ProfileProblem> {

@@ -232,14 +232,10 @@ impl Road {
                 }
                 continue;
             }
-            // On this piece, road − eye = a + g·t + c·t² with t = distance ahead.
-            let a = piece.elevation_at(s) - eye;
-            let g = piece.grade_at(s);
-            let c = 0.5 * piece.rate;
-            let phi = |t: f64| if t > 0.0 { a / t + g + c * t } else { f64::NEG_INFINITY };
-            // Split where φ turns (φ′ = −a/t² + c = 0), so φ is monotone on each part.
-            let turn = if a * c > 0.0 { (a / c).sqrt() } else { f64::NAN };
-            let cuts = if turn > p && turn < q { [p, turn, q] } else { [p, q, q] };
+            let view = View::of(piece, s, eye);
+            let View { a, g, c } = view;
+            let phi = |t: f64| view.phi(t);
+            let cuts = view.cuts(p, q);
             // φ at each cut, computed once (a part's end is the next one's start).
             let mut phi_lo = phi(p);
             for w in cuts.windows(2) {
@@ -415,6 +411,33 @@ impl Road {
     }
 }
 
+/// One piece of road as an eye sees it: road − eye = a + g·t + c·t² at
+/// distance t ahead, so the road's angle from the eye is φ(t) = a/t + g + c·t.
+#[derive(Clone, Copy)]
+struct View {
+    a: f64,
+    g: f64,
+    c: f64,
+}
+
+impl View {
+    fn of(piece: &Segment, s: f64, eye: f64) -> Self {
+        Self { a: piece.elevation_at(s) - eye, g: piece.grade_at(s), c: 0.5 * piece.rate }
+    }
+
+    /// φ(t); none at the eye itself.
+    fn phi(self, t: f64) -> f64 {
+        if t > 0.0 { self.a / t + self.g + self.c * t } else { f64::NEG_INFINITY }
+    }
+
+    /// [p, q] split where φ turns (φ′ = −a/t² + c = 0), so φ is monotone
+    /// between consecutive cuts (the last repeated when it does not turn).
+    fn cuts(self, p: f64, q: f64) -> [f64; 3] {
+        let turn = if self.a * self.c > 0.0 { (self.a / self.c).sqrt() } else { f64::NAN };
+        if turn > p && turn < q { [p, turn, q] } else { [p, q, q] }
+    }
+}
+
 /// Raises the running maximum of the road's angle from an eye at road
 /// station `s` and elevation `eye` to the highest on `piece`, as the
 /// piece-by-piece walk of [`Road::daylight_and_horizon`] does.
@@ -424,13 +447,8 @@ fn raise_running(piece: &Segment, s: f64, eye: f64, running: &mut f64, running_a
     if q <= p {
         return;
     }
-    let a = piece.elevation_at(s) - eye;
-    let g = piece.grade_at(s);
-    let c = 0.5 * piece.rate;
-    let phi = |t: f64| if t > 0.0 { a / t + g + c * t } else { f64::NEG_INFINITY };
-    let turn = if a * c > 0.0 { (a / c).sqrt() } else { f64::NAN };
-    let cuts = if turn > p && turn < q { [p, turn, q] } else { [p, q, q] };
-    for (value, at) in cuts.map(|t| (phi(t), t)) {
+    let view = View::of(piece, s, eye);
+    for (value, at) in view.cuts(p, q).map(|t| (view.phi(t), t)) {
         if value > *running {
             *running = value;
             *running_at = at;
