@@ -401,15 +401,12 @@ impl GradewrightApp {
     /// Opens the PVI table (CSV) at `path`, read in `units`, as a new,
     /// unsaved project.
     pub fn open_pvi_table(&mut self, path: &Path, units: Units) -> bool {
-        let read = gradewright_exchange::open_file(path)
-            .and_then(|f| gradewright_exchange::read_pvi_csv(f, path, units));
+        // The command line's reader, so a table opens the same project here.
+        let read = crate::input::load_input(path, Some(units), &gradewright_exchange::Selection::default());
         match read {
-            Ok(table) => {
-                let name = path.file_stem().map(|s| s.to_string_lossy().into_owned()).unwrap_or_default();
-                let mut project = Project::new(name, units);
-                project.pvis = table.pvis;
+            Ok(input) => {
                 self.view.lengthen_increment = default_increment(units);
-                self.replace_project(project, None, true);
+                self.replace_project(input.project, None, true);
                 self.notice = Some(Notice {
                     error: false,
                     text: format!(
