@@ -23,5 +23,5 @@ pub use landxml::{
 pub use pvi_csv::{PviTable, read_pvi_csv, write_pvi_csv};
 pub use table::{
     EARTHWORK_HEADER, GROUND_COLUMNS, SIGHT_HEADER, SightTable, StationTable, TABLE_HEADER, TableError,
-    interval_stations, write_earthwork_csv, write_interval_table, write_sight_table, write_station_table,
+    interval_stations, write_earthwork_csv, write_interval_table, write_station_table,
 };

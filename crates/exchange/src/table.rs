@@ -288,26 +288,12 @@ pub const SIGHT_HEADER: [&str; 6] = [
     "reaches_cap",
 ];
 
-/// Writes available and required sight distance, one row per station
-/// (forward = towards increasing stations), numbers unrounded. The last
-/// column says which available distances are the cap, not a measured
+/// A sight-distance table, written a block of stations at a time (for a
+/// profile computed one stretch at a time): the header, then one row per
+/// station (forward = towards increasing stations), numbers unrounded. The
+/// last column says which available distances are the cap, not a measured
 /// distance (nothing limited the sight within it): `none`, `forward`,
 /// `backward` or `both`.
-///
-/// # Errors
-/// An I/O error of `out`.
-pub fn write_sight_table(
-    out: impl Write,
-    sight: &gradewright_geometry::visibility::SightProfile,
-) -> Result<(), TableError> {
-    let mut table = SightTable::new(out)?;
-    table.rows(sight)?;
-    table.finish()
-}
-
-/// A sight-distance table written a block of stations at a time (for a
-/// profile computed one stretch at a time): the header, then the rows of
-/// each block as [`write_sight_table`] writes them.
 pub struct SightTable<W: Write> {
     csv: csv::Writer<W>,
     field: String,

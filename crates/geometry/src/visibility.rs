@@ -663,14 +663,10 @@ pub fn stations_every(alignment: &Alignment, step: f64) -> Vec<f64> {
     stations
 }
 
-/// The stations of [`stations_every`] that lie between `lo` and `hi`, made
-/// without listing the rest (at most [`crate::MAX_SIGHT_STATIONS`]).
-pub fn stations_between(alignment: &Alignment, step: f64, lo: f64, hi: f64) -> Vec<f64> {
-    grid_between(alignment.start().0, alignment.end().0, step, lo, hi)
-}
-
-/// [`stations_between`] for a profile running from `start` to `end` (the
-/// grid of a whole profile, when only part of it is built).
+/// The stations of [`stations_every`] for a profile running from `start` to
+/// `end` that lie between `lo` and `hi`, made without listing the rest (at
+/// most [`crate::MAX_SIGHT_STATIONS`]): the grid of a whole profile, when
+/// only part of it is built.
 pub fn grid_between(start: f64, end: f64, step: f64, lo: f64, hi: f64) -> Vec<f64> {
     if step.is_nan() || step <= 0.0 || step.is_infinite() {
         return [start, end].into_iter().filter(|s| *s >= lo && *s <= hi).collect();
