@@ -765,8 +765,8 @@ fn check_sight(
         // Checked afresh, each shortfall's finding stands alone: on every
         // core when there are many, in contiguous blocks, order kept.
         None => {
-            let cores = std::thread::available_parallelism().map_or(1, std::num::NonZeroUsize::get);
-            let block = shortfalls.len().div_ceil(cores.clamp(1, 16)).max(PARALLEL_SHORTFALLS);
+            let block =
+                shortfalls.len().div_ceil(crate::visibility::cores().clamp(1, 16)).max(PARALLEL_SHORTFALLS);
             let make =
                 |part: &[crate::visibility::Shortfall]| -> Vec<(crate::visibility::Shortfall, Finding)> {
                     part.iter().map(|short| (*short, fresh(short))).collect()

@@ -701,8 +701,15 @@ pub fn sight_profile(
     requirement: Requirement,
     stations: &[f64],
 ) -> SightProfile {
-    let cores = std::thread::available_parallelism().map_or(1, std::num::NonZeroUsize::get);
-    sight_profile_on(alignment, setup, requirement, stations, cores)
+    sight_profile_on(alignment, setup, requirement, stations, cores())
+}
+
+/// The cores this process may use, asked of the system once (the answer
+/// can take reading files, and a fit computes sight distance thousands of
+/// times).
+pub(crate) fn cores() -> usize {
+    static CORES: std::sync::OnceLock<usize> = std::sync::OnceLock::new();
+    *CORES.get_or_init(|| std::thread::available_parallelism().map_or(1, std::num::NonZeroUsize::get))
 }
 
 /// [`sight_profile`] on at most `threads` threads (1: on the calling thread
