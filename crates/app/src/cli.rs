@@ -536,8 +536,11 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 text.push_str(&o.message);
                 text.push('\n');
             }
-            let remaining =
-                after.findings.iter().filter(|f| f.severity == gradewright_geometry::Severity::Fail).count();
+            let remaining = after
+                .findings
+                .iter()
+                .filter(|f| f.severity() == gradewright_geometry::Severity::Fail)
+                .count();
             text.push_str(&format!("Wrote {} ({remaining} failing finding(s) remain).\n", output.display()));
             print(text.as_bytes())?;
             Ok(if after.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
@@ -735,7 +738,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 .report
                 .findings
                 .iter()
-                .filter(|f| f.severity == gradewright_geometry::Severity::Fail)
+                .filter(|f| f.severity() == gradewright_geometry::Severity::Fail)
                 .count();
             if fails > 0 {
                 text.push_str(&format!(

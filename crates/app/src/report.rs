@@ -86,8 +86,8 @@ pub fn json(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
             .findings
             .iter()
             .map(|f| JsonFinding {
-                severity: f.severity.key(),
-                code: f.code,
+                severity: f.severity().key(),
+                code: f.code.as_str(),
                 station_start: f.station_start.0,
                 station_end: f.station_end.0,
                 message: &f.message,
@@ -161,7 +161,7 @@ pub fn text(
         let _ = writeln!(out, "  none");
     }
     for f in &checks.findings {
-        let _ = writeln!(out, "  [{}] {}: {}", f.severity.key().to_uppercase(), f.code, f.message);
+        let _ = writeln!(out, "  [{}] {}: {}", f.severity().key().to_uppercase(), f.code, f.message);
     }
     let _ = writeln!(
         out,

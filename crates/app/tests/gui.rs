@@ -6,7 +6,7 @@ use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable as _;
 use egui_plot::PlotPoint;
 use gradewright::gui::{Action, AppFiles, GradewrightApp};
-use gradewright_geometry::{CurveKind, Severity, VerticalCurve};
+use gradewright_geometry::{CurveKind, FindingCode, Severity, VerticalCurve};
 
 fn harness(app: GradewrightApp) -> Harness<'static, GradewrightApp> {
     let mut h = Harness::builder()
@@ -53,7 +53,8 @@ fn typing_a_longer_length_fixes_the_failing_crest() {
     assert_eq!(before.curve.kind, CurveKind::Crest);
     // K, exact SSD length, and sight distance both ways: four failing findings,
     // shown in the findings list, plus the status cell of PVI 4.
-    let fails = h.state().analysis().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    let fails =
+        h.state().analysis().report.findings.iter().filter(|f| f.severity() == Severity::Fail).count();
     assert_eq!(fails, 4);
     assert_eq!(h.query_all_by_label("✖ fail").count(), 1 + fails, "one status cell and the findings");
     replace_text(&mut h, "PVI 4 curve length", "140");
@@ -95,8 +96,13 @@ fn raising_the_design_speed_flags_a_curve() {
     assert_eq!(h.state().project().criteria.design_speed, Some(100.0));
     // 100 km/h: sag K 45 (AASHTO metric Table 3-36, from memory); 160/4 = 40 < 45.
     assert_eq!(sag_at_pvi_3(&h), Some(false));
-    let flagged =
-        h.state().analysis().report.findings.iter().any(|f| f.code == "sag.k-min" && f.pvi == Some(2));
+    let flagged = h
+        .state()
+        .analysis()
+        .report
+        .findings
+        .iter()
+        .any(|f| f.code == FindingCode::SagKMin && f.pvi == Some(2));
     assert!(flagged);
 }
 
@@ -223,7 +229,8 @@ fn delete_and_insert_keep_at_least_two_pvis() {
 #[test]
 fn findings_list_and_cautions_are_shown() {
     let mut h = demo();
-    let fails = h.state().analysis().report.findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    let fails =
+        h.state().analysis().report.findings.iter().filter(|f| f.severity() == Severity::Fail).count();
     assert_eq!(fails, 4);
     for code in ["crest.k-min", "crest.ssd-length", "sight.forward", "sight.backward"] {
         assert!(h.query_by_label_contains(code).is_some(), "{code}");
@@ -348,7 +355,7 @@ fn table_names_severity_word_and_sag_rule_are_shown() {
     project.pvis[2].elevation = a.elevation + t * (b.elevation - a.elevation);
     h.state_mut().apply_edit(gradewright::gui::Edit::Replace(Box::new(project)));
     h.run();
-    assert!(h.state().analysis().report.findings.iter().any(|f| f.severity == Severity::Info));
+    assert!(h.state().analysis().report.findings.iter().any(|f| f.severity() == Severity::Info));
     assert!(h.query_all_by_label("ℹ info").count() >= 1);
     assert!(h.query_by_label_contains("1 info").is_some(), "the findings count says info");
     assert_eq!(h.query_all_by_label("ℹ note").count(), 0);
@@ -709,10 +716,10 @@ fn a_dropped_controls_file_is_imported_and_checked() {
         .report
         .findings
         .iter()
-        .find(|f| f.code == "control.max")
+        .find(|f| f.code == FindingCode::ControlMax)
         .cloned()
         .unwrap_or_else(|| panic!("no control finding"));
-    assert_eq!(finding.severity, Severity::Fail);
+    assert_eq!(finding.severity(), Severity::Fail);
     assert!(finding.message.contains("above the maximum 227.000"), "{}", finding.message);
     // The road is at 228.6 − 5·90/800 = 228.0375 there (the external, E = A·L/800).
     assert!(finding.message.contains("1.037 m above"), "{}", finding.message);

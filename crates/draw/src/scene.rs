@@ -214,7 +214,7 @@ pub fn profile_scene_with(
         gradewright_geometry::flatten_segments(&segments, range, tolerance)
     };
     if let Some(alignment) = analysis.alignment.as_ref() {
-        for f in analysis.report.findings.iter().filter(|f| f.code.starts_with("sight.")) {
+        for f in analysis.report.findings.iter().filter(|f| f.code.is_sight_shortfall()) {
             let (a, b) = (f.station_start.0.max(range.0), f.station_end.0.min(range.1));
             if b > a {
                 scene
@@ -294,10 +294,8 @@ pub fn profile_scene_with(
             });
         }
         if let Some(check) = check.filter(|k| !k.ok) {
-            let reason = analysis
-                .findings_at(c.index)
-                .find(|f| f.severity == gradewright_geometry::Severity::Fail)
-                .map_or("fails", |f| f.code);
+            let reason =
+                analysis.findings_at(c.index).find(|f| f.fails()).map_or("fails", |f| f.code.as_str());
             let mut text = vec![format!("× FAILS: {reason}")];
             if let (Some(k), Some(min)) = (c.k(), check.k_required)
                 && gradewright_geometry::tolerance::below(k, min)

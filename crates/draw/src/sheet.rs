@@ -767,11 +767,11 @@ fn one_sheet(
     );
     let findings: Vec<_> = {
         let mut f: Vec<_> =
-            analysis.report.findings.iter().filter(|f| f.severity != Severity::Info).collect();
-        f.sort_by(|a, b| b.severity.cmp(&a.severity).then(a.station_start.total_cmp(&b.station_start)));
+            analysis.report.findings.iter().filter(|f| f.severity() != Severity::Info).collect();
+        f.sort_by(|a, b| b.severity().cmp(&a.severity()).then(a.station_start.total_cmp(&b.station_start)));
         f
     };
-    let fails = findings.iter().filter(|f| f.severity == Severity::Fail).count();
+    let fails = findings.iter().filter(|f| f.severity() == Severity::Fail).count();
     let _ = write!(
         svg,
         r#"<text x="{:.3}" y="{:.3}" font-size="{TEXT}" font-weight="bold">Findings: {fails} fail, {} warn</text>"#,
@@ -782,8 +782,8 @@ fn one_sheet(
     let rows = 9;
     let chars = (list_w / (SMALL * 0.5)) as usize;
     for (k, f) in findings.iter().take(rows).enumerate() {
-        let mark = if f.severity == Severity::Fail { "× FAIL" } else { "! warn" };
-        let colour = if f.severity == Severity::Fail { ACCENT } else { "#000" };
+        let mark = if f.severity() == Severity::Fail { "× FAIL" } else { "! warn" };
+        let colour = if f.severity() == Severity::Fail { ACCENT } else { "#000" };
         let mut line = format!("{mark}  {}  {}", f.code, f.message);
         if line.chars().count() > chars {
             line = line.chars().take(chars.saturating_sub(1)).collect::<String>() + "…";

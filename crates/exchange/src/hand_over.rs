@@ -174,8 +174,8 @@ pub fn write_findings_csv(out: impl Write, analysis: &Analysis) -> Result<(), Ta
     ])?;
     for f in &analysis.report.findings {
         csv.write_record([
-            f.severity.key().to_owned(),
-            f.code.to_owned(),
+            f.severity().key().to_owned(),
+            f.code.as_str().to_owned(),
             number(f.station_start.0, None),
             number(f.station_end.0, None),
             f.pvi.map_or(String::new(), |i| (i + 1).to_string()),

@@ -8,8 +8,8 @@ use std::collections::HashMap;
 use crate::visibility::{Shortfall, SightProfile};
 use crate::{
     Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveCheck, CurveGeometry,
-    CutFillSummary, Earthwork, EarthworkError, Finding, Ground, Profile, ProfileProblem, Project, Pvi,
-    ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, earthwork_at,
+    CutFillSummary, Earthwork, EarthworkError, Finding, FindingCode, Ground, Profile, ProfileProblem,
+    Project, Pvi, ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, earthwork_at,
     interior_curves, structural_findings,
 };
 
@@ -104,14 +104,12 @@ pub fn is_design_problem(problem: &ProfileProblem) -> bool {
 /// problems, and a note saying the design checks are off and why.
 pub fn unchecked_report(profile: &Profile, why: &CriteriaError) -> CheckReport {
     let mut findings = structural_findings(profile);
-    findings.push(Finding {
-        severity: Severity::Info,
-        code: "criteria.incomplete",
-        station_start: profile.start().unwrap_or_default(),
-        station_end: profile.end().unwrap_or_default(),
-        pvi: None,
-        message: format!("Design checks are off: {why}"),
-    });
+    findings.push(Finding::new(
+        FindingCode::CriteriaIncomplete,
+        (profile.start().unwrap_or_default(), profile.end().unwrap_or_default()),
+        None,
+        format!("Design checks are off: {why}"),
+    ));
     CheckReport { findings, curves: Vec::new(), sight: None }
 }
 
@@ -319,7 +317,7 @@ impl Analysis {
 
     /// The worst severity of the findings that name PVI `index`.
     pub fn worst_at(&self, index: usize) -> Option<Severity> {
-        self.findings_at(index).map(|f| f.severity).max()
+        self.findings_at(index).map(Finding::severity).max()
     }
 
     /// A short reason a curve fails, for labels: `K 18.0 < 26` or the first
@@ -332,8 +330,8 @@ impl Analysis {
             (Some(k), Some(min)) if crate::tolerance::below(k, min) => format!("K {k:.1} < {min:.0}"),
             _ => self
                 .findings_at(index)
-                .find(|f| f.severity == Severity::Fail)
-                .map_or_else(String::new, |f| f.code.to_owned()),
+                .find(|f| f.fails())
+                .map_or_else(String::new, |f| f.code.as_str().to_owned()),
         }
     }
 }
@@ -469,7 +467,7 @@ mod tests {
             .into();
         project.section = Some(crate::Section::default_for(Units::Metric));
         let mut analysis = Analysis::of(&project);
-        assert!(analysis.report.findings.iter().filter(|f| f.code.starts_with("sight.")).count() > 20);
+        assert!(analysis.report.findings.iter().filter(|f| f.code.is_sight_shortfall()).count() > 20);
         for (index, rise) in [(40, 0.8), (40, 1.6), (41, -0.7), (10, 0.3), (40, 0.0)] {
             if let Some(p) = project.pvis.get_mut(index) {
                 p.elevation += rise;

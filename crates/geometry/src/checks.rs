@@ -3,48 +3,9 @@
 use crate::tolerance::{PASS_RELATIVE, above, below};
 use crate::visibility::{Direction, Road, SightProfile, sight_profile, stations_every};
 use crate::{
-    Alignment, CriterionId, CurveGeometry, CurveKind, Profile, ProfileProblem, ResolvedCriteria, SagRule,
-    Station, Units, interior_curves, sight,
+    Alignment, CriterionId, CurveGeometry, CurveKind, Finding, FindingCode, Profile, ProfileProblem,
+    ResolvedCriteria, SagRule, Severity, Station, Units, interior_curves, sight,
 };
-
-/// How serious a finding is.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
-pub enum Severity {
-    /// For information.
-    Info,
-    /// Worth a look; not a failure of a criterion.
-    Warn,
-    /// A criterion is not met, or the profile is not buildable.
-    Fail,
-}
-
-impl Severity {
-    /// `"info"`, `"warn"` or `"fail"`.
-    pub fn key(self) -> &'static str {
-        match self {
-            Self::Info => "info",
-            Self::Warn => "warn",
-            Self::Fail => "fail",
-        }
-    }
-}
-
-/// One check result.
-#[derive(Clone, Debug, PartialEq)]
-pub struct Finding {
-    /// How serious.
-    pub severity: Severity,
-    /// Stable code, e.g. `crest.k-min`.
-    pub code: &'static str,
-    /// First station concerned.
-    pub station_start: Station,
-    /// Last station concerned.
-    pub station_end: Station,
-    /// The PVI concerned, 0-based, if any.
-    pub pvi: Option<usize>,
-    /// What is wrong, with the numbers and the rule used.
-    pub message: String,
-}
 
 /// A curve with what the criteria ask of it.
 #[derive(Clone, Debug, PartialEq)]
@@ -85,7 +46,7 @@ pub struct CheckReport {
 impl CheckReport {
     /// Whether any finding is a failure.
     pub fn has_failures(&self) -> bool {
-        self.findings.iter().any(|f| f.severity == Severity::Fail)
+        self.findings.iter().any(Finding::fails)
     }
 
     /// The PVIs whose curves fail a criterion (curve checks or sight
@@ -100,7 +61,7 @@ impl CheckReport {
 
     /// The worst severity on PVI `index`, if any finding names it.
     pub fn worst_at(&self, index: usize) -> Option<Severity> {
-        self.findings.iter().filter(|f| f.pvi == Some(index)).map(|f| f.severity).max()
+        self.findings.iter().filter(|f| f.pvi == Some(index)).map(Finding::severity).max()
     }
 }
 
@@ -117,7 +78,7 @@ const REPEATS_LISTED: usize = 3;
 /// The same problem repeated is one finding with a count and the first few
 /// stations, so a file with two million bad rows gives a short report.
 fn group_repeats(findings: Vec<Finding>) -> Vec<Finding> {
-    let mut counts: std::collections::HashMap<&'static str, usize> = std::collections::HashMap::new();
+    let mut counts: std::collections::HashMap<FindingCode, usize> = std::collections::HashMap::new();
     for f in &findings {
         *counts.entry(f.code).or_default() += 1;
     }
@@ -125,15 +86,15 @@ fn group_repeats(findings: Vec<Finding>) -> Vec<Finding> {
         return findings;
     }
     let mut out: Vec<Finding> = Vec::new();
-    let mut firsts: std::collections::HashMap<&'static str, (usize, Vec<String>)> =
+    let mut firsts: std::collections::HashMap<FindingCode, (usize, Vec<String>)> =
         std::collections::HashMap::new();
     for f in findings {
-        let n = counts.get(f.code).copied().unwrap_or(0);
+        let n = counts.get(&f.code).copied().unwrap_or(0);
         if n <= REPEATS_LISTED {
             out.push(f);
             continue;
         }
-        match firsts.get_mut(f.code) {
+        match firsts.get_mut(&f.code) {
             Some((_, stations)) => {
                 if stations.len() < REPEATS_LISTED {
                     stations.push(format!("{:.3}", f.station_start.0));
@@ -146,7 +107,7 @@ fn group_repeats(findings: Vec<Finding>) -> Vec<Finding> {
         }
     }
     for (code, (at, stations)) in firsts {
-        let n = counts.get(code).copied().unwrap_or(0);
+        let n = counts.get(&code).copied().unwrap_or(0);
         if let Some(f) = out.get_mut(at) {
             f.message = format!(
                 "{} — the same problem {n} times in all (first at stations {}, …)",
@@ -328,35 +289,31 @@ pub(crate) fn check_profile_reusing(
                 made.shortfalls = check_sight(&alignment, criteria, sight, reuse.sight, &mut report.findings);
             }
             // A check that did not run must not pass.
-            None => report.findings.push(Finding {
-                severity: Severity::Fail,
-                code: "sight.not-computed",
-                station_start: alignment.start(),
-                station_end: alignment.end(),
-                pvi: None,
-                message: format!(
+            None => report.findings.push(Finding::new(
+                FindingCode::SightNotComputed,
+                (alignment.start(), alignment.end()),
+                None,
+                format!(
                     "Sight distance was not checked: more than {MAX_SIGHT_STATIONS} stations at a step of {} {}; \
                      use a larger sight-distance step",
                     criteria.get(CriterionId::SightStep),
                     criteria.units.length_symbol()
                 ),
-            }),
+            )),
         }
     }
     for note in criteria.speed_notes() {
-        report.findings.push(Finding {
-            severity: Severity::Warn,
-            code: "criteria.speed-off-table",
-            station_start: profile.start().unwrap_or_default(),
-            station_end: profile.end().unwrap_or_default(),
-            pvi: None,
-            message: note,
-        });
+        report.findings.push(Finding::new(
+            FindingCode::CriteriaSpeedOffTable,
+            (profile.start().unwrap_or_default(), profile.end().unwrap_or_default()),
+            None,
+            note,
+        ));
     }
     report.sight = sight;
     // One pass over the findings (not one per curve: that was quadratic).
     let mut failing = vec![false; profile.pvis.len()];
-    for f in report.findings.iter().filter(|f| f.severity == Severity::Fail) {
+    for f in report.findings.iter().filter(|f| f.fails()) {
         if let Some(slot) = f.pvi.and_then(|i| failing.get_mut(i)) {
             *slot = true;
         }
@@ -384,14 +341,7 @@ fn problem_finding(profile: &Profile, problem: &ProfileProblem) -> Finding {
         _ => (station, station),
     };
     let at = pvi.map_or(String::new(), |_| format!(" (at {})", label(units, station)));
-    Finding {
-        severity: Severity::Fail,
-        code: problem.code(),
-        station_start: start,
-        station_end: end,
-        pvi,
-        message: format!("{problem}{at}"),
-    }
+    Finding::new(problem.code(), (start, end), pvi, format!("{problem}{at}"))
 }
 
 /// Checks one curve against the curve criteria (K, sight-distance length,
@@ -404,7 +354,7 @@ pub fn check_curve(
 ) -> CurveCheck {
     let before = findings.len();
     let mut check = check_curve_inner(curve, criteria, findings);
-    check.ok = !findings.iter().skip(before).any(|f| f.severity == Severity::Fail);
+    check.ok = !findings.iter().skip(before).any(Finding::fails);
     check
 }
 
@@ -413,7 +363,7 @@ pub fn check_curve(
 fn requirements(
     curve: &CurveGeometry,
     criteria: &ResolvedCriteria,
-) -> (f64, &'static str, f64, String, Option<f64>) {
+) -> (f64, FindingCode, f64, String, Option<f64>) {
     let a = curve.a_percent();
     let ssd = criteria.get(CriterionId::StoppingSightDistance);
     if curve.kind == CurveKind::Crest {
@@ -423,7 +373,7 @@ fn requirements(
             sight::SightCase::ShorterThanCurve => format!("L = A·S²/{c:.0}"),
             sight::SightCase::LongerThanCurve => format!("L = 2S − {c:.0}/A"),
         };
-        return (criteria.get(CriterionId::CrestK), "crest.ssd-length", r.length, formula, None);
+        return (criteria.get(CriterionId::CrestK), FindingCode::CrestSsdLength, r.length, formula, None);
     }
     let comfort = criteria.checks_sag_comfort().then(|| criteria.sag_comfort_length(a));
     match criteria.sag_rule() {
@@ -434,10 +384,10 @@ fn requirements(
                 sight::SightCase::ShorterThanCurve => format!("L = A·S²/({base:.0} + {slope:.2}S)"),
                 sight::SightCase::LongerThanCurve => format!("L = 2S − ({base:.0} + {slope:.2}S)/A"),
             };
-            (criteria.get(CriterionId::SagK), "sag.headlight-length", r.length, formula, comfort)
+            (criteria.get(CriterionId::SagK), FindingCode::SagHeadlightLength, r.length, formula, comfort)
         }
         SagRule::Comfort => {
-            (criteria.get(CriterionId::SagK), "sag.headlight-length", 0.0, String::new(), comfort)
+            (criteria.get(CriterionId::SagK), FindingCode::SagHeadlightLength, 0.0, String::new(), comfort)
         }
     }
 }
@@ -464,15 +414,8 @@ fn check_curve_inner(
         ok: true,
     };
     let where_ = format!("PVI {} ({})", curve.index + 1, label(units, curve.pvi));
-    let mut push = |severity, code, message: String| {
-        findings.push(Finding {
-            severity,
-            code,
-            station_start: curve.pvc,
-            station_end: curve.pvt,
-            pvi: Some(curve.index),
-            message,
-        });
+    let mut push = |code, message: String| {
+        findings.push(Finding::new(code, (curve.pvc, curve.pvt), Some(curve.index), message));
     };
     let name = match curve.kind {
         CurveKind::Crest => "crest",
@@ -480,8 +423,7 @@ fn check_curve_inner(
         CurveKind::None => {
             if curve.length() > 0.0 {
                 push(
-                    Severity::Info,
-                    "curve.not-needed",
+                    FindingCode::CurveNotNeeded,
                     format!(
                         "{where_}: no grade change, so the {:.3} {len} curve is not needed",
                         curve.length()
@@ -505,8 +447,7 @@ fn check_curve_inner(
             check.comfort_length = comfort;
             check.length_required = governing.max(min_length);
             push(
-                Severity::Fail,
-                "break.needs-curve",
+                FindingCode::BreakNeedsCurve,
                 format!(
                     "{where_}: a grade break of A = {a:.3} % with no curve is more than the largest break \
                      left without a curve ({limit:.2} %); a {name} curve needs L ≥ {:.2} {len} \
@@ -516,8 +457,7 @@ fn check_curve_inner(
             );
         } else {
             push(
-                Severity::Info,
-                "break.no-curve",
+                FindingCode::BreakNoCurve,
                 format!(
                     "{where_}: grade break of A = {a:.3} % left without a curve (allowed up to {limit:.2} %); \
                      its sight distance is checked along the profile"
@@ -557,10 +497,9 @@ fn check_curve_inner(
             format!("needs L ≥ {equivalent:.2} {len}")
         }
     };
-    let k_code = if curve.kind == CurveKind::Crest { "crest.k-min" } else { "sag.k-min" };
+    let k_code = if curve.kind == CurveKind::Crest { FindingCode::CrestKMin } else { FindingCode::SagKMin };
     if below(k, k_min) {
         push(
-            Severity::Fail,
             k_code,
             format!(
                 "{where_}: {shape}: {k_text} is below the minimum {k_min:.1} {ks} (A = {a:.3} %); {}",
@@ -577,7 +516,6 @@ fn check_curve_inner(
             format!("{length:.2} {len} is shorter than {sight_length:.2} {len}")
         };
         push(
-            Severity::Fail,
             sight_code,
             format!(
                 "{where_}: {shape}: {measured}, for SSD {ssd:.0} {len} ({formula}, A = {a:.3} %); {}",
@@ -594,8 +532,7 @@ fn check_curve_inner(
             SagRule::Headlight => "checked as asked",
         };
         push(
-            Severity::Fail,
-            "sag.comfort-length",
+            FindingCode::SagComfortLength,
             format!(
                 "{where_}: {shape}: shorter than the comfort length {comfort:.2} {len} ({why}; \
                  L = A·V²/D, a = {accel} {}); {}",
@@ -606,8 +543,7 @@ fn check_curve_inner(
     }
     if below(length, min_length) {
         push(
-            Severity::Warn,
-            "curve.min-length",
+            FindingCode::CurveMinLength,
             format!(
                 "{where_}: curve length {length:.2} {len} is below the minimum length {min_length:.2} {len} ({})",
                 criteria.entry(CriterionId::MinCurveLength).map_or("", |e| e.rule.as_str())
@@ -619,8 +555,7 @@ fn check_curve_inner(
         && above(k_overall, drainage)
     {
         push(
-            Severity::Warn,
-            "drainage.flat-curve",
+            FindingCode::DrainageFlatCurve,
             format!(
                 "{where_}: K = {k_overall:.1} {ks} is above {drainage:.0} {ks} with a level point at {} \
                  (elevation {elevation:.3}); check drainage near the level point",
@@ -733,16 +668,14 @@ fn check_sight(
                 format!("; limited by {what} at PVI {} ({})", i + 1, label(units, p.station))
             })
             .unwrap_or_default();
-        Finding {
-            severity: Severity::Fail,
-            code: match short.direction {
-                Direction::Forward => "sight.forward",
-                Direction::Backward => "sight.backward",
+        Finding::new(
+            match short.direction {
+                Direction::Forward => FindingCode::SightForward,
+                Direction::Backward => FindingCode::SightBackward,
             },
-            station_start: Station(short.start),
-            station_end: Station(short.end),
+            (Station(short.start), Station(short.end)),
             pvi,
-            message: format!(
+            format!(
                 "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
                  worst at {}: {:.1} {len} available{blamed}",
                 label(units, Station(short.start)),
@@ -751,7 +684,7 @@ fn check_sight(
                 label(units, Station(short.worst)),
                 short.available
             ),
-        }
+        )
     };
     let shortfalls = sight.shortfalls(PASS_RELATIVE);
     let made: Vec<(crate::visibility::Shortfall, Finding)> = match reuse {
@@ -797,26 +730,17 @@ fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut V
         let [a, b] = pair else { continue };
         let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
         let span = || format!("{} to {}", label(units, a.station), label(units, b.station));
-        let mut push = |severity, code, message| {
-            findings.push(Finding {
-                severity,
-                code,
-                station_start: a.station,
-                station_end: b.station,
-                pvi: Some(i),
-                message,
-            });
+        let mut push = |code, message| {
+            findings.push(Finding::new(code, (a.station, b.station), Some(i), message));
         };
         if above(grade.abs(), max) {
             push(
-                Severity::Fail,
-                "grade.max",
+                FindingCode::GradeMax,
                 format!("Grade {grade:+.3} % from {} is steeper than the maximum {max:.2} %", span()),
             );
         } else if below(grade.abs(), min) {
             push(
-                Severity::Warn,
-                "grade.min",
+                FindingCode::GradeMin,
                 format!(
                     "Grade {grade:+.3} % from {} is flatter than the minimum {min:.2} % for drainage",
                     span()
@@ -846,7 +770,7 @@ mod tests {
         let profile = Profile::new(Units::Metric, vec![Pvi::new(0.0, 1e308), Pvi::new(100.0, -1e308)]);
         let problems = profile.problems();
         assert_eq!(problems.len(), 2);
-        assert!(problems.iter().all(|p| p.code() == "profile.out-of-range"), "{problems:?}");
+        assert!(problems.iter().all(|p| p.code() == FindingCode::ProfileOutOfRange), "{problems:?}");
         assert!(Alignment::new(&profile).is_err());
     }
 

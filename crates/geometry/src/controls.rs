@@ -4,7 +4,7 @@
 use serde::{Deserialize, Serialize};
 
 use crate::tolerance::{above, below};
-use crate::{Alignment, Finding, Severity, Station, Units, format_station};
+use crate::{Alignment, Finding, FindingCode, Station, Units, format_station};
 
 /// What a control point asks of the profile.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
@@ -158,24 +158,16 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
     for (i, (c, st)) in controls.iter().zip(status).enumerate() {
         let at = format_station(c.station, units, units.station_decimals());
         let name = c.title(i);
-        let finding = |severity, code, message| Finding {
-            severity,
-            code,
-            station_start: Station(c.station),
-            station_end: Station(c.station),
-            pvi: None,
-            message,
-        };
+        let finding =
+            |code, message| Finding::new(code, (Station(c.station), Station(c.station)), None, message);
         match *st {
             ControlStatus::Met(_) => {}
             ControlStatus::Outside => findings.push(finding(
-                Severity::Warn,
-                "control.outside",
+                FindingCode::ControlOutside,
                 format!("{name} at {at} is outside the profile: not checked"),
             )),
             ControlStatus::Invalid => findings.push(finding(
-                Severity::Fail,
-                "control.invalid",
+                FindingCode::ControlInvalid,
                 format!("{name}: station, elevation and tolerance must be finite numbers"),
             )),
             ControlStatus::Missed(y, miss) => {
@@ -183,7 +175,7 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
                     ControlKind::Fixed => {
                         let side = if y > c.elevation { "above" } else { "below" };
                         (
-                            "control.fixed",
+                            FindingCode::ControlFixed,
                             format!(
                                 "{name} at {at}: the profile is {miss:.3} {len} {side} the fixed elevation \
                                  {:.3} ± {:.3} (profile {y:.3})",
@@ -193,7 +185,7 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
                         )
                     }
                     ControlKind::Minimum => (
-                        "control.min",
+                        FindingCode::ControlMin,
                         format!(
                             "{name} at {at}: the profile is {miss:.3} {len} below the minimum {:.3} \
                              (profile {y:.3})",
@@ -201,7 +193,7 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
                         ),
                     ),
                     ControlKind::Maximum => (
-                        "control.max",
+                        FindingCode::ControlMax,
                         format!(
                             "{name} at {at}: the profile is {miss:.3} {len} above the maximum {:.3} \
                              (profile {y:.3})",
@@ -209,7 +201,7 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
                         ),
                     ),
                 };
-                findings.push(finding(Severity::Fail, code, message));
+                findings.push(finding(code, message));
             }
         }
     }
@@ -258,13 +250,13 @@ pub fn undercrossing_findings(
         let underside = c.elevation + c.clearance;
         let clear = underside - sample.elevation;
         let name = c.title(i);
-        let finding = |message: String| Finding {
-            severity: Severity::Fail,
-            code: "control.undercrossing",
-            station_start: curve.pvc,
-            station_end: curve.pvt,
-            pvi: Some(curve.index),
-            message,
+        let finding = |message: String| {
+            Finding::new(
+                FindingCode::ControlUndercrossing,
+                (curve.pvc, curve.pvt),
+                Some(curve.index),
+                message,
+            )
         };
         if clear <= (h1 + h2) / 2.0 {
             findings.push(finding(format!(
@@ -290,7 +282,7 @@ pub fn undercrossing_findings(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::{Profile, Pvi};
+    use crate::{Profile, Pvi, Severity};
 
     fn road() -> Alignment {
         // A straight 2 % grade from 100.0 at 0 to 102.0 at 100: y(50) = 101.0.
@@ -345,9 +337,12 @@ mod tests {
         let findings = control_findings(Units::Metric, &controls, &st);
         assert_eq!(findings.len(), 2, "{findings:?}");
         let first = findings.first().expect("one");
-        assert_eq!((first.severity, first.code), (Severity::Fail, "control.min"));
+        assert_eq!((first.severity(), first.code), (Severity::Fail, FindingCode::ControlMin));
         assert!(first.message.contains("0.750 m below the minimum 101.750"), "{}", first.message);
-        assert_eq!(findings.get(1).map(|f| (f.severity, f.code)), Some((Severity::Warn, "control.outside")));
+        assert_eq!(
+            findings.get(1).map(|f| (f.severity(), f.code)),
+            Some((Severity::Warn, FindingCode::ControlOutside))
+        );
     }
 
     #[test]
@@ -391,7 +386,7 @@ mod tests {
             |underside: f64| ControlPoint { elevation: underside - 5.0, clearance: 5.0, ..bridge(underside) };
         let found = undercrossing_findings(&road, &[with(102.5)], &criteria);
         let f = found.first().expect("a finding");
-        assert_eq!((f.code, f.severity), ("control.undercrossing", Severity::Fail));
+        assert_eq!((f.code, f.severity()), (FindingCode::ControlUndercrossing, Severity::Fail));
         assert!(f.message.contains("169.00 m"), "{}", f.message);
         assert!(undercrossing_findings(&road, &[with(106.5)], &criteria).is_empty());
         // Without a clearance there is no undercrossing check.

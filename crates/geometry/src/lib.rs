@@ -20,6 +20,7 @@ mod criteria;
 mod curve;
 mod earthwork;
 mod edit;
+mod finding;
 mod fit;
 mod grades;
 pub mod ground;
@@ -37,8 +38,8 @@ mod write;
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
 pub use analysis::{Analysis, is_design_problem, unchecked_report};
 pub use checks::{
-    CheckReport, CurveCheck, Finding, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Severity, Streamed, check_curve,
-    check_profile, check_profile_with_sight, compute_sight, sight_by_stretch, structural_findings,
+    CheckReport, CurveCheck, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, check_curve, check_profile,
+    check_profile_with_sight, compute_sight, sight_by_stretch, structural_findings,
 };
 pub use controls::{ControlKind, ControlPoint, ControlStatus, check_controls, control_findings};
 pub use criteria::{
@@ -50,6 +51,7 @@ pub use earthwork::{
     volume_symbol,
 };
 pub use edit::InsertError;
+pub use finding::{Finding, FindingCode, Severity};
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
 pub use ground::{CutFillSummary, Depth, Ground, cut_fill_summary, depth_at, grade_points};

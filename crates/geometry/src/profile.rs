@@ -3,7 +3,7 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::{Station, Units};
+use crate::{FindingCode, Station, Units};
 
 /// The vertical curve at a PVI.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize, Default)]
@@ -228,18 +228,18 @@ pub enum ProfileProblem {
 }
 
 impl ProfileProblem {
-    /// A stable code for reports (`profile.overlap`, …).
-    pub fn code(&self) -> &'static str {
+    /// The finding code reports give it (`curve.overlap`, …).
+    pub fn code(&self) -> FindingCode {
         match self {
-            Self::TooFewPvis { .. } => "profile.too-few-pvis",
-            Self::NotFinite { .. } => "profile.not-finite",
-            Self::OutOfRange { .. } => "profile.out-of-range",
-            Self::NegativeLength { .. } => "profile.negative-length",
-            Self::StationOrder { .. } => "profile.station-order",
-            Self::CurveAtEnd { .. } => "profile.curve-at-end",
-            Self::CurveExceedsTangent { .. } => "curve.exceeds-tangent",
-            Self::ZeroCurvePart { .. } => "curve.zero-part",
-            Self::Overlap { .. } => "curve.overlap",
+            Self::TooFewPvis { .. } => FindingCode::ProfileTooFewPvis,
+            Self::NotFinite { .. } => FindingCode::ProfileNotFinite,
+            Self::OutOfRange { .. } => FindingCode::ProfileOutOfRange,
+            Self::NegativeLength { .. } => FindingCode::ProfileNegativeLength,
+            Self::StationOrder { .. } => FindingCode::ProfileStationOrder,
+            Self::CurveAtEnd { .. } => FindingCode::ProfileCurveAtEnd,
+            Self::CurveExceedsTangent { .. } => FindingCode::CurveExceedsTangent,
+            Self::ZeroCurvePart { .. } => FindingCode::CurveZeroPart,
+            Self::Overlap { .. } => FindingCode::CurveOverlap,
         }
     }
 

@@ -2,7 +2,7 @@
 
 use gradewright_acceptance::{alignment, assert_close};
 use gradewright_geometry::{
-    Alignment, CurveKind, Profile, Pvi, Station, Units, VerticalCurve, format_station,
+    Alignment, CurveKind, FindingCode, Profile, Pvi, Station, Units, VerticalCurve, format_station,
 };
 
 /// J. Mahun, *Vertical Curves* (open-access surveying text), solutions 1, Problem 2: PVI 56+50.00 at
@@ -137,8 +137,8 @@ fn validation_lists_every_problem() {
     ];
     let problems = Profile::new(Units::Metric, pvis).problems();
     let codes: Vec<_> = problems.iter().map(gradewright_geometry::ProfileProblem::code).collect();
-    assert!(codes.contains(&"profile.curve-at-end"), "{codes:?}");
-    assert!(codes.contains(&"profile.not-finite"), "{codes:?}");
+    assert!(codes.contains(&FindingCode::ProfileCurveAtEnd), "{codes:?}");
+    assert!(codes.contains(&FindingCode::ProfileNotFinite), "{codes:?}");
     assert_eq!(Profile::new(Units::Metric, vec![Pvi::new(0.0, 1.0)]).problems().len(), 1);
     let overlapping = vec![
         Pvi::new(0.0, 10.0),
@@ -147,5 +147,5 @@ fn validation_lists_every_problem() {
         Pvi::new(300.0, 12.0),
     ];
     let problems = Profile::new(Units::Metric, overlapping).problems();
-    assert!(problems.iter().any(|p| p.code() == "curve.overlap"), "{problems:?}");
+    assert!(problems.iter().any(|p| p.code() == FindingCode::CurveOverlap), "{problems:?}");
 }

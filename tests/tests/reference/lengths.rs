@@ -3,7 +3,7 @@
 
 use gradewright_acceptance::{alignment, assert_close};
 use gradewright_geometry::{
-    Criteria, Profile, Pvi, Setting, Severity, Units, check_profile,
+    Criteria, FindingCode, Profile, Pvi, Setting, Severity, Units, check_profile,
     sight::{self, SightCase},
 };
 
@@ -70,7 +70,7 @@ fn rogers_k_override_lengths() {
             1e-9,
             "L = K·A (Rogers Ex 6.6)",
         );
-        assert!(report.findings.iter().any(|f| f.code == "crest.k-min"), "{report:?}");
+        assert!(report.findings.iter().any(|f| f.code == FindingCode::CrestKMin), "{report:?}");
     }
 }
 
@@ -163,24 +163,28 @@ fn profile_checks_flag_what_fails() {
     let resolved = criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
     let profile = Profile::new(Units::Metric, a.pvis().to_vec());
     let report = check_profile(&profile, &resolved);
-    let codes: Vec<_> = report.findings.iter().map(|f| (f.code, f.severity, f.pvi)).collect();
+    let codes: Vec<_> = report.findings.iter().map(|f| (f.code, f.severity(), f.pvi)).collect();
     // Crest +3 % → −2 %, A = 5, L 90: K 18 < 26 (Green Book 2018 Table 3-34,
     // metric, 80 km/h; from memory).
-    assert!(codes.contains(&("crest.k-min", Severity::Fail, Some(1))), "{codes:?}");
+    assert!(codes.contains(&(FindingCode::CrestKMin, Severity::Fail, Some(1))), "{codes:?}");
     // Exact: S = 130 m > L → L = 2·130 − 658/5 = 128.4 m > 90.
-    assert!(codes.contains(&("crest.ssd-length", Severity::Fail, Some(1))), "{codes:?}");
+    assert!(codes.contains(&(FindingCode::CrestSsdLength, Severity::Fail, Some(1))), "{codes:?}");
     assert_close(report.curves[0].sight_length, 128.4, 1e-9, "2S − 658/A");
     assert!(!report.curves[0].ok);
     // Sag −2 % → +1 %, A = 3, L 400 → K 133 > 51 with a low point: drainage warning.
-    assert!(codes.contains(&("drainage.flat-curve", Severity::Warn, Some(2))), "{codes:?}");
+    assert!(codes.contains(&(FindingCode::DrainageFlatCurve, Severity::Warn, Some(2))), "{codes:?}");
     assert!(report.curves[1].ok);
     assert_close(report.curves[1].length_required, 90.0, 1e-9, "sag K 30 · A 3");
     let steep = Profile::new(Units::Metric, vec![Pvi::new(0.0, 100.0), Pvi::new(100.0, 108.0)]);
     let report = check_profile(&steep, &resolved);
-    assert!(report.findings.iter().any(|f| f.code == "grade.max" && f.severity == Severity::Fail));
+    assert!(
+        report.findings.iter().any(|f| f.code == FindingCode::GradeMax && f.severity() == Severity::Fail)
+    );
     let flat = Profile::new(Units::Metric, vec![Pvi::new(0.0, 100.0), Pvi::new(100.0, 100.1)]);
     let report = check_profile(&flat, &resolved);
-    assert!(report.findings.iter().any(|f| f.code == "grade.min" && f.severity == Severity::Warn));
+    assert!(
+        report.findings.iter().any(|f| f.code == FindingCode::GradeMin && f.severity() == Severity::Warn)
+    );
     assert!(!report.has_failures());
 }
 
@@ -199,7 +203,9 @@ fn overlap_is_a_failure_finding() {
     );
     let criteria = Criteria { design_speed: Some(60.0), ..Criteria::default() };
     let report = check_profile(&profile, &criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}")));
-    assert!(report.findings.iter().any(|f| f.code == "curve.overlap" && f.severity == Severity::Fail));
+    assert!(
+        report.findings.iter().any(|f| f.code == FindingCode::CurveOverlap && f.severity() == Severity::Fail)
+    );
     assert_eq!(report.curves.len(), 2);
 }
 
@@ -216,7 +222,7 @@ fn lengthen_to_clear_finds_the_shortest_clearing_length() {
     );
     let report = check_profile(&profile, &resolved);
     assert_eq!(report.failing_curves(), vec![1]);
-    assert!(report.findings.iter().any(|f| f.code == "sight.forward"), "{:?}", report.findings);
+    assert!(report.findings.iter().any(|f| f.code == FindingCode::SightForward), "{:?}", report.findings);
     let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[], &[1], 5.0);
     assert_close(fitted.pvis[1].curve.length(), 130.0, 1e-9, "K·A = 26 · 5");
     assert!(outcomes[0].cleared, "{outcomes:?}");

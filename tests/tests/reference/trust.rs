@@ -7,9 +7,9 @@
 use gradewright_acceptance::assert_close;
 use gradewright_geometry::visibility::{Direction, Road};
 use gradewright_geometry::{
-    Alignment, Area, CheckReport, ControlKind, ControlPoint, Criteria, CriterionId, CurveKind, Profile, Pvi,
-    ResolvedCriteria, RoadClass, SagRule, Setting, Severity, Station, Terrain, Units, VerticalCurve,
-    check_profile, lengthen_to_clear, max_grade, sight,
+    Alignment, Area, CheckReport, ControlKind, ControlPoint, Criteria, CriterionId, CurveKind, FindingCode,
+    Profile, Pvi, ResolvedCriteria, RoadClass, SagRule, Setting, Severity, Station, Terrain, Units,
+    VerticalCurve, check_profile, lengthen_to_clear, max_grade, sight,
 };
 
 fn resolve(criteria: &Criteria, units: Units) -> ResolvedCriteria {
@@ -20,8 +20,8 @@ fn metric(speed: f64) -> ResolvedCriteria {
     resolve(&Criteria { design_speed: Some(speed), ..Criteria::default() }, Units::Metric)
 }
 
-fn codes(report: &CheckReport) -> Vec<(&'static str, Severity, Option<usize>)> {
-    report.findings.iter().map(|f| (f.code, f.severity, f.pvi)).collect()
+fn codes(report: &CheckReport) -> Vec<(FindingCode, Severity, Option<usize>)> {
+    report.findings.iter().map(|f| (f.code, f.severity(), f.pvi)).collect()
 }
 
 /// Four PVIs on one straight 0.1 % grade (stations 0/300/600/900 at
@@ -42,7 +42,10 @@ fn collinear_pvis_are_no_grade_change() {
     }
     assert!(!report.has_failures(), "{:?}", codes(&report));
     assert!(
-        report.findings.iter().all(|f| !f.code.starts_with("crest") && !f.code.starts_with("sag")),
+        report
+            .findings
+            .iter()
+            .all(|f| !f.code.as_str().starts_with("crest") && !f.code.as_str().starts_with("sag")),
         "{:?}",
         codes(&report)
     );
@@ -68,14 +71,17 @@ fn bare_grade_breaks_have_their_own_rule() {
     assert_close(metric(60.0).get(CriterionId::MaxBareBreak), 1.0, 0.0, "1.0 % at 60 km/h");
     let report = check_profile(&break_of(0.4), &criteria);
     let found = codes(&report);
-    assert!(found.contains(&("break.no-curve", Severity::Info, Some(1))), "{found:?}");
-    assert!(!found.iter().any(|f| f.0 == "crest.k-min" || f.0 == "curve.min-length"), "{found:?}");
+    assert!(found.contains(&(FindingCode::BreakNoCurve, Severity::Info, Some(1))), "{found:?}");
+    assert!(
+        !found.iter().any(|f| f.0 == FindingCode::CrestKMin || f.0 == FindingCode::CurveMinLength),
+        "{found:?}"
+    );
     assert!(!report.has_failures(), "{found:?}");
     assert_eq!(report.curves[0].k_required, None);
     let report = check_profile(&break_of(2.0), &criteria);
     let found = codes(&report);
-    assert!(found.contains(&("break.needs-curve", Severity::Fail, Some(1))), "{found:?}");
-    assert!(!found.iter().any(|f| f.0 == "curve.min-length"), "{found:?}");
+    assert!(found.contains(&(FindingCode::BreakNeedsCurve, Severity::Fail, Some(1))), "{found:?}");
+    assert!(!found.iter().any(|f| f.0 == FindingCode::CurveMinLength), "{found:?}");
     // K 52 × A 2 = 104 m (Green Book 2018 Table 3-34, metric; from memory).
     assert_close(report.curves[0].length_required, 104.0, 1e-9, "needs K·A");
     let allowed = resolve(
@@ -87,7 +93,7 @@ fn bare_grade_breaks_have_their_own_rule() {
         Units::Metric,
     );
     let report = check_profile(&break_of(2.0), &allowed);
-    assert!(!codes(&report).iter().any(|f| f.0 == "break.needs-curve"), "{:?}", codes(&report));
+    assert!(!codes(&report).iter().any(|f| f.0 == FindingCode::BreakNeedsCurve), "{:?}", codes(&report));
 }
 
 /// On a lit road (headlight check off) the sag rule is comfort: K = V²/395 at
@@ -112,10 +118,17 @@ fn lit_roads_use_the_comfort_rule_for_sags() {
         vec![Pvi::new(0.0, 110.0), Pvi::with_curve(500.0, 100.0, 150.0), Pvi::new(1000.0, 115.0)],
     );
     let report = check_profile(&profile, &unlit);
-    assert!(codes(&report).contains(&("sag.k-min", Severity::Fail, Some(1))), "{:?}", codes(&report));
+    assert!(
+        codes(&report).contains(&(FindingCode::SagKMin, Severity::Fail, Some(1))),
+        "{:?}",
+        codes(&report)
+    );
     let report = check_profile(&profile, &lit);
     let found = codes(&report);
-    assert!(!found.iter().any(|f| f.0 == "sag.k-min" || f.0 == "sag.headlight-length"), "{found:?}");
+    assert!(
+        !found.iter().any(|f| f.0 == FindingCode::SagKMin || f.0 == FindingCode::SagHeadlightLength),
+        "{found:?}"
+    );
     assert!(!report.has_failures(), "{found:?}");
     assert_close(
         report.curves[0].comfort_length.unwrap_or(0.0),
@@ -153,7 +166,7 @@ fn unequal_tangent_curves_report_the_total_length_needed() {
     let message = report
         .findings
         .iter()
-        .find(|f| f.code == "crest.k-min")
+        .find(|f| f.code == FindingCode::CrestKMin)
         .map(|f| f.message.clone())
         .unwrap_or_default();
     for part in
@@ -183,12 +196,12 @@ fn shortfalls_are_charged_to_the_blocking_curve() {
     );
     let criteria = metric(80.0);
     let report = check_profile(&profile, &criteria);
-    let forward = report.findings.iter().find(|f| f.code == "sight.forward").unwrap_or_else(|| {
+    let forward = report.findings.iter().find(|f| f.code == FindingCode::SightForward).unwrap_or_else(|| {
         panic!("a forward shortfall: {:?}", codes(&report));
     });
     assert_eq!(forward.pvi, Some(2), "{}", forward.message);
     assert!(forward.message.contains("crest curve at PVI 3"), "{}", forward.message);
-    let backward = report.findings.iter().find(|f| f.code == "sight.backward");
+    let backward = report.findings.iter().find(|f| f.code == FindingCode::SightBackward);
     assert!(backward.is_some_and(|f| f.pvi == Some(2)), "{backward:?}");
 }
 
@@ -344,7 +357,7 @@ fn design_speeds_off_the_tables_are_warned() {
         let found = report
             .findings
             .iter()
-            .any(|f| f.code == "criteria.speed-off-table" && f.severity == Severity::Warn);
+            .any(|f| f.code == FindingCode::CriteriaSpeedOffTable && f.severity() == Severity::Warn);
         assert_eq!(found, warned, "{speed} km/h: {:?}", codes(&report));
     }
 }
@@ -474,7 +487,7 @@ fn each_fit_looks_only_as_far_as_it_must() {
     }
     for &i in &cleared {
         let fails: Vec<_> =
-            after.findings.iter().filter(|f| f.pvi == Some(i) && f.severity == Severity::Fail).collect();
+            after.findings.iter().filter(|f| f.pvi == Some(i) && f.severity() == Severity::Fail).collect();
         assert!(fails.is_empty(), "PVI {} cleared by the fit but fails the whole check: {fails:?}", i + 1);
     }
     // The first 40 PVIs alone, ending at PVI 40 as a plain end: the curves

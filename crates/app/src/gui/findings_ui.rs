@@ -16,7 +16,7 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let palette = Palette::of(ui);
     let units = app.project().units;
     let findings = &app.analysis().report.findings;
-    let count = |s| findings.iter().filter(|f| f.severity == s).count();
+    let count = |s| findings.iter().filter(|f| f.severity() == s).count();
     ui.label(format!(
         "{} fail · {} warn · {} info",
         count(Severity::Fail),
@@ -30,7 +30,7 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let mut order: Vec<usize> = (0..findings.len()).collect();
     order.sort_by(|&a, &b| {
         let (a, b) = (&findings[a], &findings[b]);
-        b.severity.cmp(&a.severity).then(a.station_start.total_cmp(&b.station_start))
+        b.severity().cmp(&a.severity()).then(a.station_start.total_cmp(&b.station_start))
     });
     let mut clicked = None;
     // Room for the whole reason: wrapped over up to four lines.
@@ -57,9 +57,9 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
                         ui.set_width(ui.available_width());
                         ui.set_height(row_height - 12.0);
                         ui.horizontal(|ui| {
-                            ui.label(status_text(Some(f.severity), palette));
+                            ui.label(status_text(Some(f.severity()), palette));
                             ui.label(RichText::new(&range).monospace());
-                            ui.label(RichText::new(f.code).weak());
+                            ui.label(RichText::new(f.code.as_str()).weak());
                         });
                         ui.add(egui::Label::new(&f.message).wrap());
                     })

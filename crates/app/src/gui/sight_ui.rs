@@ -81,7 +81,7 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         .report
         .findings
         .iter()
-        .filter(|f| f.code.starts_with("sight."))
+        .filter(|f| f.code.is_sight_shortfall())
         .map(|f| (f.station_start.0, f.station_end.0))
         .filter(|(a, b)| b.max(*a) >= x_range.0 && a.min(*b) <= x_range.1)
         .collect();

@@ -317,7 +317,7 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
         .on_hover_text("Total length the criteria ask for, at this curve's back:ahead ratio");
     let analysis = app.analysis();
     let messages: Vec<String> =
-        analysis.findings_at(i).map(|f| format!("[{}] {}", f.severity.key(), f.message)).collect();
+        analysis.findings_at(i).map(|f| format!("[{}] {}", f.severity().key(), f.message)).collect();
     let worst = analysis.worst_at(i);
     let status = ui.label(status_text(worst, palette));
     if !messages.is_empty() {
