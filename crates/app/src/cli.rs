@@ -511,10 +511,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             let alignment = build(&loaded)?;
             refuse_unchecked_sight(&alignment, &criteria, &input)?;
             let project = &loaded.project;
-            let increment = increment.unwrap_or(match project.units {
-                Units::Metric => 5.0,
-                Units::UsCustomary => 10.0,
-            });
+            let increment = increment.unwrap_or(project.units.curve_length_increment());
             let before = Analysis::of(project);
             let targets = before.report.failing_curves();
             let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(

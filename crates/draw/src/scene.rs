@@ -332,7 +332,7 @@ pub fn profile_scene_with(
     for w in pvis.windows(2) {
         let [a, b] = w else { continue };
         let mid = 0.5 * (a.station.0 + b.station.0);
-        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
+        let grade = a.grade_to(b) * 100.0;
         if !within(mid) || !grade.is_finite() || !keep(2) {
             continue;
         }

@@ -114,11 +114,8 @@ pub fn write_curves_csv(out: impl Write, analysis: &Analysis) -> Result<(), Tabl
     let pvis = &analysis.profile.pvis;
     let opt = |v: Option<f64>| v.filter(|v| v.is_finite()).map_or_else(String::new, |v| number(v, None));
     for (i, p) in pvis.iter().enumerate() {
-        let grade = |a: &gradewright_geometry::Pvi, b: &gradewright_geometry::Pvi| {
-            (b.elevation - a.elevation) / (b.station - a.station) * 100.0
-        };
-        let back = i.checked_sub(1).and_then(|j| pvis.get(j)).map(|a| grade(a, p));
-        let ahead = pvis.get(i + 1).map(|b| grade(p, b));
+        let back = i.checked_sub(1).and_then(|j| analysis.profile.tangent_grade_percent(j));
+        let ahead = analysis.profile.tangent_grade_percent(i);
         let check = analysis.report.curves.iter().find(|c| c.curve.index == i);
         let c = check.map(|c| c.curve);
         let status = match analysis.worst_at(i) {

@@ -81,7 +81,7 @@ impl Alignment {
         let mut tangent_start = (pvis[0].station.0, pvis[0].elevation);
         for (i, pair) in pvis.windows(2).enumerate() {
             let [a, b] = pair else { continue };
-            let grade = (b.elevation - a.elevation) / (b.station - a.station);
+            let grade = a.grade_to(b);
             let next_curve = curves.get(i); // the curve at PVI i + 1, if interior
             let tangent_end = match next_curve {
                 Some(c) => c.pvc.0,

@@ -386,11 +386,8 @@ fn sight_after(
     // PVI first − 1 to the end of the curve at PVI last + 1, in the old and the
     // new profile alike.
     let extent = |pvis: &[Pvi]| {
-        let lo = first
-            .checked_sub(1)
-            .and_then(|i| pvis.get(i))
-            .map_or(f64::NEG_INFINITY, |p| p.station.0 - p.curve.length_in());
-        let hi = pvis.get(last + 1).map_or(f64::INFINITY, |p| p.station.0 + p.curve.length_out());
+        let lo = first.checked_sub(1).and_then(|i| pvis.get(i)).map_or(f64::NEG_INFINITY, Pvi::pvc);
+        let hi = pvis.get(last + 1).map_or(f64::INFINITY, Pvi::pvt);
         (lo, hi)
     };
     let (a, b) = (extent(&old.pvis), extent(&new.pvis));

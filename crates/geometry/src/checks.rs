@@ -728,7 +728,7 @@ fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut V
     let min = criteria.get(CriterionId::MinGrade);
     for (i, pair) in profile.pvis.windows(2).enumerate() {
         let [a, b] = pair else { continue };
-        let grade = (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
+        let grade = a.grade_to(b) * 100.0;
         let span = || format!("{} to {}", label(units, a.station), label(units, b.station));
         let mut push = |code, message| {
             findings.push(Finding::new(code, (a.station, b.station), Some(i), message));

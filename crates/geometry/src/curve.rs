@@ -130,8 +130,7 @@ impl CurveGeometry {
     /// The caller guarantees finite values and increasing stations; the curve
     /// itself may still overlap its neighbours (checks report that).
     pub fn new(index: usize, prev: &Pvi, pvi: &Pvi, next: &Pvi) -> Self {
-        let g1 = (pvi.elevation - prev.elevation) / (pvi.station - prev.station);
-        let g2 = (next.elevation - pvi.elevation) / (next.station - pvi.station);
+        let (g1, g2) = (prev.grade_to(pvi), pvi.grade_to(next));
         let l1 = pvi.curve.length_in();
         let l2 = pvi.curve.length_out();
         let diff = g2 - g1;

@@ -11,11 +11,11 @@ impl Profile {
     pub fn station_limits(&self, index: usize) -> Option<(f64, f64)> {
         let pvi = self.pvis.get(index)?;
         let low = match index.checked_sub(1).and_then(|i| self.pvis.get(i)) {
-            Some(prev) => prev.station.0 + prev.curve.length_out() + pvi.curve.length_in(),
+            Some(prev) => prev.pvt() + pvi.curve.length_in(),
             None => f64::NEG_INFINITY,
         };
         let high = match self.pvis.get(index + 1) {
-            Some(next) => next.station.0 - next.curve.length_in() - pvi.curve.length_out(),
+            Some(next) => next.pvc() - pvi.curve.length_out(),
             None => f64::INFINITY,
         };
         // A PVI never sits exactly on its neighbour: keep a hair of room.

@@ -95,22 +95,6 @@ fn label(units: Units, s: f64) -> String {
     format_station(s, units, units.station_decimals())
 }
 
-/// The longest total length the curve at `index` can have without passing
-/// its neighbours' curves (keeping an unequal curve's in/out ratio).
-fn room(profile: &Profile, index: usize) -> Option<f64> {
-    let (prev, pvi, next) =
-        (profile.pvis.get(index.checked_sub(1)?)?, profile.pvis.get(index)?, profile.pvis.get(index + 1)?);
-    let back = pvi.station - prev.station - prev.curve.length_out();
-    let ahead = next.station - pvi.station - next.curve.length_in();
-    let total = pvi.curve.length();
-    let (share_in, share_out) = if total > 0.0 {
-        (pvi.curve.length_in() / total, pvi.curve.length_out() / total)
-    } else {
-        (0.5, 0.5)
-    };
-    Some((back / share_in).min(ahead / share_out).max(0.0))
-}
-
 /// The control points a change of the curve at `index` can move: those
 /// between its neighbouring PVIs (no other elevation changes).
 fn controls_near(profile: &Profile, controls: &[ControlPoint], index: usize) -> Vec<usize> {
@@ -169,7 +153,8 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -
     let mut outcome =
         FitOutcome { index, old_length, new_length: old_length, cleared: false, message: String::new() };
     let name = format!("PVI {}", index + 1);
-    let (Some(max_length), Some(original)) = (room(profile, index), profile.pvis.get(index).copied()) else {
+    let (Some(max_length), Some(original)) = (profile.curve_room(index), profile.pvis.get(index).copied())
+    else {
         outcome.message = format!("{name}: the first and last PVI carry no curve");
         return outcome;
     };
@@ -353,7 +338,7 @@ pub fn default_curve_length(
     let mut probe = profile.clone();
     set_length(&mut probe, index, 0.0);
     let curve = geometry_at(&probe, index)?;
-    let room = room(&probe, index)?;
+    let room = probe.curve_room(index)?;
     let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
     let min_length = criteria.get(CriterionId::MinCurveLength);
     let (needed, rule) = if curve.kind == CurveKind::None {

@@ -121,6 +121,24 @@ impl Pvi {
         Self { station: Station(station), elevation, curve: VerticalCurve::None }
     }
 
+    /// The grade (decimal fraction, + rising) of the tangent from this PVI to
+    /// `next`.
+    pub fn grade_to(&self, next: &Pvi) -> f64 {
+        (next.elevation - self.elevation) / (next.station - self.station)
+    }
+
+    /// Station of the curve's start (PVC); the PVI's station when there is
+    /// no curve.
+    pub fn pvc(&self) -> f64 {
+        self.station.0 - self.curve.length_in()
+    }
+
+    /// Station of the curve's end (PVT); the PVI's station when there is no
+    /// curve.
+    pub fn pvt(&self) -> f64 {
+        self.station.0 + self.curve.length_out()
+    }
+
     /// A PVI with a symmetric curve of total length `length` (0 = no curve).
     pub fn with_curve(station: f64, elevation: f64, length: f64) -> Self {
         Self {
@@ -288,15 +306,49 @@ impl Profile {
         Self { units, pvis }
     }
 
+    /// The grade of tangent `i` (from PVI `i` to PVI `i + 1`) in percent;
+    /// `None` when there is no such tangent.
+    pub fn tangent_grade_percent(&self, i: usize) -> Option<f64> {
+        let (a, b) = (self.pvis.get(i)?, self.pvis.get(i + 1)?);
+        Some(a.grade_to(b) * 100.0)
+    }
+
+    /// The free tangent between the curve at PVI `i` and the curve at PVI
+    /// `i + 1`: from the first's PVT to the second's PVC (reversed when the
+    /// curves overlap). `None` when there is no PVI `i + 1`.
+    pub fn tangent(&self, i: usize) -> Option<(f64, f64)> {
+        Some((self.pvis.get(i)?.pvt(), self.pvis.get(i + 1)?.pvc()))
+    }
+
+    /// The length of [`Profile::tangent`] `i`: the room left between the two
+    /// curves (negative when they overlap).
+    pub fn room(&self, i: usize) -> Option<f64> {
+        self.tangent(i).map(|(pvt, pvc)| pvc - pvt)
+    }
+
+    /// The longest total length the curve at PVI `index` can have without
+    /// passing its neighbours' curves, keeping an unequal curve's in/out
+    /// ratio (a curve of none shares it equally). `None` for an end PVI.
+    pub fn curve_room(&self, index: usize) -> Option<f64> {
+        let (prev, pvi, next) =
+            (self.pvis.get(index.checked_sub(1)?)?, self.pvis.get(index)?, self.pvis.get(index + 1)?);
+        let back = pvi.station.0 - prev.pvt();
+        let ahead = next.pvc() - pvi.station.0;
+        let total = pvi.curve.length();
+        let (share_in, share_out) = if total > 0.0 {
+            (pvi.curve.length_in() / total, pvi.curve.length_out() / total)
+        } else {
+            (0.5, 0.5)
+        };
+        Some((back / share_in).min(ahead / share_out).max(0.0))
+    }
+
     /// The steepest tangent grade, PVI to PVI, in percent (grades that are
     /// not finite numbers left out; 0 for fewer than two PVIs).
     pub fn steepest_grade_percent(&self) -> f64 {
-        self.pvis
-            .windows(2)
-            .filter_map(|w| match w {
-                [a, b] => Some(((b.elevation - a.elevation) / (b.station - a.station) * 100.0).abs()),
-                _ => None,
-            })
+        (0..self.pvis.len())
+            .filter_map(|i| self.tangent_grade_percent(i))
+            .map(f64::abs)
             .filter(|g| g.is_finite())
             .fold(0.0, f64::max)
     }
@@ -380,8 +432,7 @@ impl Profile {
         }
         for (index, pair) in self.pvis.windows(2).enumerate() {
             let [a, b] = pair else { continue };
-            let pvt = a.station.0 + a.curve.length_out();
-            let pvc = b.station.0 - b.curve.length_in();
+            let (pvt, pvc) = (a.pvt(), b.pvc());
             // Only report an overlap between two real curves; a single curve that is
             // too long for its tangent was reported above.
             if pvt > pvc && a.curve.is_curve() && b.curve.is_curve() {

@@ -4,7 +4,7 @@
 //! surroundings. The pieces it gets are the whole profile's, bit for bit,
 //! and memory does not grow with the length of the profile.
 
-use crate::{Profile, VerticalCurve};
+use crate::{Profile, Pvi, VerticalCurve};
 
 impl Profile {
     /// The PVIs from which the road over [lo, hi] is built exactly as the
@@ -16,8 +16,8 @@ impl Profile {
     pub fn part(&self, lo: f64, hi: f64, inner: std::ops::RangeInclusive<usize>) -> Profile {
         let pvis = &self.pvis;
         let last = pvis.len().saturating_sub(1);
-        let pvc = |i: usize| pvis.get(i).map_or(f64::NEG_INFINITY, |p| p.station.0 - p.curve.length_in());
-        let pvt = |i: usize| pvis.get(i).map_or(f64::INFINITY, |p| p.station.0 + p.curve.length_out());
+        let pvc = |i: usize| pvis.get(i).map_or(f64::NEG_INFINITY, Pvi::pvc);
+        let pvt = |i: usize| pvis.get(i).map_or(f64::INFINITY, Pvi::pvt);
         let mut first = inner.start().saturating_sub(1).min(last);
         while first > 0 && pvc(first + 1) >= lo {
             first -= 1;

@@ -91,6 +91,15 @@ impl Units {
         }
     }
 
+    /// The default increment curve lengths are rounded up to (Lengthen to
+    /// clear, a new PVI's curve): 5 m or 10 ft (common practice).
+    pub fn curve_length_increment(self) -> f64 {
+        match self {
+            Self::Metric => 5.0,
+            Self::UsCustomary => 10.0,
+        }
+    }
+
     /// Symbol of the length unit: `m` or `ft`.
     pub fn length_symbol(self) -> &'static str {
         match self {

@@ -97,7 +97,7 @@ impl GradewrightApp {
             close_requested: false,
         };
         app.view.request_fit();
-        app.view.lengthen_increment = default_increment(app.project.units);
+        app.view.lengthen_increment = app.project.units.curve_length_increment();
         if let Some(recovered) = app.files.read_recovery() {
             app.pending = Some(Pending::Recovery(Box::new(recovered)));
         }
@@ -330,7 +330,7 @@ impl GradewrightApp {
         }
         match Project::load(path) {
             Ok(project) => {
-                self.view.lengthen_increment = default_increment(project.units);
+                self.view.lengthen_increment = project.units.curve_length_increment();
                 self.replace_project(project, Some(path.to_owned()), true);
                 self.note_recent(path);
                 self.notice = Some(Notice { error: false, text: format!("Opened {}", path.display()) });
@@ -351,7 +351,7 @@ impl GradewrightApp {
         match read {
             Ok(read) => {
                 let project = read.project();
-                self.view.lengthen_increment = default_increment(project.units);
+                self.view.lengthen_increment = project.units.curve_length_increment();
                 self.replace_project(project, None, true);
                 let skipped: Vec<&str> =
                     read.notes.iter().filter(|n| !n.contains("lengths in")).map(String::as_str).collect();
@@ -405,7 +405,7 @@ impl GradewrightApp {
         let read = crate::input::load_input(path, Some(units), &gradewright_exchange::Selection::default());
         match read {
             Ok(input) => {
-                self.view.lengthen_increment = default_increment(units);
+                self.view.lengthen_increment = units.curve_length_increment();
                 self.replace_project(input.project, None, true);
                 self.notice = Some(Notice {
                     error: false,
@@ -552,7 +552,7 @@ impl GradewrightApp {
                 };
                 project.pvis = vec![Pvi::new(0.0, 100.0), Pvi::new(length, 100.0 + rise)];
                 self.replace_project(project, None, true);
-                self.view.lengthen_increment = default_increment(units);
+                self.view.lengthen_increment = units.curve_length_increment();
             }
             Action::Open(Some(path)) => {
                 self.open_path(&path);
@@ -758,13 +758,10 @@ impl GradewrightApp {
 
     fn insert_after_selected(&mut self) {
         let index = self.view.selected.unwrap_or(0);
-        let (Some(a), Some(b)) = (self.project.pvis.get(index), self.project.pvis.get(index + 1)) else {
-            return;
-        };
         // The middle of the tangent between the two curves' ends.
-        let start = a.station.0 + a.curve.length_out();
-        let end = b.station.0 - b.curve.length_in();
-        self.insert_at(0.5 * (start + end));
+        if let Some((start, end)) = self.analysis.profile.tangent(index) {
+            self.insert_at(0.5 * (start + end));
+        }
     }
 
     /// Applies every action queued during the frame, and asks for another
@@ -802,14 +799,6 @@ impl GradewrightApp {
         if ctx.input_mut(|i| i.consume_shortcut(&REDO_ALT)) {
             self.push(Action::Redo);
         }
-    }
-}
-
-/// The default "lengthen to clear" increment: 5 m or 10 ft.
-pub fn default_increment(units: Units) -> f64 {
-    match units {
-        Units::Metric => 5.0,
-        Units::UsCustomary => 10.0,
     }
 }
 

@@ -556,11 +556,9 @@ fn drag_readout(app: &GradewrightApp) -> Option<([f64; 2], String)> {
     let units = project.units;
     let i = app.view.dragging?;
     let p = project.pvis.get(i)?;
-    let grade = |a: &gradewright_geometry::Pvi, b: &gradewright_geometry::Pvi| {
-        (b.elevation - a.elevation) / (b.station - a.station) * 100.0
-    };
-    let g1 = i.checked_sub(1).and_then(|j| project.pvis.get(j)).map(|a| grade(a, p));
-    let g2 = project.pvis.get(i + 1).map(|b| grade(p, b));
+    let profile = &app.analysis().profile;
+    let g1 = i.checked_sub(1).and_then(|j| profile.tangent_grade_percent(j));
+    let g2 = profile.tangent_grade_percent(i);
     let pct = |g: Option<f64>| g.map_or_else(|| "—".to_owned(), |g| format!("{g:+.3} %"));
     let text = format!(
         "{}\nel. {:.3} {}\ng1 {} · g2 {}",

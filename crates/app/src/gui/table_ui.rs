@@ -200,7 +200,8 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     let analysis = app.analysis();
     let curve = analysis.curves.iter().find(|c| c.index == i).copied();
     let check = analysis.report.curves.iter().find(|c| c.curve.index == i).cloned();
-    let grade = |a: &Pvi, b: &Pvi| (b.elevation - a.elevation) / (b.station - a.station) * 100.0;
+    let grade_back = i.checked_sub(1).and_then(|j| analysis.profile.tangent_grade_percent(j));
+    let grade_ahead = analysis.profile.tangent_grade_percent(i);
     let pvis = app.project().pvis.clone();
     let previous = i.checked_sub(1).and_then(|j| pvis.get(j)).copied();
     let following = pvis.get(i + 1).copied();
@@ -231,15 +232,10 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
     match previous {
         Some(a) => {
             let id = CellId::Pvi(i, PviColumn::GradeBack);
-            if let Some(text) = edit_cell(
-                ui,
-                &mut app.view,
-                id,
-                &pct(Some(grade(&a, &pvi))),
-                60.0,
-                &format!("PVI {number} grade back"),
-            ) && let Some(g) =
-                settle(&mut app.view, id, &text, parse_grade(&text, (a.station.0, a.elevation), units))
+            if let Some(text) =
+                edit_cell(ui, &mut app.view, id, &pct(grade_back), 60.0, &format!("PVI {number} grade back"))
+                && let Some(g) =
+                    settle(&mut app.view, id, &text, parse_grade(&text, (a.station.0, a.elevation), units))
             {
                 let elevation = a.elevation + g / 100.0 * (pvi.station - a.station);
                 app.push(Action::edit(Edit::SetPvi { index: i, pvi: Pvi { elevation, ..pvi } }));
@@ -257,7 +253,7 @@ fn row_ui(app: &mut GradewrightApp, ui: &mut egui::Ui, i: usize, palette: Palett
                 ui,
                 &mut app.view,
                 id,
-                &pct(Some(grade(&pvi, &b))),
+                &pct(grade_ahead),
                 60.0,
                 &format!("PVI {number} grade ahead"),
             ) && let Some(g) =
