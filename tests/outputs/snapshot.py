@@ -65,6 +65,18 @@ def inputs(folder):
         f.write("25000,min,1,,Off the road,\n")
     files["ground.csv"] = ground
     files["controls.csv"] = controls
+    # The demo with other criteria: grade-adjusted SSD, a lit road with the
+    # comfort check, and overrides (the general formulas).
+    demo = open(os.path.join(ROOT, "assets", "alder-brook-road.ron"), encoding="utf-8").read()
+    for name, extra in [
+        ("graded.ron", "grade_adjusted_ssd: true,"),
+        ("lit.ron", "headlight_check: false, sag_comfort: true,"),
+        ("overridden.ron", "eye_height: Override(1.2), sag_k: Override(28.0), max_bare_break: Override(0.2),"),
+    ]:
+        path = os.path.join(folder, name)
+        with open(path, "w", encoding="utf-8") as f:
+            f.write(demo.replace("terrain: Rolling,", "terrain: Rolling, " + extra, 1))
+        files[name] = path
     return files
 
 
@@ -132,8 +144,9 @@ def snapshot(binary, out):
         cedar = [f["cedar-hollow-lane.csv"], "--units", "us", "--design-speed", "45"]
         runs = []
         # The demo and the US PVI table: every command.
+        variants = [(n[:-4], [f[n]], [f[n]]) for n in ["graded.ron", "lit.ron", "overridden.ron"]]
         for tag, base, plain in [("demo", [demo], [demo]), ("cedar", cedar, cedar[:3]),
-                                 ("site", [site, "--design-speed", "90"], [site])]:
+                                 ("site", [site, "--design-speed", "90"], [site])] + variants:
             runs += [
                 (f"{tag}-table", ["table", *plain], []),
                 (f"{tag}-table-20-3", ["table", *plain, "--interval", "20", "--decimals", "3"], []),
