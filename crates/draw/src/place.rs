@@ -7,6 +7,7 @@
 use std::collections::HashMap;
 
 use crate::scene::{Label, Side};
+use gradewright_geometry::tolerance::LENGTH_FLOOR;
 
 /// A rectangle in output coordinates (y grows downwards).
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -79,7 +80,7 @@ struct Taken {
 
 impl Taken {
     fn new(cell: f64) -> Self {
-        Self { cell: cell.max(1e-9), rects: Vec::new(), grid: HashMap::new() }
+        Self { cell: cell.max(LENGTH_FLOOR), rects: Vec::new(), grid: HashMap::new() }
     }
 
     fn cells(&self, r: &Rect) -> impl Iterator<Item = (i64, i64)> + use<> {
@@ -131,8 +132,9 @@ pub fn place_labels(
             if !chord.hits(&frame) && !frame.contains(&chord) {
                 continue;
             }
-            let pieces =
-                ((b[0] - a[0]).hypot(b[1] - a[1]) / spacing.piece.max(1e-9)).ceil().clamp(1.0, 10_000.0);
+            let pieces = ((b[0] - a[0]).hypot(b[1] - a[1]) / spacing.piece.max(LENGTH_FLOOR))
+                .ceil()
+                .clamp(1.0, 10_000.0);
             let mut k = 0.0;
             while k < pieces {
                 let (t0, t1) = (k / pieces, (k + 1.0) / pieces);

@@ -3,6 +3,7 @@
 
 use std::fmt::Write as _;
 
+use gradewright_geometry::tolerance::{run_end, station_hair};
 use gradewright_geometry::{Analysis, Severity, Station, Units, format_station};
 
 use crate::place::{Rect, Spacing, place_labels};
@@ -249,7 +250,7 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
     let mut from = start;
     loop {
         pages.push((from, from + sheet_length));
-        if from + sheet_length >= end - 1e-9 * span {
+        if !gradewright_geometry::tolerance::below(from + sheet_length, end) {
             break;
         }
         from += sheet_length - options.overlap;
@@ -387,8 +388,8 @@ fn one_sheet(
     let minor = major / 5.0;
     let mut s = (range.0 / minor).ceil() * minor;
     let _ = write!(svg, r##"<g stroke="#000" stroke-width="0.08" fill="none">"##);
-    while s <= range.1 + 1e-9 {
-        let is_major = ((s / major).round() * major - s).abs() < 1e-6 * major.max(1.0);
+    while s <= run_end(range.1, minor) {
+        let is_major = ((s / major).round() * major - s).abs() < station_hair(major);
         let width = if is_major { 0.18 } else { 0.06 };
         let colour = if is_major { "#888" } else { "#ccc" };
         let _ = write!(
@@ -400,7 +401,7 @@ fn one_sheet(
         s += minor;
     }
     let mut e = bottom;
-    while e <= bottom + height_units + 1e-9 {
+    while e <= run_end(bottom + height_units, v_step) {
         let _ = write!(
             svg,
             r##"<line x1="{fx:.3}" y1="{y:.3}" x2="{x2:.3}" y2="{y:.3}" stroke="#bbb" stroke-width="0.1"/>"##,
@@ -417,7 +418,7 @@ fn one_sheet(
     let mut text = String::new();
     let mut e = bottom;
     let decimals = if v_step < 1.0 { 1 } else { 0 };
-    while e <= bottom + height_units + 1e-9 {
+    while e <= run_end(bottom + height_units, v_step) {
         let y = py(e) + 0.8;
         let _ = write!(
             text,
@@ -432,7 +433,7 @@ fn one_sheet(
         e += v_step;
     }
     let mut s = (range.0 / major).ceil() * major;
-    while s <= range.1 + 1e-9 {
+    while s <= run_end(range.1, major) {
         let _ = write!(
             text,
             r#"<text x="{:.3}" y="{:.3}" font-size="{TEXT}" text-anchor="middle">{}</text>"#,
@@ -650,7 +651,7 @@ fn one_sheet(
     }
     if let Some(alignment) = analysis.alignment.as_ref() {
         let mut s = (range.0 / major).ceil() * major;
-        while s <= range.1 + 1e-9 {
+        while s <= run_end(range.1, major) {
             if let Ok(sample) = alignment.sample(Station(s)) {
                 let ground = analysis.ground.elevation_at(s);
                 let cells = [

@@ -37,8 +37,7 @@ pub fn interval_stations(alignment: &Alignment, interval: f64) -> Vec<f64> {
     stations.push(start);
     stations.push(end);
     stations.sort_by(f64::total_cmp);
-    let scale = (end - start).abs().max(1.0) * 1e-12;
-    stations.dedup_by(|a, b| (*a - *b).abs() <= scale);
+    stations.dedup_by(|a, b| gradewright_geometry::tolerance::same_station(*a, *b));
     stations
 }
 
@@ -115,7 +114,6 @@ pub fn write_interval_table(
         return Err(TableError::Invalid);
     };
     let (start, end) = (start.0, end.0);
-    let scale = (end - start).abs().max(1.0) * 1e-12;
     let mut table = StationTable::new(out, ground)?;
     let mut kept: Option<f64> = None;
     let mut stations = Vec::new();
@@ -144,7 +142,7 @@ pub fn write_interval_table(
         // Duplicates go as in the whole table: each station against the last
         // one kept, across stretches too.
         stations.retain(|&s| {
-            let repeat = kept.is_some_and(|k| (s - k).abs() <= scale);
+            let repeat = kept.is_some_and(|k| gradewright_geometry::tolerance::same_station(s, k));
             if !repeat {
                 kept = Some(s);
             }

@@ -195,7 +195,7 @@ const MAX_CHORDS: f64 = 4000.0;
 
 /// [`Alignment::flatten`] on any end-to-end pieces (also one curve's own).
 pub fn flatten_segments(segments: &[Segment], range: (f64, f64), tolerance: f64) -> Vec<[f64; 2]> {
-    let tolerance = tolerance.max(1e-9);
+    let tolerance = tolerance.max(crate::tolerance::LENGTH_FLOOR);
     let first = segments.partition_point(|s| s.end < range.0);
     let mut points = Vec::new();
     for seg in segments.get(first..).unwrap_or(&[]) {

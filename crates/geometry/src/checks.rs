@@ -1,6 +1,6 @@
 //! Checks of a profile against resolved criteria: a list of structured findings.
 
-use crate::tolerance::{PASS_RELATIVE, above, below};
+use crate::tolerance::{above, below};
 use crate::visibility::{Direction, Road, SightProfile, sight_profile, stations_every};
 use crate::{
     Alignment, CriterionId, CurveGeometry, CurveKind, Finding, FindingCode, Profile, ProfileProblem,
@@ -587,7 +587,7 @@ fn blocking_pvi(alignment: &Alignment, direction: Direction, eye: f64, limit: Li
     let at = to_profile(eye);
     let curves = alignment.curves();
     let span = |c: &CurveGeometry| {
-        let slack = PASS_RELATIVE * (1.0 + c.pvi.0.abs());
+        let slack = crate::tolerance::station_hair(c.pvi.0);
         (c.pvc.0 - slack, c.pvt.0 + slack)
     };
     // The curves are in station order and do not overlap (sight distance is
@@ -686,7 +686,7 @@ fn check_sight(
             ),
         )
     };
-    let shortfalls = sight.shortfalls(PASS_RELATIVE);
+    let shortfalls = sight.shortfalls();
     let made: Vec<(crate::visibility::Shortfall, Finding)> = match reuse {
         Some(reuse) => shortfalls
             .into_iter()

@@ -451,7 +451,7 @@ impl ResolvedCriteria {
             ));
         } else {
             let row = (v / step).round() * step;
-            if (v - row).abs() > crate::tolerance::PASS_RELATIVE * v {
+            if !crate::tolerance::nearly_equal(v, row) {
                 notes.push(format!(
                     "Design speed {v} {unit} lies between the rows of the published SSD and K tables \
                      (every {step} {unit}); SSD and K are computed by formula, not read from a row"

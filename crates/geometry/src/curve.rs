@@ -25,7 +25,7 @@
 //! A grade change of at most [`crate::tolerance::GRADE_CHANGE_PERCENT`] is no
 //! grade change ([`CurveKind::None`]).
 
-use crate::tolerance::{is_grade_change, same_length};
+use crate::tolerance::{is_grade_change, nearly_equal};
 use crate::{Pvi, Station};
 
 /// Whether a grade change is a crest, a sag, or none at all.
@@ -174,9 +174,9 @@ impl CurveGeometry {
         self.length_in + self.length_out
     }
 
-    /// Whether l1 = l2 (within [`crate::tolerance::LENGTH_RELATIVE`]).
+    /// Whether l1 = l2 (within [`crate::tolerance::EQUAL_RELATIVE`]).
     pub fn is_symmetric(&self) -> bool {
-        same_length(self.length_in, self.length_out)
+        nearly_equal(self.length_in, self.length_out)
     }
 
     /// Algebraic difference of grades A = |g2 − g1|, percent.

@@ -19,7 +19,7 @@ impl Profile {
             None => f64::INFINITY,
         };
         // A PVI never sits exactly on its neighbour: keep a hair of room.
-        let room = 1e-6 * (1.0 + low.abs().min(high.abs()).min(1e12));
+        let room = crate::tolerance::station_hair(low.abs().min(high.abs()).min(1e12));
         let (low, high) = (
             if index > 0 { low + room } else { low },
             if index + 1 < self.pvis.len() { high - room } else { high },
@@ -72,7 +72,8 @@ impl Alignment {
     /// # Errors
     /// [`InsertError`] when the station is outside, on a curve, or at a PVI.
     pub fn insertion(&self, station: f64) -> Result<(usize, Pvi), InsertError> {
-        let tolerance = 1e-6 * (self.end() - self.start());
+        // Closer than a hair of the profile's length is at the PVI.
+        let tolerance = crate::tolerance::station_hair(self.end() - self.start());
         if !(station > self.start().0 && station < self.end().0) {
             if let Some(i) = self.pvis().iter().position(|p| (p.station.0 - station).abs() <= tolerance) {
                 return Err(InsertError::AtPvi { station, pvi: i });

@@ -4,7 +4,7 @@
 //! length, and the sight distance actually available over the profile —
 //! without overlapping its neighbours.
 
-use crate::tolerance::{below, ceil_to};
+use crate::tolerance::{above, below, ceil_to};
 use crate::visibility::{Direction, SightProfile, grid_between, sight_profile};
 use crate::{
     Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, MAX_SIGHT_STATIONS,
@@ -187,7 +187,7 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -
     let near = controls_near(profile, controls, index);
     let met = met_controls(profile, run, index, &near);
     for _ in 0..steps_limit {
-        if length > max_length * (1.0 + 1e-12) {
+        if above(length, max_length) {
             break;
         }
         set_length(profile, index, length);
@@ -315,7 +315,7 @@ fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
         return true;
     }
     let sight: SightProfile = sight_profile(&alignment, &setup, criteria.sight_requirement(), &stations);
-    sight.shortfalls(crate::tolerance::PASS_RELATIVE).iter().all(|s| {
+    sight.shortfalls().iter().all(|s| {
         // Only shortfalls looking onto this curve count against it.
         match s.direction {
             Direction::Forward => s.worst > curve.pvt.0,

@@ -213,7 +213,8 @@ pub fn max_grade(units: Units, speed: f64, class: RoadClass, area: Area, terrain
     };
     let speeds = table.speeds;
     let grades = table.grades.get(terrain.row()).copied().unwrap_or(&[]);
-    let column = speeds.iter().position(|&s| s >= lookup - crate::tolerance::PASS_RELATIVE * s);
+    let column =
+        speeds.iter().position(|&s| crate::tolerance::meets(s, crate::tolerance::Bound::AtLeast(lookup)));
     let (lowest, highest) = (speeds.first().copied().unwrap_or(0.0), speeds.last().copied().unwrap_or(0.0));
     let mut note = String::new();
     if units == Units::Metric && unit == "mph" {
@@ -221,7 +222,7 @@ pub fn max_grade(units: Units, speed: f64, class: RoadClass, area: Area, terrain
     }
     if speeds.len() > 1 {
         match column {
-            Some(0) if lookup < lowest * (1.0 - crate::tolerance::PASS_RELATIVE) => {
+            Some(0) if crate::tolerance::below(lookup, lowest) => {
                 note.push_str(&format!("; table starts at {lowest} {unit}, its value used"));
             }
             None => note.push_str(&format!("; table ends at {highest} {unit}, its value used")),

@@ -397,11 +397,7 @@ fn scan(alignment: &Alignment, ground: &Ground, range: (f64, f64)) -> (Vec<f64>,
             if t > 0.0 && t < length {
                 summary.consider(p.start + t, p.difference(p.start + t));
             }
-            let disc = b * b - 4.0 * c * d0;
-            if disc >= 0.0 {
-                let q = -0.5 * (b + b.signum() * disc.sqrt());
-                let mut roots = if q == 0.0 { [0.0, f64::NAN] } else { [q / c, d0 / q] };
-                roots.sort_by(f64::total_cmp);
+            if let Some(roots) = crate::quadratic::roots(d0, b, c) {
                 for t in roots {
                     if t > 0.0 && t < length {
                         push_point(&mut points, p.start + t);

@@ -26,6 +26,7 @@ mod grades;
 pub mod ground;
 mod profile;
 mod project;
+pub mod quadratic;
 pub mod sight;
 mod station;
 pub mod stretch;

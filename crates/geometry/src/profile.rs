@@ -34,7 +34,7 @@ impl VerticalCurve {
     pub fn from_lengths(length_in: f64, length_out: f64) -> Self {
         if length_in == 0.0 && length_out == 0.0 {
             Self::None
-        } else if crate::tolerance::same_length(length_in, length_out) {
+        } else if crate::tolerance::nearly_equal(length_in, length_out) {
             Self::Symmetric { length: length_in + length_out }
         } else {
             Self::Unequal { length_in, length_out }

@@ -399,7 +399,7 @@ impl Road {
                 let a = piece.elevation_at(s) - base;
                 let b = piece.grade_at(s) - slope;
                 let c = 0.5 * piece.rate;
-                if let Some(t) = first_negative(-a, -b, -c, p.max(1e-9), q) {
+                if let Some(t) = first_negative(-a, -b, -c, p.max(crate::tolerance::LENGTH_FLOOR), q) {
                     return t;
                 }
             }
@@ -510,23 +510,7 @@ fn first_negative(c0: f64, c1: f64, c2: f64, lo: f64, hi: f64) -> Option<f64> {
             return None;
         }
     }
-    let scale = c0.abs() + (c1 * hi).abs() + (c2 * hi * hi).abs();
-    let mut roots = [f64::NAN; 2];
-    if c2.abs() * hi * hi <= 1e-14 * scale.max(1e-300) {
-        if c1 != 0.0 {
-            roots[0] = -c0 / c1;
-        }
-    } else {
-        let disc = c1 * c1 - 4.0 * c2 * c0;
-        if disc < 0.0 {
-            return None;
-        }
-        let q = -0.5 * (c1 + c1.signum() * disc.sqrt());
-        roots = [q / c2, if q == 0.0 { f64::NAN } else { c0 / q }];
-        if roots[0] > roots[1] {
-            roots.swap(0, 1);
-        }
-    }
+    let roots = crate::quadratic::roots_within(c0, c1, c2, hi)?;
     roots.into_iter().filter(|r| r.is_finite() && *r > lo && *r <= hi).find(|&r| c1 + 2.0 * c2 * r < 0.0)
 }
 
@@ -591,7 +575,7 @@ impl Requirement {
                     }
                     let average = (road.elevation(from + distance) - road.elevation(from)) / distance;
                     let next = braking(average);
-                    let settled = (next - distance).abs() <= crate::tolerance::PASS_RELATIVE * distance;
+                    let settled = crate::tolerance::settled(next, distance);
                     distance = next;
                     if settled {
                         break;
@@ -875,10 +859,10 @@ impl SightProfile {
         !crate::tolerance::below(available, self.cap)
     }
 
-    /// Every run of consecutive stations where available < required, per
-    /// direction, with the worst station of each. `tolerance` is a relative
-    /// allowance (a distance within it of the requirement passes).
-    pub fn shortfalls(&self, tolerance: f64) -> Vec<Shortfall> {
+    /// Every run of consecutive stations where the available distance falls
+    /// short of the required ([`crate::tolerance::below`]), per direction,
+    /// with the worst station of each.
+    pub fn shortfalls(&self) -> Vec<Shortfall> {
         let mut out = Vec::new();
         for direction in [Direction::Forward, Direction::Backward] {
             let mut current: Option<Shortfall> = None;
@@ -887,7 +871,7 @@ impl SightProfile {
                     Direction::Forward => (s.forward, s.required_forward),
                     Direction::Backward => (s.backward, s.required_backward),
                 };
-                if available < required * (1.0 - tolerance) {
+                if crate::tolerance::below(available, required) {
                     let short = required - available;
                     match &mut current {
                         Some(run) => {

@@ -73,7 +73,7 @@ pub fn sight_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
     let same_required = sight
         .samples
         .iter()
-        .all(|s| gradewright_geometry::tolerance::same_length(s.required_forward, s.required_backward));
+        .all(|s| gradewright_geometry::tolerance::nearly_equal(s.required_forward, s.required_backward));
     let cap = sight.cap;
     let top = sight.samples.iter().map(|s| s.forward.max(s.backward)).fold(0.0, f64::max);
     let shortfalls: Vec<(f64, f64)> = app

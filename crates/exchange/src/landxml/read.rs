@@ -673,7 +673,7 @@ fn station_range_note(
         return;
     };
     let (start, end) = (start * scale, (start + length) * scale);
-    let slack = 1e-6 * end.abs().max(1.0);
+    let slack = gradewright_geometry::tolerance::station_hair(end);
     let outside = pvis.iter().filter(|p| p.station.0 < start - slack || p.station.0 > end + slack).count();
     if outside > 0 {
         notes.push(format!(
