@@ -1,0 +1,209 @@
+//! The sight distance along the profile: computed whole or a stretch at a
+//! time, and each stretch where it falls short made a finding.
+
+use super::blame::{Limit, blocking_pvi};
+use super::{SightReuse, label};
+use crate::visibility::{Direction, Road, SightProfile, sight_profile, stations_every};
+use crate::{Alignment, CriterionId, CurveKind, Finding, FindingCode, Profile, ResolvedCriteria, Station};
+
+/// The most stations the sight distance is computed at (a 500 km profile at
+/// 1 m, or a step too small for the profile, is refused rather than run for
+/// minutes).
+pub const MAX_SIGHT_STATIONS: f64 = 5.0e6;
+
+/// Available and required sight distance of `alignment` at the criteria's
+/// step; `None` when that would take more than [`MAX_SIGHT_STATIONS`].
+pub fn compute_sight(alignment: &Alignment, criteria: &ResolvedCriteria) -> Option<SightProfile> {
+    let step = criteria.get(CriterionId::SightStep);
+    let count = (alignment.end() - alignment.start()) / step;
+    if count.is_nan() || count > MAX_SIGHT_STATIONS {
+        return None;
+    }
+    let stations = stations_every(alignment, step);
+    Some(sight_profile(alignment, &criteria.sight_setup(), criteria.sight_requirement(), &stations))
+}
+
+/// PVIs per stretch when a long profile's sight distance is computed one
+/// stretch at a time ([`sight_by_stretch`]).
+pub const PVIS_PER_STRETCH: usize = 2048;
+
+/// What [`sight_by_stretch`] did.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Streamed {
+    /// Every station was handed over.
+    Done,
+    /// Nothing was: the stations would pass [`MAX_SIGHT_STATIONS`].
+    TooManyStations,
+    /// Nothing was: the profile has problems ([`Profile::problems`]).
+    Problems,
+}
+
+/// [`compute_sight`] for a profile too long to hold at once: the samples, in
+/// station order, handed to `each` one stretch of `pvis_each` PVIs at a time.
+/// Each stretch is built from the PVIs around it ([`Profile::part`]), wide
+/// enough for every eye in it to look as far as the cap and to brake as far
+/// as the longest requirement the grades allow, so the samples are the
+/// whole profile's, bit for bit, in memory that does not grow with it.
+///
+/// # Errors
+/// The first error `each` returns (nothing more is computed).
+pub fn sight_by_stretch<E>(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    pvis_each: usize,
+    mut each: impl FnMut(&SightProfile) -> Result<(), E>,
+) -> Result<Streamed, E> {
+    if !profile.problems().is_empty() {
+        return Ok(Streamed::Problems);
+    }
+    let (Some(start), Some(end)) = (profile.start(), profile.end()) else { return Ok(Streamed::Problems) };
+    let (start, end) = (start.0, end.0);
+    let step = criteria.get(CriterionId::SightStep);
+    let count = (end - start) / step;
+    if count.is_nan() || count > MAX_SIGHT_STATIONS {
+        return Ok(Streamed::TooManyStations);
+    }
+    let setup = criteria.sight_setup();
+    let requirement = criteria.sight_requirement();
+    let steepest = profile.steepest_grade_percent();
+    // How far around its eyes a stretch must be built: the cap, or the
+    // longest braking stretch; without a bound, the whole profile at once.
+    let beyond = setup.cap.max(requirement.look_ahead(steepest)) + step;
+    let pvis_each = if beyond.is_finite() { pvis_each } else { profile.pvis.len() };
+    for stretch in profile.stretches(pvis_each) {
+        let stations: Vec<f64> = crate::visibility::grid_between(start, end, step, stretch.from, stretch.to)
+            .into_iter()
+            .filter(|&s| stretch.holds(s))
+            .collect();
+        if stations.is_empty() {
+            continue;
+        }
+        let part = profile.part(stretch.from - beyond, stretch.to + beyond, stretch.first..=stretch.last);
+        let Ok(alignment) = Alignment::new(&part) else { return Ok(Streamed::Problems) };
+        each(&sight_profile(&alignment, &setup, requirement, &stations))?;
+    }
+    Ok(Streamed::Done)
+}
+
+/// Shortfalls from which their findings are made on every core (below it a
+/// thread costs more than it saves).
+const PARALLEL_SHORTFALLS: usize = 2_000;
+
+pub(super) fn check_sight(
+    alignment: &Alignment,
+    criteria: &ResolvedCriteria,
+    sight: &SightProfile,
+    reuse: Option<SightReuse<'_>>,
+    findings: &mut Vec<Finding>,
+) -> Vec<(crate::visibility::Shortfall, Finding)> {
+    let units = criteria.units;
+    let len = units.length_symbol();
+    let setup = criteria.sight_setup();
+    let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
+    let fresh = |short: &crate::visibility::Shortfall| -> Finding {
+        let (road, at, way) = match short.direction {
+            Direction::Forward => (&roads[0], short.worst, "forward (increasing stations)"),
+            Direction::Backward => (&roads[1], -short.worst, "backward (decreasing stations)"),
+        };
+        let (day, horizon) = road.daylight_and_horizon(at, &setup);
+        let beam = if setup.headlights { road.headlight(at, &setup) } else { f64::INFINITY };
+        let headlight = beam < day;
+        let governs = if headlight {
+            "headlight sight distance (sag, at night)"
+        } else {
+            "daylight sight distance over the crest"
+        };
+        let limit = if headlight { Limit::Beam(beam) } else { Limit::Horizon(horizon) };
+        let pvi = blocking_pvi(alignment, short.direction, short.worst, limit);
+        let blamed = pvi
+            .and_then(|i| alignment.pvis().get(i).map(|p| (i, p)))
+            .map(|(i, p)| {
+                // `curves()[k]` is the curve at PVI k + 1: found directly,
+                // not by a search per shortfall.
+                let curve = i.checked_sub(1).and_then(|k| alignment.curves().get(k)).filter(|c| c.index == i);
+                let what = match curve {
+                    Some(c) if c.length() > 0.0 => format!("the {} curve", c.kind.key()),
+                    Some(c) if c.kind != CurveKind::None => format!("the {} grade break", c.kind.key()),
+                    _ => "the grade".to_owned(),
+                };
+                format!("; limited by {what} at PVI {} ({})", i + 1, label(units, p.station))
+            })
+            .unwrap_or_default();
+        Finding::new(
+            match short.direction {
+                Direction::Forward => FindingCode::SightForward,
+                Direction::Backward => FindingCode::SightBackward,
+            },
+            (Station(short.start), Station(short.end)),
+            pvi,
+            format!(
+                "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
+                 worst at {}: {:.1} {len} available{blamed}",
+                label(units, Station(short.start)),
+                label(units, Station(short.end)),
+                short.required,
+                label(units, Station(short.worst)),
+                short.available
+            ),
+        )
+    };
+    let shortfalls = sight.shortfalls();
+    let made: Vec<(crate::visibility::Shortfall, Finding)> = match reuse {
+        Some(reuse) => shortfalls
+            .into_iter()
+            .map(|short| {
+                let finding = reuse(&short).unwrap_or_else(|| fresh(&short));
+                (short, finding)
+            })
+            .collect(),
+        // Checked afresh, each shortfall's finding stands alone: on every
+        // core when there are many, in contiguous blocks, order kept.
+        None => {
+            let block =
+                shortfalls.len().div_ceil(crate::visibility::cores().clamp(1, 16)).max(PARALLEL_SHORTFALLS);
+            let make =
+                |part: &[crate::visibility::Shortfall]| -> Vec<(crate::visibility::Shortfall, Finding)> {
+                    part.iter().map(|short| (*short, fresh(short))).collect()
+                };
+            std::thread::scope(|scope| {
+                let mut parts = shortfalls.chunks(block);
+                let first = parts.next();
+                let jobs: Vec<_> = parts.map(|part| (part, scope.spawn(move || make(part)))).collect();
+                let mut made = first.map(make).unwrap_or_default();
+                for (part, job) in jobs {
+                    // A block whose thread failed is made again here: no
+                    // finding may be lost.
+                    made.extend(job.join().unwrap_or_else(|_| make(part)));
+                }
+                made
+            })
+        }
+    };
+    findings.extend(made.iter().map(|(_, f)| f.clone()));
+    made
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::Units;
+
+    /// The findings of many shortfalls made on every core are those made one
+    /// by one (the reuse path, given nothing to reuse), in the same order.
+    #[test]
+    fn shortfall_findings_made_on_every_core_are_those_made_one_by_one() {
+        let profile = crate::synthetic::rolling_profile(Units::Metric, 4001, 80_000.0);
+        let criteria = crate::Criteria { design_speed: Some(90.0), ..crate::Criteria::default() }
+            .resolve(Units::Metric)
+            .unwrap_or_else(|e| panic!("{e}"));
+        let alignment = Alignment::new(&profile).unwrap_or_else(|e| panic!("{e:?}"));
+        let sight = compute_sight(&alignment, &criteria).unwrap_or_else(|| panic!("stations"));
+        let (mut together, mut alone) = (Vec::new(), Vec::new());
+        let made = check_sight(&alignment, &criteria, &sight, None, &mut together);
+        let nothing = |_: &crate::visibility::Shortfall| None;
+        let one_by_one = check_sight(&alignment, &criteria, &sight, Some(&nothing), &mut alone);
+        assert!(made.len() > PARALLEL_SHORTFALLS, "{}", made.len());
+        assert_eq!(made, one_by_one);
+        assert_eq!(together, alone);
+    }
+}
