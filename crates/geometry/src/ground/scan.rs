@@ -1,246 +1,9 @@
-//! The existing ground line, and what a designer reads off it against the
-//! profile: cut and fill depths, the grade points (where the profile crosses
-//! the ground) and the largest cut and fill.
-//!
-//! The ground is linear between its points. Outside its first and last point
-//! there is no ground: no depth is given there, never an extrapolated one.
-//! The points are shared behind an [`Arc`], so copying a project (an undo
-//! step, a drag frame) never copies a large ground line.
+//! The profile against the ground: cut and fill depths, the grade points
+//! (where the profile crosses the ground) and the largest cut and fill,
+//! solved exactly on each piece where both are polynomials.
 
-use std::ops::Deref;
-use std::sync::Arc;
-
-use serde::{Deserialize, Deserializer, Serialize, Serializer};
-
-use crate::{Alignment, GroundPoint, Segment};
-
-/// The existing ground line: points in increasing station order, shared.
-#[derive(Clone, Debug, Default)]
-pub struct Ground(Arc<[GroundPoint]>);
-
-impl Ground {
-    /// A ground line of `points` (in increasing station order).
-    pub fn new(points: Vec<GroundPoint>) -> Self {
-        Self(points.into())
-    }
-
-    /// Whether `other` is the very same shared line (not only equal points).
-    pub fn shares(&self, other: &Self) -> bool {
-        Arc::ptr_eq(&self.0, &other.0)
-    }
-
-    /// First and last station, when there are at least two points.
-    pub fn range(&self) -> Option<(f64, f64)> {
-        match (self.first(), self.last()) {
-            (Some(a), Some(b)) if self.len() >= 2 => Some((a.station, b.station)),
-            _ => None,
-        }
-    }
-
-    /// The first point whose station and order are unusable, as
-    /// `(index, why)`: not finite, or not after the point before.
-    pub fn problem(&self) -> Option<(usize, &'static str)> {
-        for (i, p) in self.iter().enumerate() {
-            if !p.station.is_finite() || !p.elevation.is_finite() {
-                return Some((i, "station and elevation must be finite numbers"));
-            }
-            if i > 0 && self.get(i - 1).is_some_and(|q| q.station >= p.station) {
-                return Some((i, "stations must increase"));
-            }
-        }
-        None
-    }
-
-    /// Ground elevation at `station` by linear interpolation; `None` outside
-    /// the ground (or with fewer than two points).
-    pub fn elevation_at(&self, station: f64) -> Option<f64> {
-        let (first, last) = self.range()?;
-        if !(station >= first && station <= last) {
-            return None;
-        }
-        let i = self.partition_point(|p| p.station <= station).clamp(1, self.len() - 1);
-        let (a, b) = (self.get(i - 1)?, self.get(i)?);
-        let t = (station - a.station) / (b.station - a.station);
-        Some(a.elevation + t * (b.elevation - a.elevation))
-    }
-
-    /// The ground for drawing between stations `range`, at most about two
-    /// points per column when `columns` columns span the range: in each
-    /// column the lowest and the highest point, in station order, so a spike
-    /// stays visible. A line short enough is returned whole. One
-    /// point beyond each end of the range is kept so the line reaches the
-    /// edges. For drawing only: never compute with the result.
-    pub fn decimated(&self, range: (f64, f64), columns: usize) -> Vec<[f64; 2]> {
-        let lo = self.partition_point(|p| p.station < range.0).saturating_sub(1);
-        let hi = (self.partition_point(|p| p.station <= range.1) + 1).min(self.len());
-        let Some(points) = self.get(lo..hi) else { return Vec::new() };
-        let columns = columns.max(1);
-        if points.len() <= 2 * columns {
-            return points.iter().map(|p| [p.station, p.elevation]).collect();
-        }
-        let width = (range.1 - range.0) / columns as f64;
-        #[allow(clippy::cast_possible_truncation)]
-        let column_of = |s: f64| -> i64 {
-            if width > 0.0 && width.is_finite() { ((s - range.0) / width).floor() as i64 } else { 0 }
-        };
-        let mut out = Vec::with_capacity(2 * columns + 8);
-        let mut start = 0;
-        while let Some(first) = points.get(start) {
-            let column = column_of(first.station);
-            let mut end = start + 1;
-            while points.get(end).is_some_and(|p| column_of(p.station) == column) {
-                end += 1;
-            }
-            let run = points.get(start..end).unwrap_or(&[]);
-            let (mut low, mut high) = (0, 0);
-            for (k, p) in run.iter().enumerate() {
-                if run.get(low).is_some_and(|q| p.elevation < q.elevation) {
-                    low = k;
-                }
-                if run.get(high).is_some_and(|q| p.elevation > q.elevation) {
-                    high = k;
-                }
-            }
-            let picks = [low.min(high), low.max(high)];
-            let mut last_pick = usize::MAX;
-            for k in picks {
-                if k != last_pick
-                    && let Some(p) = run.get(k)
-                {
-                    out.push([p.station, p.elevation]);
-                }
-                last_pick = k;
-            }
-            start = end;
-        }
-        out
-    }
-}
-
-/// Ground elevations at stations in increasing order, in amortised O(1)
-/// each (a station behind is still answered, by a search).
-#[derive(Clone, Debug)]
-pub struct GroundWalker<'a> {
-    ground: &'a Ground,
-    index: usize,
-}
-
-impl GroundWalker<'_> {
-    /// As [`Ground::elevation_at`].
-    pub fn elevation_at(&mut self, station: f64) -> Option<f64> {
-        let (first, last) = self.ground.range()?;
-        if !(station >= first && station <= last) {
-            return None;
-        }
-        let points = &self.ground.0;
-        let ahead = |i: usize| points.get(i).is_some_and(|p| p.station <= station);
-        if self.index == 0 || !ahead(self.index - 1) {
-            self.index = points.partition_point(|p| p.station <= station);
-        } else if ahead(self.index + 8) {
-            // Far ahead: gallop (8, 16, 32, … points), then search the last
-            // stride, so the walk touches only the memory near its path.
-            let mut stride = 8;
-            while ahead(self.index + 2 * stride) {
-                stride *= 2;
-            }
-            let end = (self.index + 2 * stride + 1).min(points.len());
-            let window = points.get(self.index + stride..end).unwrap_or(&[]);
-            self.index += stride + window.partition_point(|p| p.station <= station);
-        } else {
-            while self.index < points.len() && ahead(self.index) {
-                self.index += 1;
-            }
-        }
-        let i = self.index.clamp(1, points.len() - 1);
-        let (a, b) = (points.get(i - 1)?, points.get(i)?);
-        let t = (station - a.station) / (b.station - a.station);
-        Some(a.elevation + t * (b.elevation - a.elevation))
-    }
-}
-
-impl Ground {
-    /// A walker for elevations at increasing stations.
-    pub fn walker(&self) -> GroundWalker<'_> {
-        GroundWalker { ground: self, index: 0 }
-    }
-}
-
-/// Ground elevations at stations, remembered from one analysis to the
-/// next: a drag moves a few stations of the earthwork, and the ground under
-/// the others need not be read again (it is the same ground). Stations are
-/// asked for in increasing order, so the last run's list is walked alongside
-/// (no hashing). Each value is [`Ground::elevation_at`] of its station, so
-/// the results are the same as without it.
-#[derive(Clone, Debug, Default)]
-pub struct GroundSamples {
-    ground: Ground,
-    old: Vec<(f64, Option<f64>)>,
-    at: usize,
-    new: Vec<(f64, Option<f64>)>,
-}
-
-impl GroundSamples {
-    /// Samples of `ground`, keeping what `previous` knew when it sampled
-    /// the very same ground.
-    pub fn new(ground: &Ground, previous: Option<Self>) -> Self {
-        let old = previous.filter(|p| p.ground.shares(ground)).map(|p| p.new).unwrap_or_default();
-        Self { ground: ground.clone(), new: Vec::with_capacity(old.len()), old, at: 0 }
-    }
-
-    /// The ground sampled.
-    pub fn ground(&self) -> &Ground {
-        &self.ground
-    }
-
-    /// The ground elevation at `station` (as [`Ground::elevation_at`]).
-    pub fn elevation_at(&mut self, station: f64) -> Option<f64> {
-        if self.new.last().is_some_and(|&(s, _)| s > station) {
-            // Out of order: nothing to walk alongside.
-            return self.ground.elevation_at(station);
-        }
-        while self.old.get(self.at).is_some_and(|&(s, _)| s < station) {
-            self.at += 1;
-        }
-        let v = match self.old.get(self.at) {
-            Some(&(s, v)) if s.to_bits() == station.to_bits() => v,
-            _ => self.ground.elevation_at(station),
-        };
-        self.new.push((station, v));
-        v
-    }
-}
-
-impl Deref for Ground {
-    type Target = [GroundPoint];
-
-    fn deref(&self) -> &[GroundPoint] {
-        &self.0
-    }
-}
-
-impl PartialEq for Ground {
-    fn eq(&self, other: &Self) -> bool {
-        self.shares(other) || *self.0 == *other.0
-    }
-}
-
-impl From<Vec<GroundPoint>> for Ground {
-    fn from(points: Vec<GroundPoint>) -> Self {
-        Self::new(points)
-    }
-}
-
-impl Serialize for Ground {
-    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
-        self.0.serialize(serializer)
-    }
-}
-
-impl<'de> Deserialize<'de> for Ground {
-    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
-        Vec::<GroundPoint>::deserialize(deserializer).map(Self::new)
-    }
-}
+use super::Ground;
+use crate::{Alignment, Segment};
 
 /// Cut or fill at one station: how far the profile is below (cut) or above
 /// (fill) the ground. One of the two is zero.
@@ -495,28 +258,13 @@ pub fn cut_fill_summary(alignment: &Alignment, ground: &Ground) -> CutFillSummar
 
 #[cfg(test)]
 mod tests {
+    use super::super::tests::ground;
     use super::*;
     use crate::{Profile, Pvi, Units};
-
-    fn ground(points: &[(f64, f64)]) -> Ground {
-        Ground::new(points.iter().map(|&(station, elevation)| GroundPoint { station, elevation }).collect())
-    }
 
     fn flat_road(elevation: f64, length: f64) -> Alignment {
         let pvis = vec![Pvi::new(0.0, elevation), Pvi::new(length, elevation)];
         Alignment::new(&Profile::new(Units::Metric, pvis)).expect("valid")
-    }
-
-    #[test]
-    fn interpolates_inside_and_gives_nothing_outside() {
-        let g = ground(&[(0.0, 100.0), (10.0, 102.0), (30.0, 101.0)]);
-        assert_eq!(g.elevation_at(5.0), Some(101.0));
-        assert_eq!(g.elevation_at(10.0), Some(102.0));
-        assert_eq!(g.elevation_at(20.0), Some(101.5));
-        assert_eq!(g.elevation_at(30.0), Some(101.0));
-        assert_eq!(g.elevation_at(-0.001), None);
-        assert_eq!(g.elevation_at(30.001), None);
-        assert_eq!(ground(&[(0.0, 1.0)]).elevation_at(0.0), None);
     }
 
     #[test]
@@ -558,29 +306,6 @@ mod tests {
     }
 
     #[test]
-    fn decimation_keeps_spikes_and_is_only_for_drawing() {
-        let mut points: Vec<(f64, f64)> = (0..100_000).map(|i| (f64::from(i) * 0.1, 50.0)).collect();
-        if let Some(p) = points.get_mut(54_321) {
-            p.1 = 80.0;
-        }
-        let g = ground(&points);
-        let drawn = g.decimated((0.0, 10_000.0), 500);
-        assert!(drawn.len() <= 2 * 500 + 8, "{}", drawn.len());
-        assert!(drawn.iter().any(|p| (p[1] - 80.0).abs() < 1e-12), "the spike is drawn");
-        assert!(drawn.windows(2).all(|w| matches!(w, [a, b] if a[0] < b[0])), "in station order");
-        assert_eq!(g.len(), 100_000, "the ground itself is untouched");
-    }
-
-    #[test]
-    fn copies_share_the_points() {
-        let g = ground(&[(0.0, 1.0), (1.0, 2.0)]);
-        let copy = g.clone();
-        assert!(copy.shares(&g));
-        assert_eq!(copy, g);
-        assert!(!ground(&[(0.0, 1.0), (1.0, 2.0)]).shares(&g));
-    }
-
-    #[test]
     fn a_scan_after_an_edit_equals_a_scan_from_scratch() {
         let profile = crate::synthetic::rolling_profile(Units::Metric, 60, 6_000.0);
         let road = Alignment::new(&profile).expect("valid");
@@ -611,18 +336,5 @@ mod tests {
             "most blocks are reused: {reused} of {}",
             after.blocks.len()
         );
-    }
-
-    #[test]
-    fn the_walker_agrees_with_a_search_at_every_station() {
-        let points: Vec<(f64, f64)> =
-            (0..5_000).map(|i| (f64::from(i) * 0.1, (f64::from(i) * 0.37).sin())).collect();
-        let g = ground(&points);
-        let mut walk = g.walker();
-        // Small steps, a long jump, a step back, and beyond the end.
-        let stations = [0.0, 0.05, 0.1, 0.35, 3.0, 3.04, 250.0, 250.01, 120.0, 121.0, 499.9, 500.0];
-        for s in stations {
-            assert_eq!(walk.elevation_at(s), g.elevation_at(s), "at {s}");
-        }
     }
 }
