@@ -7,9 +7,9 @@ use std::hint::black_box;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use gradewright::gui::{AppFiles, GradewrightApp};
+use gradewright_document::Project;
 use gradewright_geometry::{
-    Alignment, ControlKind, ControlPoint, GroundPoint, Project, Section, Station, Units,
-    synthetic::rolling_profile,
+    Alignment, ControlKind, ControlPoint, GroundPoint, Section, Station, Units, synthetic::rolling_profile,
 };
 
 fn input() -> egui::RawInput {

@@ -512,7 +512,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             refuse_unchecked_sight(&alignment, &criteria, &input)?;
             let project = &loaded.project;
             let increment = increment.unwrap_or(project.units.curve_length_increment());
-            let before = Analysis::of(project);
+            let before = Analysis::of(&project.design());
             let targets = before.report.failing_curves();
             let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(
                 &before.profile,
@@ -523,7 +523,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             );
             let mut out = project.clone();
             out.pvis = fitted.pvis;
-            let after = Analysis::of(&out).report;
+            let after = Analysis::of(&out.design()).report;
             write_like_input(&out, &input, &output)?;
             let mut text = String::new();
             if outcomes.is_empty() {
@@ -723,7 +723,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
             }
             let alignment = build(&loaded)?;
             refuse_unchecked_sight(&alignment, &criteria, &input)?;
-            let analysis = Analysis::of(&loaded.project);
+            let analysis = Analysis::of(&loaded.project.design());
             let files = crate::export::render(&plan, &request, &analysis, &loaded.project)
                 .map_err(|e| anyhow!("{}: {e}", input.display()))?;
             crate::export::write_all(&files)?;
@@ -770,7 +770,7 @@ pub fn run(cli: Cli) -> anyhow::Result<ExitCode> {
                 refuse_unchecked_sight(&alignment, &criteria, &input)?;
             }
             let project = loaded.project;
-            let analysis = Analysis::of(&project);
+            let analysis = Analysis::of(&project.design());
             let checks = &analysis.report;
             let text = match format {
                 Format::Text => report::text(&project, &criteria, &analysis),
@@ -834,7 +834,7 @@ fn refuse_unchecked_sight(
 
 /// Resolves the criteria, with `--design-speed` taking precedence.
 fn resolve(
-    project: &mut gradewright_geometry::Project,
+    project: &mut gradewright_document::Project,
     design_speed: Option<f64>,
     input: &std::path::Path,
 ) -> anyhow::Result<gradewright_geometry::ResolvedCriteria> {
@@ -855,7 +855,7 @@ fn resolve(
 /// project, `.csv` PVI table, `.xml` LandXML), or in the format of `input`
 /// when the extension names none.
 fn write_like_input(
-    project: &gradewright_geometry::Project,
+    project: &gradewright_document::Project,
     input: &std::path::Path,
     output: &std::path::Path,
 ) -> anyhow::Result<()> {
@@ -867,12 +867,12 @@ fn write_like_input(
         FileKind::PviTable => {
             let mut buffer = Vec::new();
             gradewright_exchange::write_pvi_csv(&mut buffer, &project.pvis, project.units)?;
-            gradewright_geometry::write_atomic(output, &buffer, true)?;
+            gradewright_document::write_atomic(output, &buffer, true)?;
         }
         FileKind::LandXml => {
             let mut buffer = Vec::new();
             gradewright_exchange::write_landxml(&mut buffer, project, &gradewright_exchange::Stamp::now())?;
-            gradewright_geometry::write_atomic(output, &buffer, true)?;
+            gradewright_document::write_atomic(output, &buffer, true)?;
         }
         FileKind::Project => project.save(output)?,
     }

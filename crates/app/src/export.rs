@@ -5,8 +5,9 @@
 use std::path::{Path, PathBuf};
 
 use anyhow::{Context as _, bail};
+use gradewright_document::{Project, write_atomic};
 use gradewright_draw::{SheetOptions, SheetSize, TitleBlock};
-use gradewright_geometry::{Analysis, Project, write_atomic};
+use gradewright_geometry::Analysis;
 
 /// What the user asked to export.
 #[derive(Clone, Debug, PartialEq)]

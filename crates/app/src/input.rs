@@ -4,8 +4,9 @@
 use std::path::{Path, PathBuf};
 
 use anyhow::{Context as _, bail};
+use gradewright_document::Project;
 use gradewright_exchange::Selection;
-use gradewright_geometry::{ProfileProblem, Project, Units};
+use gradewright_geometry::{ProfileProblem, Units};
 
 /// A loaded input: the project, and for a CSV table the line of every PVI.
 #[derive(Clone, Debug)]
@@ -132,7 +133,7 @@ pub fn load_input(path: &Path, units: Option<Units>, selection: &Selection) -> a
     }
     let text = std::fs::read_to_string(path).with_context(|| format!("{}", path.display()))?;
     let project = Project::from_ron(&text, path)?;
-    let pvi_positions = gradewright_geometry::pvi_positions(&text);
+    let pvi_positions = gradewright_document::pvi_positions(&text);
     if let Some(units) = units
         && units != project.units
     {

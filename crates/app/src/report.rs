@@ -2,7 +2,8 @@
 
 use std::fmt::Write as _;
 
-use gradewright_geometry::{CheckReport, CriterionId, Project, ResolvedCriteria};
+use gradewright_document::Project;
+use gradewright_geometry::{CheckReport, CriterionId, ResolvedCriteria};
 use serde::Serialize;
 
 #[derive(Serialize)]

@@ -298,11 +298,11 @@ fn import_merges_the_ground_into_the_project() {
     let text = stdout(&o);
     assert!(text.contains("sorted"), "{text}");
     assert!(text.contains("3 ground point(s) from 0+000.000 to 0+040.000"), "{text}");
-    let project = gradewright_geometry::Project::load(&out).unwrap_or_else(|e| panic!("{e}"));
+    let project = gradewright_document::Project::load(&out).unwrap_or_else(|e| panic!("{e}"));
     let points: Vec<(f64, f64)> = project.ground.iter().map(|g| (g.station, g.elevation)).collect();
     assert_eq!(points, vec![(0.0, 212.0), (20.0, 212.6), (40.0, 213.1)]);
     let original =
-        gradewright_geometry::Project::load(&asset("alder-brook-road.ron")).unwrap_or_else(|e| panic!("{e}"));
+        gradewright_document::Project::load(&asset("alder-brook-road.ron")).unwrap_or_else(|e| panic!("{e}"));
     assert_eq!(project.pvis, original.pvis);
     assert_eq!(project.criteria, original.criteria);
 }

@@ -4,7 +4,8 @@
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
-use gradewright_geometry::{Analysis, Project, Station};
+use gradewright_document::Project;
+use gradewright_geometry::{Analysis, Station};
 
 fn root() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR")).join("../..")
@@ -92,7 +93,7 @@ fn the_demo_sheet_in_every_format() {
         pixels.get(at..at + 3).is_some_and(|p| p.iter().map(|&c| u32::from(c)).sum::<u32>() < 200)
     };
     let project = Project::load(&demo()).unwrap_or_else(|e| panic!("{e}"));
-    let analysis = Analysis::of(&project);
+    let analysis = Analysis::of(&project.design());
     let options = gradewright_draw::SheetOptions::default();
     let layout = gradewright_draw::layout(&analysis, &options).unwrap_or_else(|e| panic!("{e}"));
     let alignment = analysis.alignment.as_ref().unwrap_or_else(|| panic!("alignment"));
@@ -171,7 +172,7 @@ fn a_long_profile_splits_over_numbered_sheets() {
     ]);
     assert_eq!(code, Some(1), "{stderr}");
     let project = Project::load(&demo()).unwrap_or_else(|e| panic!("{e}"));
-    let analysis = Analysis::of(&project);
+    let analysis = Analysis::of(&project.design());
     let options =
         gradewright_draw::SheetOptions { h_scale: Some(1000.0), overlap: 50.0, ..Default::default() };
     let layout = gradewright_draw::layout(&analysis, &options).unwrap_or_else(|e| panic!("{e}"));

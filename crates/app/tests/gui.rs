@@ -195,7 +195,7 @@ fn save_reopen_and_title_mark() {
     assert!(h.state().title().starts_with("alder.ron"), "{}", h.state().title());
     let saved = h.state().project().clone();
     let mut other = harness(GradewrightApp::new(
-        gradewright_geometry::Project::new("x", gradewright_geometry::Units::Metric),
+        gradewright_document::Project::new("x", gradewright_geometry::Units::Metric),
         None,
         AppFiles::new(Some(dir.clone())),
     ));
@@ -272,7 +272,7 @@ fn incremental_sight_distance_equals_a_full_computation() {
             app.drag_to(index, pvi.station.0 + 7.0 * k, pvi.elevation + 0.9 * k);
         }
         app.end_drag();
-        let full = gradewright_geometry::Analysis::of(app.project());
+        let full = gradewright_geometry::Analysis::of(&app.project().design());
         assert!(app.analysis().sight().is_some());
         assert_eq!(app.analysis().sight(), full.sight(), "PVI {}", index + 1);
         assert_eq!(app.analysis().report.findings, full.report.findings, "PVI {}", index + 1);
@@ -540,7 +540,7 @@ fn saved_files_have_no_raw_identifiers() {
     assert!(!text.contains("r#None"), "{text}");
     let old = text.replacen("elevation: 212.4,\n", "elevation: 212.4,\n            curve: r#None,\n", 1);
     assert_ne!(old, text, "the first PVI is written without a curve: {text}");
-    let project = gradewright_geometry::Project::from_ron(&old, std::path::Path::new("old.ron"))
+    let project = gradewright_document::Project::from_ron(&old, std::path::Path::new("old.ron"))
         .unwrap_or_else(|e| panic!("{e}"));
     assert_eq!(project.pvis[0].curve, gradewright_geometry::VerticalCurve::None);
 }
@@ -623,7 +623,7 @@ fn export_tables_writes_only_the_tables() {
     assert!(std::fs::read_dir(&dir).unwrap_or_else(|e| panic!("{e}")).count() == 1, "no sheet written");
     // Every 50 m plus every PVC, PVI and PVT of the demo.
     let project = h.state().project().clone();
-    let analysis = gradewright_geometry::Analysis::of(&project);
+    let analysis = gradewright_geometry::Analysis::of(&project.design());
     let alignment = analysis.alignment.as_ref().unwrap_or_else(|| panic!("valid demo"));
     let expected = gradewright_exchange::interval_stations(alignment, 50.0).len();
     let mut reader = csv::Reader::from_path(folder.join("stations.csv")).unwrap_or_else(|e| panic!("{e}"));
@@ -833,7 +833,7 @@ fn the_editor_starts_on_a_landxml_file() {
     std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
     let path = dir.join("start.xml");
     let mut project =
-        gradewright_geometry::Project::new("Birch Hill Road", gradewright_geometry::Units::Metric);
+        gradewright_document::Project::new("Birch Hill Road", gradewright_geometry::Units::Metric);
     project.pvis = vec![
         gradewright_geometry::Pvi::new(0.0, 100.0),
         gradewright_geometry::Pvi::with_curve(400.0, 108.0, 150.0),

@@ -8,8 +8,8 @@ use std::collections::HashMap;
 use crate::visibility::{Shortfall, SightProfile};
 use crate::{
     Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveCheck, CurveGeometry,
-    CutFillSummary, Earthwork, EarthworkError, Finding, FindingCode, Ground, Profile, ProfileProblem,
-    Project, Pvi, ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, earthwork_at,
+    CutFillSummary, Design, Earthwork, EarthworkError, Finding, FindingCode, Ground, Profile, ProfileProblem,
+    Pvi, ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, earthwork_at,
     interior_curves, structural_findings,
 };
 
@@ -48,8 +48,8 @@ pub struct Analysis {
     /// Available and required sight distance along the profile, when the
     /// profile and the criteria allow it.
     pub sight: Option<Arc<SightProfile>>,
-    /// The project analysed (kept to tell what a later edit changed).
-    source: Option<Project>,
+    /// The design analysed (kept to tell what a later edit changed).
+    source: Option<Design>,
     /// The scan of the profile over the ground (kept for the next edit).
     site: Option<Arc<crate::ground::SiteScan>>,
     /// Ground elevations at the earthwork's stations (kept for the next edit).
@@ -114,17 +114,17 @@ pub fn unchecked_report(profile: &Profile, why: &CriteriaError) -> CheckReport {
 }
 
 impl Analysis {
-    /// Analyses `project` with its own criteria.
-    pub fn of(project: &Project) -> Self {
-        Self::after(project, None)
+    /// Analyses `design` with its own criteria.
+    pub fn of(design: &Design) -> Self {
+        Self::after(design, None)
     }
 
-    /// Analyses `project`, reusing the sight distance of `previous` (the
-    /// analysis of the project before an edit) outside the stretch the edit
+    /// Analyses `design`, reusing the sight distance of `previous` (the
+    /// analysis of the design before an edit) outside the stretch the edit
     /// can affect. The result equals [`Analysis::of`] (see the tests).
-    pub fn after(project: &Project, mut previous: Option<Self>) -> Self {
-        let profile = project.profile();
-        let criteria = project.criteria.resolve(project.units);
+    pub fn after(design: &Design, mut previous: Option<Self>) -> Self {
+        let profile = design.profile();
+        let criteria = design.criteria.resolve(design.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
         let samples = previous.as_mut().and_then(|p| p.ground_samples.take());
@@ -144,7 +144,7 @@ impl Analysis {
                 _ => None,
             };
             let (sight, changed) = match (&alignment, &criteria) {
-                (Some(a), Ok(c)) => sight_after(project, previous.take(), a, c),
+                (Some(a), Ok(c)) => sight_after(design, previous.take(), a, c),
                 _ => (None, None),
             };
             (sight, changed, job.and_then(|j| j.join().ok()))
@@ -180,16 +180,16 @@ impl Analysis {
             curve_lookup.as_ref().map(|f| f as crate::checks::CurveReuse<'_>);
         let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn };
         let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse);
-        analysis.add_site(project, previous_site.as_deref(), samples);
-        analysis.source = Some(project.clone());
+        analysis.add_site(design, previous_site.as_deref(), samples);
+        analysis.source = Some(design.clone());
         analysis
     }
 
-    /// Replaces `self` by the analysis of `project` (the same project after
+    /// Replaces `self` by the analysis of `design` (the same design after
     /// an edit), reusing what the edit cannot have changed.
-    pub fn refresh(&mut self, project: &Project) {
+    pub fn refresh(&mut self, design: &Design) {
         let previous = std::mem::take(self);
-        *self = Self::after(project, Some(previous));
+        *self = Self::after(design, Some(previous));
     }
 
     /// Analyses `profile` against `criteria` (or reports why there are none).
@@ -260,19 +260,19 @@ impl Analysis {
         }
     }
 
-    /// Adds what the project's site gives: the ground (shared), the control
+    /// Adds what the design's site gives: the ground (shared), the control
     /// points and their findings, the largest cut and fill, the earthwork.
     fn add_site(
         &mut self,
-        project: &Project,
+        design: &Design,
         previous: Option<&crate::ground::SiteScan>,
         samples: Option<crate::ground::GroundSamples>,
     ) {
-        self.ground = project.ground.clone();
-        self.controls.clone_from(&project.controls);
+        self.ground = design.ground.clone();
+        self.controls.clone_from(&design.controls);
         let Some(alignment) = self.alignment.clone() else { return };
         self.control_status = check_controls(&alignment, &self.controls);
-        let findings = control_findings(project.units, &self.controls, &self.control_status);
+        let findings = control_findings(design.units, &self.controls, &self.control_status);
         self.report.findings.extend(findings);
         if let Ok(criteria) = &self.criteria {
             let under = crate::controls::undercrossing_findings(&alignment, &self.controls, criteria);
@@ -289,8 +289,8 @@ impl Analysis {
         if self.ground.range().is_some() {
             let scan = crate::ground::SiteScan::new(&alignment, &self.ground, previous);
             self.cut_fill = scan.summary;
-            if let Some(section) = &project.section {
-                let interval = project.export.interval.unwrap_or(project.units.table_interval());
+            if let Some(section) = &design.section {
+                let interval = design.interval();
                 let mut samples = crate::ground::GroundSamples::new(&self.ground, samples);
                 self.earthwork =
                     Some(earthwork_at(&alignment, &mut samples, section, interval, &scan.grade_points));
@@ -336,7 +336,7 @@ impl Analysis {
     }
 }
 
-/// The sight distance of `project`, recomputed only where an edit since
+/// The sight distance of `design`, recomputed only where an edit since
 /// `previous` can have changed it.
 /// Interior PVIs from which a fresh analysis checks the curves beside the
 /// sight distance, on another core (below it a thread costs more than it saves).
@@ -356,7 +356,7 @@ fn check_curves(profile: &Profile, criteria: &ResolvedCriteria) -> Vec<(crate::C
 }
 
 fn sight_after(
-    project: &Project,
+    design: &Design,
     previous: Option<Analysis>,
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
@@ -364,7 +364,7 @@ fn sight_after(
     let full = || (compute_sight(alignment, criteria), None);
     let Some(prev) = previous else { return full() };
     let Some(old) = prev.source.as_ref() else { return full() };
-    let new = project;
+    let new = design;
     let same_frame = old.units == new.units
         && old.criteria == new.criteria
         && old.pvis.len() == new.pvis.len()
@@ -425,8 +425,7 @@ mod tests {
     #[test]
     fn curves_checked_beside_the_sight_distance_give_the_same_report() {
         let profile = crate::synthetic::rolling_profile(Units::Metric, PARALLEL_CURVES + 50, 200_000.0);
-        let mut project = Project::new("long", Units::Metric);
-        project.pvis = profile.pvis.clone();
+        let mut project = Design { units: Units::Metric, pvis: profile.pvis.clone(), ..Design::default() };
         project.criteria.design_speed = Some(90.0);
         let criteria = project.criteria.resolve(Units::Metric).unwrap_or_else(|e| panic!("{e}"));
         let analysis = Analysis::of(&project);
@@ -450,8 +449,7 @@ mod tests {
     #[test]
     fn an_analysis_after_edits_equals_a_fresh_one() {
         let profile = crate::synthetic::rolling_profile(Units::Metric, 80, 8_000.0);
-        let mut project = Project::new("drag", Units::Metric);
-        project.pvis = profile.pvis;
+        let mut project = Design { units: Units::Metric, pvis: profile.pvis, ..Design::default() };
         project.criteria.design_speed = Some(100.0);
         let road = Alignment::new(&project.profile()).expect("valid");
         project.ground = (0..=8_000)

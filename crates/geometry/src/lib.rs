@@ -7,7 +7,8 @@
 //! * [`Criteria`] → [`ResolvedCriteria`]: design criteria computed from the
 //!   design speed by the published method, or overridden.
 //! * [`check_profile`]: structured findings.
-//! * [`Project`]: the RON project file, saved atomically.
+//! * [`Design`]: what an [`Analysis`] is made of (a project file, in the
+//!   document crate, holds it with its name and settings).
 //! * [`format_station`] / [`parse_station`]: `12+34.56` and `1+234.567`.
 //!
 //! This crate has no GUI dependency and never will.
@@ -18,6 +19,7 @@ mod checks;
 mod controls;
 mod criteria;
 mod curve;
+mod design;
 mod earthwork;
 mod edit;
 mod finding;
@@ -25,7 +27,6 @@ mod fit;
 mod grades;
 pub mod ground;
 mod profile;
-mod project;
 pub mod quadratic;
 pub mod sight;
 mod station;
@@ -34,7 +35,6 @@ pub mod synthetic;
 pub mod tolerance;
 mod units;
 pub mod visibility;
-mod write;
 
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
 pub use analysis::{Analysis, is_design_problem, unchecked_report};
@@ -47,6 +47,7 @@ pub use criteria::{
     Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, SagRule, Setting,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
+pub use design::Design;
 pub use earthwork::{
     Earthwork, EarthworkError, EarthworkRow, RowKind, Section, area_symbol, earthwork, earthwork_at,
     volume_symbol,
@@ -55,10 +56,8 @@ pub use edit::InsertError;
 pub use finding::{Finding, FindingCode, Severity};
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
-pub use ground::{CutFillSummary, Depth, Ground, cut_fill_summary, depth_at, grade_points};
+pub use ground::{CutFillSummary, Depth, Ground, GroundPoint, cut_fill_summary, depth_at, grade_points};
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
-pub use project::{ExportSettings, FORMAT_VERSION, FileError, GroundPoint, Project, Snap, pvi_positions};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};
 pub use stretch::Stretch;
 pub use units::{Foot, Units, length_factor};
-pub use write::write_atomic;

@@ -3,7 +3,8 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_geometry::{FileError, Project, Pvi, Setting, Units, VerticalCurve};
+use gradewright_document::{FileError, Project};
+use gradewright_geometry::{Pvi, Setting, Units, VerticalCurve};
 
 fn temp_dir(name: &str) -> PathBuf {
     let dir = std::env::temp_dir().join(format!("gradewright-files-{name}-{}", std::process::id()));

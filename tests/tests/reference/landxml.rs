@@ -6,10 +6,9 @@
 use std::path::{Path, PathBuf};
 
 use gradewright_acceptance::assert_close;
+use gradewright_document::Project;
 use gradewright_exchange::{Selection, Stamp, read_landxml, write_landxml};
-use gradewright_geometry::{
-    Alignment, Foot, GroundPoint, Profile, Project, Pvi, Station, Units, VerticalCurve,
-};
+use gradewright_geometry::{Alignment, Foot, GroundPoint, Profile, Pvi, Station, Units, VerticalCurve};
 
 fn schema() -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR")).join("data/LandXML-1.2.xsd")

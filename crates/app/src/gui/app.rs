@@ -2,7 +2,8 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_geometry::{Analysis, Project, Pvi, Units, VerticalCurve};
+use gradewright_document::Project;
+use gradewright_geometry::{Analysis, Pvi, Units, VerticalCurve};
 
 use super::command::{Action, Edit, REDO_ALT, UiCommand};
 use super::files::AppFiles;
@@ -73,7 +74,7 @@ pub struct GradewrightApp {
 impl GradewrightApp {
     /// The editor on `project`, keeping its own files in `files`.
     pub fn new(project: Project, path: Option<PathBuf>, files: AppFiles) -> Self {
-        let analysis = Analysis::of(&project);
+        let analysis = Analysis::of(&project.design());
         let recent = files.recent();
         // The project as given is the clean state: nothing to lose yet.
         let saved = Some(project.clone());
@@ -188,7 +189,7 @@ impl GradewrightApp {
 
     fn changed(&mut self) {
         self.revision += 1;
-        self.analysis.refresh(&self.project);
+        self.analysis.refresh(&self.project.design());
         if let Some(sel) = self.view.selected
             && sel >= self.project.pvis.len()
         {
@@ -433,7 +434,7 @@ impl GradewrightApp {
             &gradewright_exchange::Stamp::now(),
         )
         .map_err(|e| e.to_string())
-        .and_then(|()| gradewright_geometry::write_atomic(path, &buffer, true).map_err(|e| e.to_string()));
+        .and_then(|()| gradewright_document::write_atomic(path, &buffer, true).map_err(|e| e.to_string()));
         match written {
             Ok(()) => {
                 self.notice =
@@ -450,7 +451,7 @@ impl GradewrightApp {
     /// Saves to `path` (atomically, keeping a backup). Returns whether it worked.
     pub fn save_to(&mut self, path: &Path) -> bool {
         let mut project = self.project.clone();
-        project.format_version = gradewright_geometry::FORMAT_VERSION;
+        project.format_version = gradewright_document::FORMAT_VERSION;
         match project.save(path) {
             Ok(()) => {
                 self.saved = Some(self.project.clone());

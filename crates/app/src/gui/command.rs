@@ -5,7 +5,8 @@
 use std::path::PathBuf;
 
 use egui::{Key, KeyboardShortcut, Modifiers};
-use gradewright_geometry::{ControlPoint, Criteria, Ground, Project, Pvi, Section, Units};
+use gradewright_document::Project;
+use gradewright_geometry::{ControlPoint, Criteria, Ground, Pvi, Section, Units};
 
 /// A change to the project. Every edit is one undo step.
 #[derive(Clone, Debug, PartialEq)]

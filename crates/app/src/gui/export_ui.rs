@@ -4,7 +4,7 @@
 use std::path::PathBuf;
 
 use egui::RichText;
-use gradewright_geometry::ExportSettings;
+use gradewright_document::ExportSettings;
 
 use super::app::{GradewrightApp, Notice};
 use super::command::{Action, Edit};

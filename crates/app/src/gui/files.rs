@@ -3,7 +3,7 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_geometry::{Project, write_atomic};
+use gradewright_document::{Project, write_atomic};
 
 /// How many recent files are remembered.
 const RECENT_LIMIT: usize = 8;

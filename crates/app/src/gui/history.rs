@@ -4,7 +4,7 @@
 
 use std::collections::VecDeque;
 
-use gradewright_geometry::Project;
+use gradewright_document::Project;
 
 /// How many steps are kept.
 const LIMIT: usize = 500;

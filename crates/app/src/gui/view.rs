@@ -3,7 +3,7 @@
 use std::collections::HashMap;
 
 use egui_plot::PlotTransform;
-use gradewright_geometry::Project;
+use gradewright_document::Project;
 
 /// What the plot should show on the next frame.
 #[derive(Clone, Copy, Debug, PartialEq)]

@@ -51,8 +51,8 @@ impl LandXmlProfile {
     /// A new project of this profile and ground, named after the alignment,
     /// in the units and foot read (criteria at their defaults: LandXML has
     /// none).
-    pub fn project(&self) -> gradewright_geometry::Project {
-        let mut project = gradewright_geometry::Project::new(self.alignment.clone(), self.units);
+    pub fn project(&self) -> gradewright_document::Project {
+        let mut project = gradewright_document::Project::new(self.alignment.clone(), self.units);
         project.foot = self.foot;
         project.pvis.clone_from(&self.pvis);
         project.ground = self.ground.clone().into();

@@ -2,7 +2,8 @@
 
 use std::io::Write;
 
-use gradewright_geometry::{Foot, Project, Units, VerticalCurve};
+use gradewright_document::Project;
+use gradewright_geometry::{Foot, Units, VerticalCurve};
 
 use super::NAMESPACE;
 

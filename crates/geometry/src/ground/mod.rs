@@ -16,7 +16,15 @@ use std::sync::Arc;
 
 use serde::{Deserialize, Deserializer, Serialize, Serializer};
 
-use crate::GroundPoint;
+/// A point of the existing ground line.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct GroundPoint {
+    /// Station.
+    pub station: f64,
+    /// Ground elevation.
+    pub elevation: f64,
+}
 
 /// The existing ground line: points in increasing station order, shared.
 #[derive(Clone, Debug, Default)]

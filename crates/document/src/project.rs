@@ -4,132 +4,18 @@
 //! any error; saving is atomic and keeps the previous file as `*.bak`.
 
 use std::fs;
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use serde::{Deserialize, Serialize};
 
-use crate::{ControlPoint, Criteria, Foot, Ground, Profile, Pvi, Section, Units};
+use gradewright_geometry::{
+    ControlPoint, Criteria, Design, Foot, Ground, GroundPoint, Profile, Pvi, Section, Units,
+};
+
+use crate::{ExportSettings, FileError, LooksLike, Snap};
 
 /// The newest file format this build reads and the one it writes.
 pub const FORMAT_VERSION: u32 = 1;
-
-/// A point of the existing ground line.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct GroundPoint {
-    /// Station.
-    pub station: f64,
-    /// Ground elevation.
-    pub elevation: f64,
-}
-
-/// How the editor snaps dragged and inserted PVIs, kept with the project.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default, deny_unknown_fields)]
-pub struct Snap {
-    /// Whether snapping is on.
-    pub on: bool,
-    /// Station increment (a whole metre or foot by default).
-    pub station: f64,
-    /// Elevation increment.
-    pub elevation: f64,
-}
-
-impl Default for Snap {
-    fn default() -> Self {
-        Self { on: true, station: 1.0, elevation: 0.01 }
-    }
-}
-
-impl Snap {
-    /// `(station, elevation)` rounded to the increments when snapping is on.
-    pub fn apply(self, station: f64, elevation: f64) -> (f64, f64) {
-        if !self.on {
-            return (station, elevation);
-        }
-        let round =
-            |v: f64, step: f64| if step > 0.0 && step.is_finite() { (v / step).round() * step } else { v };
-        (round(station, self.station), round(elevation, self.elevation))
-    }
-
-    fn is_default(&self) -> bool {
-        *self == Self::default()
-    }
-}
-
-/// How the sheet and tables are exported, kept with the project.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default, deny_unknown_fields)]
-pub struct ExportSettings {
-    /// Sheet size: `ansi-b`, `ansi-d`, `a3`, `a1`, `WxHmm`, `WxHin`.
-    pub sheet: String,
-    /// PNG resolution, dpi.
-    pub dpi: f64,
-    /// Horizontal scale (1:N, or 1 in = N ft); `None` fits one sheet.
-    pub h_scale: Option<f64>,
-    /// Vertical scale; `None` is a tenth of the horizontal.
-    pub v_scale: Option<f64>,
-    /// Overlap between sheets.
-    pub overlap: f64,
-    /// Title block: road or section.
-    pub road: String,
-    /// Title block: designer.
-    pub designer: String,
-    /// Title block: checker.
-    pub checker: String,
-    /// Title block: date.
-    pub date: String,
-    /// Title block: revision.
-    pub revision: String,
-    /// Whether the sight-distance band is drawn.
-    pub sight_band: bool,
-    /// Write PNG.
-    pub png: bool,
-    /// Write SVG.
-    pub svg: bool,
-    /// Write PDF.
-    pub pdf: bool,
-    /// Write the CSV tables.
-    pub tables: bool,
-    /// Where: the sheet files are this path with each format's extension, the
-    /// tables go in a folder of this name.
-    pub path: String,
-    /// Station interval of `stations.csv`; `None` is 20 m or 50 ft.
-    pub interval: Option<f64>,
-    /// Folder for File ▸ Export tables… (empty: beside the project file).
-    pub tables_path: String,
-}
-
-impl Default for ExportSettings {
-    fn default() -> Self {
-        Self {
-            sheet: "ansi-b".to_owned(),
-            dpi: 150.0,
-            h_scale: None,
-            v_scale: None,
-            overlap: 0.0,
-            road: String::new(),
-            designer: String::new(),
-            checker: String::new(),
-            date: String::new(),
-            revision: String::new(),
-            sight_band: true,
-            png: true,
-            svg: false,
-            pdf: true,
-            tables: true,
-            path: String::new(),
-            interval: None,
-            tables_path: String::new(),
-        }
-    }
-}
-
-impl ExportSettings {
-    fn is_default(&self) -> bool {
-        *self == Self::default()
-    }
-}
 
 /// A Gradewright project.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -192,6 +78,19 @@ impl Project {
         Profile::new(self.units, self.pvis.clone())
     }
 
+    /// The design as the analysis reads it (a copy; the ground is shared).
+    pub fn design(&self) -> Design {
+        Design {
+            units: self.units,
+            criteria: self.criteria.clone(),
+            pvis: self.pvis.clone(),
+            ground: self.ground.clone(),
+            controls: self.controls.clone(),
+            section: self.section,
+            interval: self.export.interval,
+        }
+    }
+
     /// Parses project text; `origin` names the file in errors.
     ///
     /// # Errors
@@ -210,14 +109,18 @@ impl Project {
                 supported: FORMAT_VERSION,
             });
         }
-        let project: Self = ron::from_str(text).map_err(|e| FileError::Syntax {
-            path: origin.to_owned(),
-            line: e.span.start.line,
-            column: e.span.start.col,
-            message: match looks_like(text) {
-                Some(kind) => format!("{}; the file looks like {kind}", e.code),
-                None => e.code.to_string(),
-            },
+        let project: Self = ron::from_str(text).map_err(|e| {
+            let looks_like = looks_like(text);
+            FileError::Syntax {
+                path: origin.to_owned(),
+                line: e.span.start.line,
+                column: e.span.start.col,
+                message: match looks_like {
+                    Some(kind) => format!("{}; the file looks like {kind}", e.code),
+                    None => e.code.to_string(),
+                },
+                looks_like,
+            }
         })?;
         if let Some((index, why)) = project.ground.problem() {
             let (line, column) = ground_position(text, index);
@@ -226,6 +129,7 @@ impl Project {
                 line,
                 column,
                 message: format!("ground point {}: {why}", index + 1),
+                looks_like: None,
             });
         }
         if project.format_version == 0 {
@@ -234,6 +138,7 @@ impl Project {
                 line: 1,
                 column: 1,
                 message: "format_version must be 1 or more".to_owned(),
+                looks_like: None,
             });
         }
         Ok(project)
@@ -256,8 +161,7 @@ impl Project {
     /// # Errors
     /// [`FileError`] naming the file, and line and column for syntax errors.
     pub fn load(path: &Path) -> Result<Self, FileError> {
-        let text = fs::read_to_string(path)
-            .map_err(|e| FileError::Io { path: path.to_owned(), message: e.to_string() })?;
+        let text = fs::read_to_string(path).map_err(|e| FileError::io(path, e))?;
         Self::from_ron(&text, path)
     }
 
@@ -275,17 +179,17 @@ impl Project {
 
 /// What a file that fails to parse as a project looks like, when it looks
 /// like something else Gradewright reads.
-fn looks_like(text: &str) -> Option<&'static str> {
+fn looks_like(text: &str) -> Option<LooksLike> {
     let first =
         text.lines().map(str::trim).find(|l| !l.is_empty() && !l.starts_with('#') && !l.starts_with("//"))?;
     let lower = first.to_ascii_lowercase();
     if lower.starts_with("<?xml") || lower.starts_with('<') {
-        Some("XML, not a project file")
+        Some(LooksLike::Xml)
     } else if !first.contains('(')
         && (first.contains(',') || first.contains(';') || first.contains('\t'))
         && (lower.contains("station") || first.chars().next().is_some_and(|c| c.is_ascii_digit()))
     {
-        Some("a CSV PVI table, not a project file: name it .csv and give --units")
+        Some(LooksLike::PviTable)
     } else {
         None
     }
@@ -339,42 +243,4 @@ fn ground_position(text: &str, index: usize) -> (usize, usize) {
 #[serde(rename = "Project")]
 struct VersionProbe {
     format_version: u32,
-}
-
-/// Why a project file could not be read or written.
-#[derive(Clone, Debug, PartialEq, thiserror::Error)]
-pub enum FileError {
-    /// Reading or writing failed.
-    #[error("{}: {message}", .path.display())]
-    Io {
-        /// The file.
-        path: PathBuf,
-        /// What the system said.
-        message: String,
-    },
-    /// The text is not a valid project.
-    #[error("{}:{line}:{column}: {message}", .path.display())]
-    Syntax {
-        /// The file.
-        path: PathBuf,
-        /// 1-based line.
-        line: usize,
-        /// 1-based column.
-        column: usize,
-        /// What was wrong or expected.
-        message: String,
-    },
-    /// The file was written by a newer Gradewright.
-    #[error("{}: file format version {found} is newer than this build reads (up to {supported}); update Gradewright", .path.display())]
-    NewerVersion {
-        /// The file.
-        path: PathBuf,
-        /// Version in the file.
-        found: u32,
-        /// Newest version this build reads.
-        supported: u32,
-    },
-    /// The project could not be encoded.
-    #[error("could not encode the project: {0}")]
-    Encode(String),
 }

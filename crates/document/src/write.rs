@@ -16,13 +16,13 @@ use std::fs;
 use std::io::Write as _;
 use std::path::{Path, PathBuf};
 
-use crate::FileError;
+use crate::{FileError, Unwritable};
 
 /// How many symbolic links are followed before giving up (a loop).
 const MAX_LINKS: usize = 40;
 
-fn error(path: &Path, message: impl Into<String>) -> FileError {
-    FileError::Io { path: path.to_owned(), message: message.into() }
+fn refused(path: &Path, why: Unwritable) -> FileError {
+    FileError::NotWritable { path: path.to_owned(), why }
 }
 
 /// The file a save to `path` really writes: `path` itself, or the target of
@@ -32,7 +32,7 @@ fn follow_links(path: &Path) -> Result<PathBuf, FileError> {
     for _ in 0..MAX_LINKS {
         match fs::symlink_metadata(&current) {
             Ok(meta) if meta.file_type().is_symlink() => {
-                let link = fs::read_link(&current).map_err(|e| error(path, e.to_string()))?;
+                let link = fs::read_link(&current).map_err(|e| FileError::io(path, e))?;
                 current = match current.parent() {
                     Some(dir) if link.is_relative() => dir.join(link),
                     _ => link,
@@ -41,7 +41,7 @@ fn follow_links(path: &Path) -> Result<PathBuf, FileError> {
             _ => return Ok(current),
         }
     }
-    Err(error(path, "too many symbolic links (a loop?)"))
+    Err(refused(path, Unwritable::LinkLoop))
 }
 
 /// What is at `target` now: `None` when nothing is, its metadata when it is
@@ -49,13 +49,10 @@ fn follow_links(path: &Path) -> Result<PathBuf, FileError> {
 fn existing(path: &Path, target: &Path) -> Result<Option<fs::Metadata>, FileError> {
     match fs::metadata(target) {
         Ok(meta) if meta.is_file() => Ok(Some(meta)),
-        Ok(meta) if meta.is_dir() => Err(error(path, "is a folder, not a file; give a file name")),
-        Ok(_) => Err(error(
-            path,
-            "is not a regular file (a device, pipe or socket); Gradewright writes only to regular files",
-        )),
+        Ok(meta) if meta.is_dir() => Err(refused(path, Unwritable::Folder)),
+        Ok(_) => Err(refused(path, Unwritable::NotRegular)),
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(None),
-        Err(e) => Err(error(path, e.to_string())),
+        Err(e) => Err(FileError::io(path, e)),
     }
 }
 
@@ -67,7 +64,7 @@ fn split(path: &Path, target: &Path) -> Result<(PathBuf, String), FileError> {
     };
     let name = target.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
     if name.is_empty() {
-        return Err(error(path, "not a file name"));
+        return Err(refused(path, Unwritable::NoName));
     }
     Ok((dir, name))
 }
@@ -113,7 +110,7 @@ fn copy_access(file: &Path, like: &fs::Metadata) -> std::io::Result<()> {
 /// atomically, with the same permissions).
 ///
 /// # Errors
-/// [`FileError::Io`] naming `path`; on error the old file is untouched and
+/// [`FileError::Io`] or [`FileError::NotWritable`] naming `path`; on error the old file is untouched and
 /// nothing else is left behind.
 pub fn write_atomic(path: &Path, bytes: &[u8], backup: bool) -> Result<(), FileError> {
     let target = follow_links(path)?;
@@ -121,7 +118,7 @@ pub fn write_atomic(path: &Path, bytes: &[u8], backup: bool) -> Result<(), FileE
     let (dir, name) = split(path, &target)?;
     remove_stale_temporaries(&dir, &name);
     let temp = dir.join(format!(".{name}.{}.tmp", std::process::id()));
-    let fail = |e: std::io::Error| error(path, e.to_string());
+    let fail = |e: std::io::Error| FileError::io(path, e);
     let result = (|| {
         let mut file = fs::File::create(&temp).map_err(fail)?;
         if let Some(meta) = &before {
@@ -207,6 +204,8 @@ mod tests {
             .unwrap_or_default();
         assert_eq!(leftovers, vec!["p.ron".to_owned()]);
         let e = write_atomic(Path::new("/proc/version"), b"x", false).expect_err("read-only");
-        assert!(e.to_string().starts_with("/proc/version:") && !e.to_string().contains(".tmp"), "{e}");
+        let said =
+            format!("{e}: {}", std::error::Error::source(&e).map(ToString::to_string).unwrap_or_default());
+        assert!(e.to_string() == "/proc/version" && !said.contains(".tmp"), "{said}");
     }
 }

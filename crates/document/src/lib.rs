@@ -1,0 +1,15 @@
+//! Gradewright documents: the project as a file (RON with a
+//! `format_version`, read naming the line and column of any error), the
+//! editor's and the export's settings kept with it, and the one safe writer
+//! every save goes through. The model and its mathematics are the geometry
+//! crate's; this crate knows how they are kept.
+
+mod error;
+mod project;
+mod settings;
+mod write;
+
+pub use error::{FileError, LooksLike, Unwritable};
+pub use project::{FORMAT_VERSION, Project, pvi_positions};
+pub use settings::{ExportSettings, Snap};
+pub use write::write_atomic;
