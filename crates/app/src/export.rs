@@ -1,10 +1,12 @@
 //! The hand-over: sheet files (SVG, PNG, PDF) and tables (CSV), for the
-//! command line and the editor alike. Everything is rendered in memory first
-//! and written only when all of it succeeded, each file atomically.
+//! command line and the editor alike. Everything is checked before anything
+//! is read or drawn, rendered in memory, and written only when all of it
+//! succeeded, each file atomically. Problems are data naming the [`Field`]
+//! at fault; each front end words the field its own way (an option, a
+//! label).
 
 use std::path::{Path, PathBuf};
 
-use anyhow::{Context as _, bail};
 use gradewright_document::{Project, write_atomic};
 use gradewright_draw::{SheetOptions, SheetSize, TitleBlock};
 use gradewright_geometry::Analysis;
@@ -47,89 +49,178 @@ pub struct Plan {
     pub size: SheetSize,
 }
 
-/// Refuses an output (named by its command-line `option`) that is not a
-/// regular file or a new path in an existing folder, before any work is done.
+/// A choice of an export request (or another output) that is at fault.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Field {
+    /// The sheet size.
+    Sheet,
+    /// The PNG resolution.
+    Dpi,
+    /// The horizontal scale.
+    HScale,
+    /// The vertical scale.
+    VScale,
+    /// The overlap between sheets.
+    Overlap,
+    /// The station interval of the tables.
+    Interval,
+    /// The PNG file.
+    Png,
+    /// The SVG file.
+    Svg,
+    /// The PDF file.
+    Pdf,
+    /// The folder of the tables.
+    Tables,
+    /// The LandXML file.
+    LandXml,
+    /// The output of another command (a fitted profile, an imported project).
+    Output,
+}
+
+/// Why an output path cannot be written.
+#[derive(Clone, Debug, PartialEq, thiserror::Error)]
+pub enum PathProblem {
+    /// A folder where a file is wanted.
+    #[error("is a folder, not a file")]
+    Folder,
+    /// A device, pipe or socket.
+    #[error("is not a regular file; Gradewright writes only to regular files")]
+    NotRegular,
+    /// A file where a folder is wanted.
+    #[error("is not a folder")]
+    NotAFolder,
+    /// The folder it would go in does not exist.
+    #[error("the folder {} does not exist", .0.display())]
+    NoFolder(PathBuf),
+    /// The system could not tell.
+    #[error("{0}")]
+    System(String),
+}
+
+/// Why an export (or another output) cannot go ahead, named by its field.
+#[derive(Clone, Debug, PartialEq, thiserror::Error)]
+pub enum PlanError {
+    /// A value that is not usable.
+    #[error("{problem}")]
+    Value {
+        /// Which value.
+        field: Field,
+        /// What is wrong with it.
+        problem: String,
+    },
+    /// An output that cannot be written.
+    #[error("{}: {problem}", .path.display())]
+    Path {
+        /// Which output.
+        field: Field,
+        /// The path.
+        path: PathBuf,
+        /// What is wrong with it.
+        problem: PathProblem,
+    },
+    /// No output was asked for.
+    #[error("nothing to export")]
+    Nothing,
+}
+
+impl PlanError {
+    /// The field at fault (none when nothing was asked for).
+    pub fn field(&self) -> Option<Field> {
+        match self {
+            Self::Value { field, .. } | Self::Path { field, .. } => Some(*field),
+            Self::Nothing => None,
+        }
+    }
+}
+
+/// Whether `path` can be written as output `field`: a regular file or a new
+/// path in an existing folder, checked before any work is done.
 ///
 /// # Errors
-/// The reason, naming the path and the option.
-pub fn check_file(option: &str, path: &Path) -> anyhow::Result<()> {
+/// [`PlanError::Path`] with the reason.
+pub fn check_file(field: Field, path: &Path) -> Result<(), PlanError> {
+    let fail = |problem| Err(PlanError::Path { field, path: path.to_owned(), problem });
     match std::fs::metadata(path) {
         Ok(meta) if meta.is_file() => {}
-        Ok(meta) if meta.is_dir() => bail!("{}: {option}: is a folder, not a file", path.display()),
-        Ok(_) => bail!(
-            "{}: {option}: is not a regular file; Gradewright writes only to regular files",
-            path.display()
-        ),
+        Ok(meta) if meta.is_dir() => return fail(PathProblem::Folder),
+        Ok(_) => return fail(PathProblem::NotRegular),
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => {}
-        Err(e) => bail!("{}: {option}: {e}", path.display()),
+        Err(e) => return fail(PathProblem::System(e.to_string())),
     }
     let dir = path.parent().filter(|d| !d.as_os_str().is_empty()).unwrap_or(Path::new("."));
     if !dir.is_dir() {
-        bail!("{}: {option}: the folder {} does not exist", path.display(), dir.display());
+        return fail(PathProblem::NoFolder(dir.to_owned()));
     }
     Ok(())
 }
 
-/// Checks every option of `request`: the sheet size, dpi, scales, overlap,
+/// Whether `dir` can take the tables: a folder, or a new one in an existing
+/// folder, with room for each table.
+fn check_folder(dir: &Path) -> Result<(), PlanError> {
+    let fail = |problem| Err(PlanError::Path { field: Field::Tables, path: dir.to_owned(), problem });
+    match std::fs::metadata(dir) {
+        Ok(meta) if meta.is_dir() => {
+            for name in ["stations.csv", "curves.csv", "findings.csv"] {
+                check_file(Field::Tables, &dir.join(name))?;
+            }
+            Ok(())
+        }
+        Ok(_) => fail(PathProblem::NotAFolder),
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => {
+            let parent = dir.parent().filter(|d| !d.as_os_str().is_empty()).unwrap_or(Path::new("."));
+            if parent.is_dir() { Ok(()) } else { fail(PathProblem::NoFolder(parent.to_owned())) }
+        }
+        Err(e) => fail(PathProblem::System(e.to_string())),
+    }
+}
+
+/// Checks every choice of `request`: the sheet size, dpi, scales, overlap,
 /// and that every output can be written (a regular file or a new path).
 ///
 /// # Errors
-/// The first unusable option, named.
-pub fn plan(request: &Request) -> anyhow::Result<Plan> {
-    let size = SheetSize::parse(&request.sheet).map_err(|e| anyhow::anyhow!("--sheet: {e}"))?;
+/// The first unusable choice, named by its [`Field`].
+pub fn plan(request: &Request) -> Result<Plan, PlanError> {
+    let value = |field, problem: String| Err(PlanError::Value { field, problem });
+    let size = match SheetSize::parse(&request.sheet) {
+        Ok(size) => size,
+        Err(e) => return value(Field::Sheet, e.to_string()),
+    };
     let (lo, hi) = gradewright_draw::render::DPI_RANGE;
     if !(request.dpi.is_finite() && request.dpi >= lo && request.dpi <= hi) {
-        bail!("--dpi: {} is outside {lo} to {hi} dpi", request.dpi);
+        return value(Field::Dpi, format!("{} is outside {lo} to {hi} dpi", request.dpi));
     }
-    for (name, scale) in [("--h-scale", request.h_scale), ("--v-scale", request.v_scale)] {
+    for (field, scale) in [(Field::HScale, request.h_scale), (Field::VScale, request.v_scale)] {
         if let Some(s) = scale
             && !(s.is_finite() && s > 0.0)
         {
-            bail!("{name}: {s} is not a usable scale (a positive number)");
+            return value(field, format!("{s} is not a usable scale (a positive number)"));
         }
     }
     if !(request.overlap.is_finite() && request.overlap >= 0.0) {
-        bail!("--overlap: {} is not a length of 0 or more", request.overlap);
+        return value(Field::Overlap, format!("{} is not a length of 0 or more", request.overlap));
     }
     if let Some(v) = request.interval
         && !(v.is_finite() && v > 0.0)
     {
-        bail!("--interval: the station interval must be a positive number (got {v})");
+        return value(Field::Interval, format!("the station interval must be a positive number (got {v})"));
     }
-    if request.png.is_none()
-        && request.svg.is_none()
-        && request.pdf.is_none()
-        && request.csv_dir.is_none()
-        && request.landxml.is_none()
-    {
-        bail!("nothing to export: give --png, --svg, --pdf, --csv-dir or --landxml");
+    let files = [
+        (Field::Png, &request.png),
+        (Field::Svg, &request.svg),
+        (Field::Pdf, &request.pdf),
+        (Field::LandXml, &request.landxml),
+    ];
+    if files.iter().all(|(_, p)| p.is_none()) && request.csv_dir.is_none() {
+        return Err(PlanError::Nothing);
     }
-    for (name, path) in [
-        ("--png", &request.png),
-        ("--svg", &request.svg),
-        ("--pdf", &request.pdf),
-        ("--landxml", &request.landxml),
-    ] {
+    for (field, path) in files {
         if let Some(p) = path {
-            check_file(name, p)?;
+            check_file(field, p)?;
         }
     }
     if let Some(dir) = &request.csv_dir {
-        match std::fs::metadata(dir) {
-            Ok(meta) if meta.is_dir() => {
-                for name in ["stations.csv", "curves.csv", "findings.csv"] {
-                    check_file("--csv-dir", &dir.join(name))?;
-                }
-            }
-            Ok(_) => bail!("{}: --csv-dir: is not a folder", dir.display()),
-            Err(e) if e.kind() == std::io::ErrorKind::NotFound => {
-                let parent = dir.parent().filter(|d| !d.as_os_str().is_empty()).unwrap_or(Path::new("."));
-                if !parent.is_dir() {
-                    bail!("{}: --csv-dir: the folder {} does not exist", dir.display(), parent.display());
-                }
-            }
-            Err(e) => bail!("{}: --csv-dir: {e}", dir.display()),
-        }
+        check_folder(dir)?;
     }
     Ok(Plan { size })
 }
@@ -164,6 +255,32 @@ pub fn sheet_options(plan: &Plan, request: &Request, project: &Project) -> Sheet
     }
 }
 
+/// Why the files of a request could not be made.
+#[derive(Debug, thiserror::Error)]
+pub enum RenderError {
+    /// The sheet could not be laid out.
+    #[error(transparent)]
+    Sheet(#[from] gradewright_draw::SheetError),
+    /// A PNG could not be rendered (too many pixels at the dpi asked for).
+    #[error("{0}")]
+    Png(gradewright_draw::RenderError),
+    /// The PDF could not be made.
+    #[error(transparent)]
+    Pdf(gradewright_draw::RenderError),
+    /// The tables need a profile without problems.
+    #[error("the profile has problems to fix first")]
+    Unusable,
+    /// The earthwork estimate failed.
+    #[error("earthwork: {0}")]
+    Earthwork(#[from] gradewright_geometry::EarthworkError),
+    /// A table or the LandXML file could not be encoded.
+    #[error(transparent)]
+    Table(#[from] gradewright_exchange::TableError),
+    /// Encoding into memory failed.
+    #[error(transparent)]
+    Io(#[from] std::io::Error),
+}
+
 /// Every file of the request, rendered in memory: (path, bytes).
 ///
 /// # Errors
@@ -173,7 +290,7 @@ pub fn render(
     request: &Request,
     analysis: &Analysis,
     project: &Project,
-) -> anyhow::Result<Vec<(PathBuf, Vec<u8>)>> {
+) -> Result<Vec<(PathBuf, Vec<u8>)>, RenderError> {
     let mut files = Vec::new();
     if request.png.is_some() || request.svg.is_some() || request.pdf.is_some() {
         let options = sheet_options(plan, request, project);
@@ -186,13 +303,12 @@ pub fn render(
         }
         if let Some(path) = &request.png {
             for (i, svg) in svgs.iter().enumerate() {
-                let bytes =
-                    gradewright_draw::png(svg, request.dpi).map_err(|e| anyhow::anyhow!("--dpi: {e}"))?;
+                let bytes = gradewright_draw::png(svg, request.dpi).map_err(RenderError::Png)?;
                 files.push((numbered(path, i + 1, count), bytes));
             }
         }
         if let Some(path) = &request.pdf {
-            files.push((path.clone(), gradewright_draw::pdf(&svgs)?));
+            files.push((path.clone(), gradewright_draw::pdf(&svgs).map_err(RenderError::Pdf)?));
         }
     }
     if let Some(path) = &request.landxml {
@@ -201,9 +317,7 @@ pub fn render(
         files.push((path.clone(), buffer));
     }
     if let Some(dir) = &request.csv_dir {
-        let Some(alignment) = analysis.alignment.as_ref() else {
-            bail!("the profile has problems to fix first")
-        };
+        let Some(alignment) = analysis.alignment.as_ref() else { return Err(RenderError::Unusable) };
         let interval = request.interval.unwrap_or(project.units.table_interval());
         let stations = gradewright_exchange::interval_stations(alignment, interval);
         let mut buffer = Vec::new();
@@ -219,8 +333,7 @@ pub fn render(
         if let Some(section) = &project.section
             && analysis.ground.range().is_some()
         {
-            let estimate = gradewright_geometry::earthwork(alignment, &analysis.ground, section, interval)
-                .map_err(|e| anyhow::anyhow!("earthwork: {e}"))?;
+            let estimate = gradewright_geometry::earthwork(alignment, &analysis.ground, section, interval)?;
             let mut buffer = Vec::new();
             gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate)?;
             files.push((dir.join("earthwork.csv"), buffer));
@@ -233,10 +346,10 @@ pub fn render(
 ///
 /// # Errors
 /// The first write that fails, naming the file.
-pub fn write_all(files: &[(PathBuf, Vec<u8>)]) -> anyhow::Result<()> {
+pub fn write_all(files: &[(PathBuf, Vec<u8>)]) -> Result<(), gradewright_document::FileError> {
     for (path, bytes) in files {
         if let Some(dir) = path.parent().filter(|d| !d.as_os_str().is_empty() && !d.exists()) {
-            std::fs::create_dir_all(dir).with_context(|| format!("{}", dir.display()))?;
+            std::fs::create_dir_all(dir).map_err(|e| gradewright_document::FileError::io(dir, e))?;
         }
         write_atomic(path, bytes, false)?;
     }

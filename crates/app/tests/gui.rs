@@ -111,7 +111,8 @@ fn dragging_a_pvi_moves_it_and_one_undo_restores_it_exactly() {
     let mut h = demo();
     let original = h.state().project().clone();
     let pvi = original.pvis[2];
-    let transform = h.state().view.last_transform.unwrap_or_else(|| panic!("plot not shown"));
+    let transform =
+        h.state().panels.plot.last_transform().copied().unwrap_or_else(|| panic!("plot not shown"));
     let from = transform.position_from_point(&PlotPoint::new(pvi.station.0, pvi.elevation));
     let to = from + egui::vec2(25.0, -40.0);
     h.hover_at(from);
@@ -132,7 +133,7 @@ fn dragging_a_pvi_moves_it_and_one_undo_restores_it_exactly() {
     assert!(moved.elevation > pvi.elevation + 0.5);
     assert!(moved.station.0 > pvi.station.0, "station follows the pointer too");
     // The plot did not pan: the same point maps to the same place.
-    let after = h.state().view.last_transform.unwrap_or_else(|| panic!("plot not shown"));
+    let after = h.state().panels.plot.last_transform().copied().unwrap_or_else(|| panic!("plot not shown"));
     let same = after.position_from_point(&PlotPoint::new(pvi.station.0, pvi.elevation));
     assert!((same - from).length() < 0.5, "plot panned by {:?}", same - from);
     // The whole drag is one undo step.
@@ -209,17 +210,17 @@ fn save_reopen_and_title_mark() {
 fn delete_and_insert_keep_at_least_two_pvis() {
     let mut h = demo();
     let n = h.state().project().pvis.len();
-    h.state_mut().view.selected = Some(1);
+    h.state_mut().selected = Some(1);
     h.state_mut().push(Action::DeleteSelected);
     h.run();
     assert_eq!(h.state().project().pvis.len(), n - 1);
     for _ in 0..10 {
-        h.state_mut().view.selected = Some(0);
+        h.state_mut().selected = Some(0);
         h.state_mut().push(Action::DeleteSelected);
         h.run();
     }
     assert_eq!(h.state().project().pvis.len(), 2);
-    h.state_mut().view.selected = Some(0);
+    h.state_mut().selected = Some(0);
     h.state_mut().push(Action::InsertAfterSelected);
     h.run();
     assert_eq!(h.state().project().pvis.len(), 3);
@@ -412,7 +413,8 @@ fn drag_pvi(
     modifiers: egui::Modifiers,
 ) {
     let pvi = h.state().project().pvis[index];
-    let transform = h.state().view.last_transform.unwrap_or_else(|| panic!("plot not shown"));
+    let transform =
+        h.state().panels.plot.last_transform().copied().unwrap_or_else(|| panic!("plot not shown"));
     let from = transform.position_from_point(&PlotPoint::new(pvi.station.0, pvi.elevation));
     let to = from + offset;
     h.hover_at(from);
@@ -460,15 +462,15 @@ fn a_vertical_only_drag_keeps_the_station_exactly() {
 #[test]
 fn selecting_a_row_leaves_the_view_unchanged() {
     let mut h = demo();
-    let before = *h.state().view.last_transform.unwrap_or_else(|| panic!("plot")).bounds();
+    let before = *h.state().panels.plot.last_transform().copied().unwrap_or_else(|| panic!("plot")).bounds();
     h.get_by_label("2").click();
     h.run();
-    assert_eq!(h.state().view.selected, Some(1));
-    let after = *h.state().view.last_transform.unwrap_or_else(|| panic!("plot")).bounds();
+    assert_eq!(h.state().selected, Some(1));
+    let after = *h.state().panels.plot.last_transform().copied().unwrap_or_else(|| panic!("plot")).bounds();
     assert_eq!(format!("{before:?}"), format!("{after:?}"));
     h.get_by_label("Zoom to selection").click();
     h.run();
-    let zoomed = *h.state().view.last_transform.unwrap_or_else(|| panic!("plot")).bounds();
+    let zoomed = *h.state().panels.plot.last_transform().copied().unwrap_or_else(|| panic!("plot")).bounds();
     assert_ne!(format!("{before:?}"), format!("{zoomed:?}"));
 }
 
@@ -568,7 +570,7 @@ fn export_window_previews_and_writes_the_sheet() {
     let _ = std::fs::remove_dir_all(&dir);
     std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
     let mut h = demo();
-    h.state_mut().view.show_export = true;
+    h.state_mut().push(Action::ShowExport);
     h.run();
     assert!(h.query_by_label_contains("Preview of sheet 1 of 1").is_some());
     let mut project = h.state().project().clone();
@@ -603,7 +605,7 @@ fn export_tables_writes_only_the_tables() {
     h.run();
     h.get_by_label("Export tables…").click();
     h.run();
-    assert!(h.state().view.show_tables_export);
+    assert!(h.state().panels.export.tables_open);
     let mut project = h.state().project().clone();
     project.export.tables_path = dir.join("hand-over").to_string_lossy().into_owned();
     project.export.interval = Some(50.0);

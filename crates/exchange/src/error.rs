@@ -22,28 +22,74 @@ pub struct ReadError {
     /// The I/O error underneath, when reading failed (what
     /// [`std::error::Error::source`] gives).
     pub source: Option<Arc<std::io::Error>>,
+    /// When the file holds several of what was asked for one of: which
+    /// choice is open and the names to choose from (a front end offers
+    /// them, or names its option to give one).
+    pub ambiguous: Option<Ambiguous>,
+}
+
+/// A choice a file leaves open.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Ambiguous {
+    /// What is to be chosen.
+    pub choosing: Choosing,
+    /// The names to choose from.
+    pub names: Vec<String>,
+}
+
+/// What a file holds several of.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Choosing {
+    /// Design profiles (named alignment / profile).
+    Profile,
+    /// Ground lines of one alignment.
+    Surface,
+    /// Alignments (with ground lines).
+    Alignment,
 }
 
 impl ReadError {
     /// A located problem in the content of `path`.
     pub fn new(path: &Path, line: u64, field: &str, message: impl Into<String>) -> Self {
-        Self { path: path.to_owned(), line, field: field.to_owned(), message: message.into(), source: None }
+        Self {
+            path: path.to_owned(),
+            line,
+            field: field.to_owned(),
+            message: message.into(),
+            source: None,
+            ambiguous: None,
+        }
     }
 
-    /// The file `path` could not be opened or read.
+    /// The file `path` could not be opened or read: `error` is the source,
+    /// the message says no more than that.
     pub fn io(path: &Path, error: std::io::Error) -> Self {
         Self {
             path: path.to_owned(),
             line: 0,
             field: "file".to_owned(),
-            message: error.to_string(),
+            message: String::new(),
             source: Some(Arc::new(error)),
+            ambiguous: None,
         }
+    }
+
+    /// The same error, saying the file holds several `choosing` to choose
+    /// from by `names`.
+    #[must_use]
+    pub fn with_choice(mut self, choosing: Choosing, names: Vec<String>) -> Self {
+        self.ambiguous = Some(Ambiguous { choosing, names });
+        self
     }
 }
 
 impl std::fmt::Display for ReadError {
+    /// `file:line: field: message`; for a file that could not be read at
+    /// all only the file (the system's error is the source).
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        if self.source.is_some() && self.message.is_empty() {
+            return write!(f, "{}", self.path.display());
+        }
         write!(f, "{}:{}: {}: {}", self.path.display(), self.line, self.field, self.message)
     }
 }
@@ -72,6 +118,7 @@ impl PartialEq for ReadError {
             && self.field == other.field
             && self.message == other.message
             && self.source.as_ref().map(|e| e.kind()) == other.source.as_ref().map(|e| e.kind())
+            && self.ambiguous == other.ambiguous
     }
 }
 
@@ -89,6 +136,6 @@ mod tests {
         assert_eq!(error.field, "file");
         let source = error.source().and_then(|e| e.downcast_ref::<std::io::Error>());
         assert_eq!(source.map(std::io::Error::kind), Some(std::io::ErrorKind::NotFound));
-        assert!(error.to_string().starts_with("ground.csv:0: file: "), "{error}");
+        assert_eq!(error.to_string(), "ground.csv", "the system's error is the source, not repeated");
     }
 }

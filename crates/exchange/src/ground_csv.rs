@@ -8,6 +8,7 @@ use std::path::Path;
 use gradewright_geometry::{GroundPoint, Units, excerpt, parse_station};
 
 use crate::ReadError;
+use crate::note::{Note, NoteKind};
 
 /// A ground profile as read: its points in station order, and what was
 /// put right on the way (rows sorted, exact repeats dropped).
@@ -16,7 +17,7 @@ pub struct GroundTable {
     /// The points, in increasing station order, no station twice.
     pub points: Vec<GroundPoint>,
     /// Notes for the user about rows that were sorted or dropped.
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Note>,
 }
 
 /// The text of a table file (a UTF-8 byte-order mark left out), or the
@@ -130,7 +131,7 @@ pub(crate) fn order_ground(
     let mut table = GroundTable::default();
     if rows.windows(2).any(|w| w[1].0.station < w[0].0.station) {
         rows.sort_by(|a, b| a.0.station.total_cmp(&b.0.station));
-        table.warnings.push(format!("{}: the rows were not in station order; sorted", origin.display()));
+        table.warnings.push(Note { path: origin.to_owned(), kind: NoteKind::Sorted });
     }
     let mut dropped = 0;
     for (k, (point, line)) in rows.iter().enumerate() {
@@ -153,7 +154,9 @@ pub(crate) fn order_ground(
         table.points.push(*point);
     }
     if dropped > 0 {
-        table.warnings.push(format!("{}: {dropped} repeated row(s) dropped", origin.display()));
+        table
+            .warnings
+            .push(Note { path: origin.to_owned(), kind: NoteKind::RepeatsDropped { count: dropped } });
     }
     if table.points.len() < 2 {
         let line = rows.last().map_or(1, |r| r.1);
@@ -200,7 +203,8 @@ mod tests {
         let t = read(b"20,211\n0,210\n40,212\n20,211\n").unwrap_or_else(|e| panic!("{e}"));
         assert_eq!(stations(&t), vec![(0.0, 210.0), (20.0, 211.0), (40.0, 212.0)]);
         assert_eq!(t.warnings.len(), 2, "{:?}", t.warnings);
-        assert!(t.warnings[0].contains("sorted"));
+        assert_eq!(t.warnings.first().map(|n| &n.kind), Some(&NoteKind::Sorted));
+        assert_eq!(t.warnings.get(1).map(|n| &n.kind), Some(&NoteKind::RepeatsDropped { count: 1 }));
     }
 
     #[test]

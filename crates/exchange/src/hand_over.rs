@@ -69,7 +69,7 @@ pub fn write_stations_csv(
         }
         csv.write_record(&row)?;
     }
-    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    csv.flush()?;
     Ok(())
 }
 
@@ -150,7 +150,7 @@ pub fn write_curves_csv(out: impl Write, analysis: &Analysis) -> Result<(), Tabl
             status.to_owned(),
         ])?;
     }
-    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    csv.flush()?;
     Ok(())
 }
 
@@ -179,6 +179,6 @@ pub fn write_findings_csv(out: impl Write, analysis: &Analysis) -> Result<(), Ta
             f.message.clone(),
         ])?;
     }
-    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    csv.flush()?;
     Ok(())
 }

@@ -9,17 +9,19 @@ mod error;
 mod ground_csv;
 mod hand_over;
 pub mod landxml;
+mod note;
 mod pvi_csv;
 mod table;
 
 pub use controls_csv::{CONTROLS_HEADER, read_controls_csv};
-pub use error::{ReadError, open_file};
+pub use error::{Ambiguous, Choosing, ReadError, open_file};
 pub use ground_csv::{GroundTable, read_ground_csv};
 pub use hand_over::{curves_header, write_curves_csv, write_findings_csv, write_stations_csv};
 pub use landxml::{
     Choice, LandXmlGround, LandXmlProfile, Selection, Stamp, is_landxml_path, landxml_choices, read_landxml,
     read_landxml_ground, write_landxml,
 };
+pub use note::{FileLengths, Note, NoteKind};
 pub use pvi_csv::{PviTable, read_pvi_csv, write_pvi_csv};
 pub use table::{
     EARTHWORK_HEADER, GROUND_COLUMNS, SIGHT_HEADER, SightTable, StationTable, TABLE_HEADER, TableError,

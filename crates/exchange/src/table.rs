@@ -226,7 +226,7 @@ impl<W: Write> StationTable<W> {
     /// # Errors
     /// An I/O error of the output.
     pub fn finish(mut self) -> Result<(), TableError> {
-        self.csv.flush().map_err(|e| TableError::Io(e.to_string()))
+        self.csv.flush().map_err(TableError::Io)
     }
 }
 
@@ -243,17 +243,14 @@ pub enum TableError {
         station: f64,
     },
     /// Writing failed.
-    #[error("{0}")]
-    Io(String),
+    #[error(transparent)]
+    Io(#[from] std::io::Error),
+    /// Writing a record failed (its I/O error underneath).
+    #[error(transparent)]
+    Csv(#[from] csv::Error),
     /// The profile has a problem (check it first).
-    #[error("the profile has problems; `gradewright check` lists them")]
+    #[error("the profile has problems")]
     Invalid,
-}
-
-impl From<csv::Error> for TableError {
-    fn from(e: csv::Error) -> Self {
-        Self::Io(e.to_string())
-    }
 }
 
 /// Writes an earthwork estimate, one row per station of it (the extra
@@ -272,7 +269,7 @@ pub fn write_earthwork_csv(out: impl Write, earthwork: &Earthwork) -> Result<(),
         }
         csv.write_record(values.map(|v| number(v, None)))?;
     }
-    csv.flush().map_err(|e| TableError::Io(e.to_string()))?;
+    csv.flush()?;
     Ok(())
 }
 
@@ -338,7 +335,7 @@ impl<W: Write> SightTable<W> {
     /// # Errors
     /// An I/O error of the output.
     pub fn finish(mut self) -> Result<(), TableError> {
-        self.csv.flush().map_err(|e| TableError::Io(e.to_string()))
+        self.csv.flush().map_err(TableError::Io)
     }
 }
 

@@ -58,20 +58,45 @@ impl Section {
     /// # Errors
     /// [`EarthworkError::Field`] naming the field and why.
     pub fn validate(&self) -> Result<(), EarthworkError> {
-        let field = |field: &'static str, why: &'static str| Err(EarthworkError::Field { field, why });
+        let field = |field: SectionField, why: &'static str| {
+            Err(EarthworkError::Field { field, value: self.value(field), why })
+        };
         if !(self.width.is_finite() && self.width > 0.0) {
-            return field("width", "must be a number greater than 0");
+            return field(SectionField::Width, "must be a number greater than 0");
         }
         if !(self.cut_slope.is_finite() && self.cut_slope >= 0.0) {
-            return field("cut slope", "must be a number of 0 or more (horizontal per unit rise)");
+            return field(SectionField::CutSlope, "must be a number of 0 or more (horizontal per unit rise)");
         }
         if !(self.fill_slope.is_finite() && self.fill_slope >= 0.0) {
-            return field("fill slope", "must be a number of 0 or more (horizontal per unit rise)");
+            return field(
+                SectionField::FillSlope,
+                "must be a number of 0 or more (horizontal per unit rise)",
+            );
         }
         if !(self.shrinkage_percent.is_finite() && (0.0..100.0).contains(&self.shrinkage_percent)) {
-            return field("shrinkage", "must be a percentage from 0 up to (not including) 100");
+            return field(SectionField::Shrinkage, "must be a percentage from 0 up to (not including) 100");
         }
         Ok(())
+    }
+
+    /// The value of `field`.
+    pub fn value(&self, field: SectionField) -> f64 {
+        match field {
+            SectionField::Width => self.width,
+            SectionField::CutSlope => self.cut_slope,
+            SectionField::FillSlope => self.fill_slope,
+            SectionField::Shrinkage => self.shrinkage_percent,
+        }
+    }
+
+    /// The value of `field`, to set.
+    pub fn value_mut(&mut self, field: SectionField) -> &mut f64 {
+        match field {
+            SectionField::Width => &mut self.width,
+            SectionField::CutSlope => &mut self.cut_slope,
+            SectionField::FillSlope => &mut self.fill_slope,
+            SectionField::Shrinkage => &mut self.shrinkage_percent,
+        }
     }
 
     /// End area of cut at depth `d` ≥ 0: d · (W + s_cut · d).
@@ -85,14 +110,44 @@ impl Section {
     }
 }
 
+/// A value of the level typical section.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+pub enum SectionField {
+    /// Roadway width.
+    Width,
+    /// Cut slope, horizontal per unit rise.
+    CutSlope,
+    /// Fill slope, horizontal per unit rise.
+    FillSlope,
+    /// Shrinkage of cut placed as fill, percent.
+    Shrinkage,
+}
+
+impl SectionField {
+    /// Every field, in the order a section is described.
+    pub const ALL: [Self; 4] = [Self::Width, Self::CutSlope, Self::FillSlope, Self::Shrinkage];
+
+    /// Its name in a sentence (`cut slope`).
+    pub fn name(self) -> &'static str {
+        match self {
+            Self::Width => "width",
+            Self::CutSlope => "cut slope",
+            Self::FillSlope => "fill slope",
+            Self::Shrinkage => "shrinkage",
+        }
+    }
+}
+
 /// Why there is no estimate.
 #[derive(Clone, Debug, PartialEq, thiserror::Error)]
 pub enum EarthworkError {
     /// A section value is unusable.
-    #[error("{field} {why}")]
+    #[error("{} {why}", .field.name())]
     Field {
         /// Which value.
-        field: &'static str,
+        field: SectionField,
+        /// The value given.
+        value: f64,
         /// What it must be.
         why: &'static str,
     },
@@ -398,7 +453,7 @@ mod tests {
         let bad = Section { shrinkage_percent: 100.0, ..SECTION };
         assert!(matches!(
             earthwork(&road, &ground(&[(0.0, 1.0), (9.0, 1.0)]), &bad, 20.0),
-            Err(EarthworkError::Field { field: "shrinkage", .. })
+            Err(EarthworkError::Field { field: SectionField::Shrinkage, .. })
         ));
         assert_eq!(
             earthwork(&road, &ground(&[(0.0, 1.0), (9.0, 1.0)]), &SECTION, 0.0),

@@ -49,8 +49,8 @@ pub use criteria::{
 pub use curve::{CurveGeometry, CurveKind, Segment};
 pub use design::Design;
 pub use earthwork::{
-    Earthwork, EarthworkError, EarthworkRow, RowKind, Section, area_symbol, earthwork, earthwork_at,
-    volume_symbol,
+    Earthwork, EarthworkError, EarthworkRow, RowKind, Section, SectionField, area_symbol, earthwork,
+    earthwork_at, volume_symbol,
 };
 pub use edit::InsertError;
 pub use finding::{Finding, FindingCode, Severity};

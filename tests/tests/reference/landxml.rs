@@ -7,7 +7,7 @@ use std::path::{Path, PathBuf};
 
 use gradewright_acceptance::assert_close;
 use gradewright_document::Project;
-use gradewright_exchange::{Selection, Stamp, read_landxml, write_landxml};
+use gradewright_exchange::{FileLengths, NoteKind, Selection, Stamp, read_landxml, write_landxml};
 use gradewright_geometry::{Alignment, Foot, GroundPoint, Profile, Pvi, Station, Units, VerticalCurve};
 
 fn schema() -> PathBuf {
@@ -146,7 +146,11 @@ fn a_hand_written_file_reads_as_the_published_curves() {
         .unwrap_or_else(|e| panic!("{e}"));
     assert_eq!((read.units, read.foot), (Units::UsCustomary, Foot::UsSurvey));
     assert_eq!(read.lines, vec![9, 10, 11, 12]);
-    assert!(read.notes.iter().any(|n| n.contains("skipped") && n.contains("Feature")), "{:?}", read.notes);
+    assert!(
+        read.notes.iter().any(|n| matches!(&n.kind, NoteKind::Skipped { elements, .. } if elements.iter().any(|e| e == "Feature"))),
+        "{:?}",
+        read.notes
+    );
     let a = Alignment::new(&Profile::new(read.units, read.pvis)).unwrap_or_else(|e| panic!("{e:?}"));
     // Mahun Prob. 2 printed table (3 decimals): BVC 54+00 1312.500 … EVC 59+00 1316.250.
     for (station, elevation) in [
@@ -204,5 +208,9 @@ fn several_alignments_are_chosen_by_name() {
     let feet = read_landxml(one.as_bytes(), path, &Selection::default(), Some(Units::UsCustomary))
         .unwrap_or_else(|e| panic!("{e}"));
     assert_close(feet.pvis[1].elevation, 156.5 / 0.3048, 1e-9, "converted elevation (0.3048 m per ft)");
-    assert!(feet.notes.iter().any(|n| n.contains("converted from metres")), "{:?}", feet.notes);
+    assert!(
+        feet.notes.iter().any(|n| matches!(n.kind, NoteKind::Converted { from: FileLengths::Metres, .. })),
+        "{:?}",
+        feet.notes
+    );
 }

@@ -5,7 +5,7 @@
 use std::path::PathBuf;
 
 use egui::{Key, KeyboardShortcut, Modifiers};
-use gradewright_document::Project;
+use gradewright_document::{ExportSettings, Project, Snap};
 use gradewright_geometry::{ControlPoint, Criteria, Ground, Pvi, Section, Units};
 
 /// A change to the project. Every edit is one undo step.
@@ -40,6 +40,10 @@ pub enum Edit {
     SetControls(Vec<ControlPoint>),
     /// Set or clear the earthwork section.
     SetSection(Option<Section>),
+    /// Change how PVIs snap (kept with the project).
+    SetSnap(Snap),
+    /// Change the export choices (kept with the project).
+    SetExport(Box<ExportSettings>),
     /// Replace the whole project (keeps undo).
     Replace(Box<Project>),
 }
@@ -60,8 +64,12 @@ pub enum Action {
     New(Units),
     /// Open a file (`None`: ask with a dialog).
     Open(Option<PathBuf>),
-    /// Import an existing-ground CSV (`None`: ask with a dialog).
+    /// Import an existing-ground CSV or LandXML ground line (`None`: ask
+    /// with a dialog).
     ImportGround(Option<PathBuf>),
+    /// Import the ground line a selection picks from a LandXML file
+    /// holding several.
+    ImportGroundFrom(PathBuf, gradewright_exchange::Selection),
     /// Import a control-points CSV (`None`: ask with a dialog).
     ImportControls(Option<PathBuf>),
     /// Open the design profile (and ground line) a selection picks from a
@@ -71,6 +79,16 @@ pub enum Action {
     OpenPviTable(PathBuf, Units),
     /// Export the design profile and the ground as LandXML (`None`: ask with a dialog).
     ExportLandXml(Option<PathBuf>),
+    /// Write the sheet and tables as the export choices say.
+    ExportSheet,
+    /// Write only the hand-over tables.
+    ExportTables,
+    /// Open the export window.
+    ShowExport,
+    /// Open the tables-only export window.
+    ShowTablesExport,
+    /// Open the window that opens or saves by a typed path.
+    ShowPathDialog,
     /// A file dropped on the window: open or import it by what it holds.
     Dropped(PathBuf),
     /// Save to the current file (asks for one if there is none).
@@ -85,8 +103,8 @@ pub enum Action {
     FitView,
     /// Select a PVI and bring its curve into view.
     Focus(usize),
-    /// Select a PVI; the view stays as it is.
-    Select(usize),
+    /// Select a PVI (or none); the view stays as it is.
+    Select(Option<usize>),
     /// Bring the selected PVI and its curve into view.
     ZoomToSelection,
     /// Make the unequal-tangent curve at a PVI symmetric, keeping its length.
@@ -95,6 +113,16 @@ pub enum Action {
     DeleteSelected,
     /// Insert a PVI in the middle of the tangent after the selected PVI.
     InsertAfterSelected,
+    /// Insert a PVI on the profile at a station (refused on a curve).
+    InsertAt(f64),
+    /// Add a minimum control point at a station, at an elevation (or on
+    /// the profile).
+    AddControl {
+        /// Where.
+        station: f64,
+        /// The elevation, when not the profile's.
+        elevation: Option<f64>,
+    },
     /// Select the previous PVI.
     SelectPrevious,
     /// Select the next PVI.

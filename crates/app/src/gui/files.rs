@@ -1,9 +1,13 @@
-//! Where the app keeps its own files: the recent-files list and the recovery
-//! file written by autosave.
+//! The editor's files: the file the project was opened from or saved to,
+//! and the app's own files — the recent-files list and the recovery file
+//! written by autosave.
 
 use std::path::{Path, PathBuf};
 
 use gradewright_document::{Project, write_atomic};
+
+/// How often unsaved work is written to the recovery file, seconds.
+const AUTOSAVE_SECONDS: f64 = 30.0;
 
 /// How many recent files are remembered.
 const RECENT_LIMIT: usize = 8;
@@ -99,5 +103,57 @@ impl AppFiles {
         if let Some(path) = self.recovery_path() {
             let _ = std::fs::remove_file(path);
         }
+    }
+}
+
+/// The files of one editing session: where the project lives, the recent
+/// files, and when unsaved work was last written to the recovery file.
+#[derive(Debug, Default)]
+pub struct Session {
+    /// The app's own files.
+    pub files: AppFiles,
+    path: Option<PathBuf>,
+    recent: Vec<PathBuf>,
+    last_autosave: Option<f64>,
+}
+
+impl Session {
+    /// A session keeping its own files in `files`, on the project at `path`.
+    pub fn new(files: AppFiles, path: Option<PathBuf>) -> Self {
+        let recent = files.recent();
+        Self { files, path, recent, last_autosave: None }
+    }
+
+    /// The file the project was last opened from or saved to.
+    pub fn path(&self) -> Option<&Path> {
+        self.path.as_deref()
+    }
+
+    /// The project now lives at `path` (or nowhere yet).
+    pub fn set_path(&mut self, path: Option<PathBuf>) {
+        self.path = path;
+    }
+
+    /// Recent files, newest first.
+    pub fn recent(&self) -> &[PathBuf] {
+        &self.recent
+    }
+
+    /// Puts `path` first in the recent files (kept if the list cannot be
+    /// written).
+    pub fn note_recent(&mut self, path: &Path) {
+        if let Ok(list) = self.files.add_recent(path) {
+            self.recent = list;
+        }
+    }
+
+    /// Whether the autosave interval has passed at `now` (seconds since
+    /// start); when it has, the clock restarts.
+    pub fn autosave_due(&mut self, now: f64) -> bool {
+        let due = self.last_autosave.is_none_or(|t| now - t >= AUTOSAVE_SECONDS);
+        if due {
+            self.last_autosave = Some(now);
+        }
+        due
     }
 }

@@ -8,7 +8,9 @@ use roxmltree::{Document, Node};
 
 use super::NAMESPACE;
 use crate::ReadError;
+use crate::error::Choosing;
 use crate::ground_csv::{order_ground, read_text};
+use crate::note::{FileLengths, Note, NoteKind};
 
 /// Which alignment, design profile and ground line to read when a file holds
 /// several. `None` takes the only one there is; when there are several, the
@@ -44,7 +46,7 @@ pub struct LandXmlProfile {
     pub ground: Vec<GroundPoint>,
     /// What the reader wants the user to know: the units it read, what it
     /// converted, and every element it skipped.
-    pub notes: Vec<String>,
+    pub notes: Vec<Note>,
 }
 
 impl LandXmlProfile {
@@ -70,7 +72,7 @@ pub struct LandXmlGround {
     /// The points, in station order, in the units asked for.
     pub points: Vec<GroundPoint>,
     /// What the user should know (units, conversions, sorting, skipped parts).
-    pub notes: Vec<String>,
+    pub notes: Vec<Note>,
 }
 
 /// One design profile a file offers.
@@ -113,7 +115,7 @@ struct Parsed<'a> {
     origin: &'a Path,
     doc: Document<'a>,
     units: FileUnits,
-    notes: Vec<String>,
+    notes: Vec<Note>,
 }
 
 /// An alignment's design profiles and ground lines.
@@ -132,11 +134,9 @@ fn line_of(doc: &Document<'_>, node: Node<'_, '_>) -> u64 {
     u64::from(doc.text_pos_at(node.range().start).row)
 }
 
-fn units_name(units: Units) -> &'static str {
-    match units {
-        Units::Metric => "metres",
-        Units::UsCustomary => "feet",
-    }
+/// A note about `origin`.
+fn note(origin: &Path, kind: NoteKind) -> Note {
+    Note { path: origin.to_owned(), kind }
 }
 
 impl<'a> Parsed<'a> {
@@ -164,7 +164,7 @@ impl<'a> Parsed<'a> {
         match root.tag_name().namespace() {
             Some(NAMESPACE) => {}
             Some(ns) if ns.starts_with("http://www.landxml.org/schema/LandXML-") => {
-                notes.push(format!("{}: namespace {ns} read as LandXML 1.2", origin.display()));
+                notes.push(note(origin, NoteKind::OlderNamespace { namespace: ns.to_owned() }));
             }
             Some(ns) => {
                 return Err(ReadError::new(
@@ -174,7 +174,7 @@ impl<'a> Parsed<'a> {
                     format!("namespace '{}' is not LandXML's ({NAMESPACE})", excerpt(ns)),
                 ));
             }
-            None => notes.push(format!("{}: no namespace; read as LandXML 1.2", origin.display())),
+            None => notes.push(note(origin, NoteKind::NoNamespace)),
         }
         let units = file_units(&doc, root, origin, &mut notes)?;
         Ok(Self { origin, doc, units, notes })
@@ -271,15 +271,23 @@ impl<'a> Parsed<'a> {
                     every()
                 ),
             )),
-            _ => Err(self.err(
-                root,
-                "ProfAlign",
-                format!(
-                    "the file holds {} design profiles (alignment / profile): {}; choose one with --alignment NAME and --profile NAME",
-                    candidates.len(),
-                    every()
-                ),
-            )),
+            _ => Err(self
+                .err(
+                    root,
+                    "ProfAlign",
+                    format!(
+                        "the file holds {} design profiles (alignment / profile): {}",
+                        candidates.len(),
+                        every()
+                    ),
+                )
+                .with_choice(
+                    Choosing::Profile,
+                    candidates
+                        .iter()
+                        .filter_map(|(a, k)| a.profiles.get(*k).map(|p| format!("{} / {}", a.name, p.0)))
+                        .collect(),
+                )),
         }
     }
 
@@ -322,16 +330,18 @@ impl<'a> Parsed<'a> {
             )),
             [] => Ok(None),
             [one] => Ok(Some(one)),
-            _ => Err(self.err(
-                alignment.node,
-                "ProfSurf",
-                format!(
-                    "alignment '{}' holds {} ground lines: {}; choose one with --surface NAME",
-                    alignment.name,
-                    alignment.surfaces.len(),
-                    names()
-                ),
-            )),
+            _ => Err(self
+                .err(
+                    alignment.node,
+                    "ProfSurf",
+                    format!(
+                        "alignment '{}' holds {} ground lines: {}",
+                        alignment.name,
+                        alignment.surfaces.len(),
+                        names()
+                    ),
+                )
+                .with_choice(Choosing::Surface, alignment.surfaces.iter().map(|s| s.0.clone()).collect())),
         }
     }
 
@@ -390,7 +400,7 @@ impl<'a> Parsed<'a> {
         prof_align: Node<'_, '_>,
         name: &str,
         scale: f64,
-        notes: &mut Vec<String>,
+        notes: &mut Vec<Note>,
     ) -> Result<(Vec<Pvi>, Vec<u64>), ReadError> {
         let mut pvis = Vec::new();
         let mut lines = Vec::new();
@@ -428,17 +438,10 @@ impl<'a> Parsed<'a> {
             return Err(self.err(prof_align, "ProfAlign", format!("design profile '{name}' has no PVI")));
         }
         if circular > 0 {
-            notes.push(format!(
-                "{}: {circular} circular vertical curve(s) (CircCurve) read as parabolic curves of the same length; check them",
-                self.origin.display()
-            ));
+            notes.push(note(self.origin, NoteKind::CircularCurves { count: circular }));
         }
         if !skipped.is_empty() {
-            notes.push(format!(
-                "{}: skipped in ProfAlign '{name}': {}",
-                self.origin.display(),
-                skipped.join(", ")
-            ));
+            notes.push(note(self.origin, NoteKind::Skipped { profile: name.to_owned(), elements: skipped }));
         }
         Ok((pvis, lines))
     }
@@ -449,7 +452,7 @@ impl<'a> Parsed<'a> {
         surface: Node<'_, '_>,
         name: &str,
         scale: f64,
-        notes: &mut Vec<String>,
+        notes: &mut Vec<Note>,
     ) -> Result<Vec<GroundPoint>, ReadError> {
         let mut rows = Vec::new();
         let lists: Vec<_> = surface.children().filter(|n| is(*n, "PntList2D")).collect();
@@ -499,10 +502,9 @@ impl<'a> Parsed<'a> {
             return Err(self.err(surface, "ProfSurf", format!("ground line '{name}' has no PntList2D")));
         }
         if lists.len() > 1 {
-            notes.push(format!(
-                "{}: ground line '{name}' has {} point lists; the gaps between them are bridged by straight lines",
-                self.origin.display(),
-                lists.len()
+            notes.push(note(
+                self.origin,
+                NoteKind::PointListsJoined { surface: name.to_owned(), lists: lists.len() },
             ));
         }
         let table = order_ground(rows, self.origin, "PntList2D")?;
@@ -511,51 +513,34 @@ impl<'a> Parsed<'a> {
     }
 
     /// Notes on what an alignment holds that is not read.
-    fn alignment_notes(&self, alignment: &AlignmentNodes<'_, '_>, notes: &mut Vec<String>) {
+    fn alignment_notes(&self, alignment: &AlignmentNodes<'_, '_>, notes: &mut Vec<Note>) {
         if alignment.node.children().any(|n| is(n, "StaEquation")) {
-            notes.push(format!(
-                "{}: alignment '{}' has station equations; stations are read as internal stations (none applied)",
-                self.origin.display(),
-                alignment.name
-            ));
+            notes.push(note(self.origin, NoteKind::StationEquations { alignment: alignment.name.clone() }));
         }
     }
 
     /// The scale from file values to the target and the units read into.
-    fn target(&self, target: Option<(Units, Foot)>, notes: &mut Vec<String>) -> (Units, Foot, f64) {
+    fn target(&self, target: Option<(Units, Foot)>, notes: &mut Vec<Note>) -> (Units, Foot, f64) {
         let file = self.units;
         let (units, foot) = target.unwrap_or((file.units, file.foot));
         let factor = length_factor(file.units, file.foot, units, foot);
         let scale = file.scale * factor;
-        let said = match (file.units, file.foot) {
-            (Units::UsCustomary, Foot::UsSurvey) => "US survey feet",
-            (u, _) => units_name(u),
+        let lengths = match (file.units, file.foot) {
+            (Units::UsCustomary, Foot::UsSurvey) => FileLengths::UsSurveyFeet,
+            (u, _) => FileLengths::of(u),
         };
-        if units == file.units && factor.to_bits() == 1.0_f64.to_bits() {
-            notes.push(format!(
-                "{}: lengths in {said} (linearUnit=\"{}\")",
-                self.origin.display(),
-                file.name
-            ));
+        let linear_unit = file.name.to_owned();
+        let kept = units == file.units && factor.to_bits() == 1.0_f64.to_bits();
+        if kept {
+            notes.push(note(self.origin, NoteKind::Lengths { lengths, linear_unit: linear_unit.clone() }));
         } else {
-            notes.push(format!(
-                "{}: lengths converted from {said} (linearUnit=\"{}\") to {} (x {scale})",
-                self.origin.display(),
-                file.name,
-                units_name(units)
+            notes.push(note(
+                self.origin,
+                NoteKind::Converted { from: lengths, linear_unit: linear_unit.clone(), to: units, scale },
             ));
         }
-        if file.scale.to_bits() != 1.0_f64.to_bits()
-            && units == file.units
-            && factor.to_bits() == 1.0_f64.to_bits()
-        {
-            notes.push(format!(
-                "{}: {} converted to {} (x {})",
-                self.origin.display(),
-                file.name,
-                units_name(units),
-                file.scale
-            ));
+        if file.scale.to_bits() != 1.0_f64.to_bits() && kept {
+            notes.push(note(self.origin, NoteKind::Scaled { linear_unit, to: units, scale: file.scale }));
         }
         (units, foot, scale)
     }
@@ -570,7 +555,7 @@ fn file_units(
     doc: &Document<'_>,
     root: Node<'_, '_>,
     origin: &Path,
-    notes: &mut Vec<String>,
+    notes: &mut Vec<Note>,
 ) -> Result<FileUnits, ReadError> {
     let err = |node: Node<'_, '_>, field: &str, message: String| {
         ReadError::new(origin, line_of(doc, node), field, message)
@@ -600,10 +585,9 @@ fn file_units(
     if let Some(elevation) = system.attribute("elevationUnit") {
         let agrees = matches!((units, elevation), (Units::Metric, "meter") | (Units::UsCustomary, "feet"));
         if !agrees {
-            notes.push(format!(
-                "{}: elevationUnit=\"{}\" is not used: profile elevations are in the linear unit ({linear})",
-                origin.display(),
-                excerpt(elevation)
+            notes.push(note(
+                origin,
+                NoteKind::ElevationUnitUnused { given: excerpt(elevation), linear_unit: linear.to_owned() },
             ));
         }
     }
@@ -665,7 +649,7 @@ fn station_range_note(
     alignment: &AlignmentNodes<'_, '_>,
     pvis: &[Pvi],
     scale: f64,
-    notes: &mut Vec<String>,
+    notes: &mut Vec<Note>,
 ) {
     let (Ok(start), Ok(length)) =
         (parsed.attribute(alignment.node, "staStart"), parsed.attribute(alignment.node, "length"))
@@ -676,10 +660,9 @@ fn station_range_note(
     let slack = gradewright_geometry::tolerance::station_hair(end);
     let outside = pvis.iter().filter(|p| p.station.0 < start - slack || p.station.0 > end + slack).count();
     if outside > 0 {
-        notes.push(format!(
-            "{}: {outside} PVI(s) lie outside alignment '{}' (stations {start} to {end}); read as given",
-            parsed.origin.display(),
-            alignment.name
+        notes.push(note(
+            parsed.origin,
+            NoteKind::OutsideAlignment { count: outside, alignment: alignment.name.clone(), start, end },
         ));
     }
 }
@@ -727,15 +710,17 @@ pub fn read_landxml_ground(
             ));
         }
         (many, _) => {
-            return Err(parsed.err(
-                root,
-                "Alignment",
-                format!(
-                    "{} alignments have ground lines: {}; choose one with --alignment NAME",
-                    many.len(),
-                    list(many.iter().map(|a| a.name.as_str()))
-                ),
-            ));
+            return Err(parsed
+                .err(
+                    root,
+                    "Alignment",
+                    format!(
+                        "{} alignments have ground lines: {}",
+                        many.len(),
+                        list(many.iter().map(|a| a.name.as_str()))
+                    ),
+                )
+                .with_choice(Choosing::Alignment, many.iter().map(|a| a.name.clone()).collect()));
         }
     };
     let (_, _, scale) = parsed.target(Some((units, foot)), &mut notes);

@@ -4,18 +4,19 @@
 use egui::RichText;
 use gradewright_geometry::{Severity, format_station};
 
-use super::app::GradewrightApp;
-use super::command::Action;
-use super::table_ui::status_text;
-use super::theme::Palette;
+use super::View;
+use super::table::status_text;
+use crate::gui::command::Action;
+use crate::gui::theme::Palette;
 
 /// The findings list. Failures first, then by station; each row shows the
 /// severity, stations, code and message (the full message on hover). Only
 /// the rows in view are built.
-pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
+pub fn findings_ui(ui: &mut egui::Ui, view: &mut View<'_>) {
+    let doc = view.doc;
     let palette = Palette::of(ui);
-    let units = app.project().units;
-    let findings = &app.analysis().report.findings;
+    let units = doc.project().units;
+    let findings = &doc.analysis().report.findings;
     let count = |s| findings.iter().filter(|f| f.severity() == s).count();
     ui.label(format!(
         "{} fail · {} warn · {} info",
@@ -73,6 +74,6 @@ pub fn findings_ui(app: &mut GradewrightApp, ui: &mut egui::Ui) {
         },
     );
     if let Some(i) = clicked {
-        app.push(Action::Focus(i));
+        view.push(Action::Focus(i));
     }
 }

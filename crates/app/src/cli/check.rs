@@ -1,0 +1,43 @@
+//! `check`: every curve and every finding, as text or JSON.
+
+use std::process::ExitCode;
+
+use anyhow::bail;
+use gradewright_geometry::{Alignment, Analysis};
+
+use super::args::{CheckArgs, Format};
+use super::{Run, check_speed, override_step, print, refuse_unchecked_sight, report, resolve};
+
+/// Runs `check`.
+///
+/// # Errors
+/// Bad input or options (a profile that cannot be evaluated at all included).
+pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
+    let speed = args.checking.speed.design_speed;
+    check_speed(speed)?;
+    let input = &args.source.input;
+    let mut loaded = run.load(&args.source)?;
+    override_step(&mut loaded, args.checking.step)?;
+    let criteria = resolve(&mut loaded.project, speed, input)?;
+    // Input that cannot be evaluated at all is bad input (exit 2), as for
+    // every other command; curves that overlap or do not fit are design
+    // failures and are listed as findings.
+    let problems = loaded.project.profile().problems();
+    if let Some(problem) = problems.iter().find(|p| !gradewright_geometry::is_design_problem(p)) {
+        let more = problems.len() - 1;
+        let more = if more == 0 { String::new() } else { format!(" (and {more} more problem(s))") };
+        bail!("{}: {problem}{more}", loaded.locate(problem));
+    }
+    if let Ok(alignment) = Alignment::new(&loaded.project.profile()) {
+        refuse_unchecked_sight(&alignment, &criteria, input)?;
+    }
+    let project = loaded.project;
+    let analysis = Analysis::of(&project.design());
+    let checks = &analysis.report;
+    let text = match args.format {
+        Format::Text => report::text(&project, &criteria, &analysis),
+        Format::Json => report::json(&project, &criteria, checks)?,
+    };
+    print(text.as_bytes())?;
+    Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
+}

@@ -1,0 +1,81 @@
+//! `import`: existing ground and control points merged into a project.
+
+use std::path::Path;
+use std::process::ExitCode;
+
+use anyhow::{anyhow, bail};
+
+use super::args::ImportArgs;
+use super::{Run, check_output, print, read_error};
+
+/// Opens an import file named by `flag`.
+fn open(flag: &str, path: &Path) -> anyhow::Result<std::io::BufReader<std::fs::File>> {
+    gradewright_exchange::open_file(path).map_err(|e| {
+        let said = std::error::Error::source(&e).map_or_else(|| e.message.clone(), ToString::to_string);
+        anyhow!("{}: {flag}: {said}", path.display())
+    })
+}
+
+/// Runs `import`.
+///
+/// # Errors
+/// Bad input or options, or an output that cannot be written.
+pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
+    let output = &args.output;
+    check_output(output)?;
+    if !output.extension().is_some_and(|e| e.eq_ignore_ascii_case("ron")) {
+        bail!("{}: -o: the output is a project file; give it the extension .ron", output.display());
+    }
+    if args.ground.is_none() && args.controls.is_none() {
+        bail!("nothing to import: give --ground FILE and/or --controls FILE");
+    }
+    let mut loaded = run.load(&args.source)?;
+    let units = loaded.project.units;
+    let label = |s: f64| gradewright_geometry::format_station(s, units, units.station_decimals());
+    let mut text = String::new();
+    if let Some(ground) = &args.ground {
+        let table = if gradewright_exchange::is_landxml_path(ground) {
+            let read = gradewright_exchange::read_landxml_ground(
+                open("--ground", ground)?,
+                ground,
+                &args.source.selection(),
+                units,
+                loaded.project.foot,
+            )
+            .map_err(read_error)?;
+            text.push_str(&format!(
+                "note: {}: ground line '{}' of alignment '{}'\n",
+                ground.display(),
+                read.surface,
+                read.alignment
+            ));
+            for n in &read.notes {
+                text.push_str(&format!("note: {n}\n"));
+            }
+            gradewright_exchange::GroundTable { points: read.points, warnings: Vec::new() }
+        } else {
+            gradewright_exchange::read_ground_csv(open("--ground", ground)?, ground, units)?
+        };
+        for w in &table.warnings {
+            text.push_str(&format!("warning: {w}\n"));
+        }
+        if let (Some(first), Some(last)) = (table.points.first(), table.points.last()) {
+            text.push_str(&format!(
+                "{} ground point(s) from {} to {}\n",
+                table.points.len(),
+                label(first.station),
+                label(last.station)
+            ));
+        }
+        loaded.project.ground = table.points.into();
+    }
+    if let Some(controls) = &args.controls {
+        let points = gradewright_exchange::read_controls_csv(open("--controls", controls)?, controls, units)?;
+        text.push_str(&format!("{} control point(s)\n", points.len()));
+        loaded.project.controls = points;
+    }
+    loaded.project.save(output)?;
+    text.push_str(&format!("wrote {}\n", output.display()));
+    print(text.as_bytes())?;
+    Ok(ExitCode::SUCCESS)
+}

@@ -1,0 +1,189 @@
+//! What a reader wants the user to know about a file it read: data, which
+//! each front end words as it likes ([`std::fmt::Display`] gives the plain
+//! wording, naming the file).
+
+use std::path::PathBuf;
+
+use gradewright_geometry::Units;
+
+/// One thing to know about a file that was read.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Note {
+    /// The file.
+    pub path: PathBuf,
+    /// What there is to know.
+    pub kind: NoteKind,
+}
+
+/// The units a file's lengths were in, as a person says them.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum FileLengths {
+    /// Metres (or a metric unit scaled to them).
+    Metres,
+    /// International feet (or an imperial unit scaled to them).
+    Feet,
+    /// US survey feet.
+    UsSurveyFeet,
+}
+
+impl FileLengths {
+    /// `metres`, `feet` or `US survey feet`.
+    pub fn words(self) -> &'static str {
+        match self {
+            Self::Metres => "metres",
+            Self::Feet => "feet",
+            Self::UsSurveyFeet => "US survey feet",
+        }
+    }
+
+    /// The lengths of a unit system.
+    pub fn of(units: Units) -> Self {
+        match units {
+            Units::Metric => Self::Metres,
+            Units::UsCustomary => Self::Feet,
+        }
+    }
+}
+
+/// What a reader noted.
+#[derive(Clone, Debug, PartialEq)]
+pub enum NoteKind {
+    /// Rows were not in station order and were sorted.
+    Sorted,
+    /// Repeated rows (the same station and elevation) were dropped.
+    RepeatsDropped {
+        /// How many.
+        count: usize,
+    },
+    /// An older LandXML namespace, read as 1.2.
+    OlderNamespace {
+        /// The namespace given.
+        namespace: String,
+    },
+    /// No namespace at all, read as LandXML 1.2.
+    NoNamespace,
+    /// An `elevationUnit` that is not the linear unit, not used.
+    ElevationUnitUnused {
+        /// As given.
+        given: String,
+        /// The linear unit used instead.
+        linear_unit: String,
+    },
+    /// The lengths were read as given.
+    Lengths {
+        /// In which units.
+        lengths: FileLengths,
+        /// The `linearUnit` as written.
+        linear_unit: String,
+    },
+    /// The lengths were converted to other units.
+    Converted {
+        /// From which.
+        from: FileLengths,
+        /// The `linearUnit` as written.
+        linear_unit: String,
+        /// To which.
+        to: Units,
+        /// The factor applied.
+        scale: f64,
+    },
+    /// A linear unit of the same system (millimetres, miles) scaled to its base.
+    Scaled {
+        /// The `linearUnit` as written.
+        linear_unit: String,
+        /// The system's base unit it was scaled to.
+        to: Units,
+        /// The factor applied.
+        scale: f64,
+    },
+    /// Circular vertical curves read as parabolas of the same length.
+    CircularCurves {
+        /// How many.
+        count: usize,
+    },
+    /// Elements of a design profile that were skipped.
+    Skipped {
+        /// The design profile.
+        profile: String,
+        /// The elements' names, each once.
+        elements: Vec<String>,
+    },
+    /// A ground line in several point lists, joined.
+    PointListsJoined {
+        /// The ground line.
+        surface: String,
+        /// How many lists.
+        lists: usize,
+    },
+    /// An alignment with station equations, read as internal stations.
+    StationEquations {
+        /// The alignment.
+        alignment: String,
+    },
+    /// PVIs outside their alignment's stations, read as given.
+    OutsideAlignment {
+        /// How many.
+        count: usize,
+        /// The alignment.
+        alignment: String,
+        /// Its first station.
+        start: f64,
+        /// Its last station.
+        end: f64,
+    },
+}
+
+impl NoteKind {
+    /// Whether the note only says what units were read (nothing changed).
+    pub fn is_units_read(&self) -> bool {
+        matches!(self, Self::Lengths { .. })
+    }
+}
+
+impl std::fmt::Display for Note {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "{}: ", self.path.display())?;
+        let to_words = |u: Units| FileLengths::of(u).words();
+        match &self.kind {
+            NoteKind::Sorted => write!(f, "the rows were not in station order; sorted"),
+            NoteKind::RepeatsDropped { count } => write!(f, "{count} repeated row(s) dropped"),
+            NoteKind::OlderNamespace { namespace } => write!(f, "namespace {namespace} read as LandXML 1.2"),
+            NoteKind::NoNamespace => write!(f, "no namespace; read as LandXML 1.2"),
+            NoteKind::ElevationUnitUnused { given, linear_unit } => write!(
+                f,
+                "elevationUnit=\"{given}\" is not used: profile elevations are in the linear unit ({linear_unit})"
+            ),
+            NoteKind::Lengths { lengths, linear_unit } => {
+                write!(f, "lengths in {} (linearUnit=\"{linear_unit}\")", lengths.words())
+            }
+            NoteKind::Converted { from, linear_unit, to, scale } => write!(
+                f,
+                "lengths converted from {} (linearUnit=\"{linear_unit}\") to {} (x {scale})",
+                from.words(),
+                to_words(*to)
+            ),
+            NoteKind::Scaled { linear_unit, to, scale } => {
+                write!(f, "{linear_unit} converted to {} (x {scale})", to_words(*to))
+            }
+            NoteKind::CircularCurves { count } => write!(
+                f,
+                "{count} circular vertical curve(s) (CircCurve) read as parabolic curves of the same length; check them"
+            ),
+            NoteKind::Skipped { profile, elements } => {
+                write!(f, "skipped in ProfAlign '{profile}': {}", elements.join(", "))
+            }
+            NoteKind::PointListsJoined { surface, lists } => write!(
+                f,
+                "ground line '{surface}' has {lists} point lists; the gaps between them are bridged by straight lines"
+            ),
+            NoteKind::StationEquations { alignment } => write!(
+                f,
+                "alignment '{alignment}' has station equations; stations are read as internal stations (none applied)"
+            ),
+            NoteKind::OutsideAlignment { count, alignment, start, end } => write!(
+                f,
+                "{count} PVI(s) lie outside alignment '{alignment}' (stations {start} to {end}); read as given"
+            ),
+        }
+    }
+}
