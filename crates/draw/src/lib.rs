@@ -14,4 +14,7 @@ pub use render::{RenderError, pdf, png, raster};
 pub use scene::{
     Detail, Hatch, Label, Marker, Polyline, Role, Scene, Shape, Side, profile_scene, profile_scene_with,
 };
-pub use sheet::{CAUTION, Layout, SheetError, SheetOptions, SheetSize, TitleBlock, layout, sheet_svgs};
+pub use sheet::{
+    CAUTION, Layout, SheetError, SheetOptions, SheetSize, SheetTree, TitleBlock, layout, sheet_svgs,
+    sheet_trees,
+};

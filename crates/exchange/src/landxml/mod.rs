@@ -8,6 +8,8 @@
 //! decimals in the file's linear unit. Element and attribute names are the
 //! schema's own (LandXML-1.2.xsd, kept in the repository's test data).
 
+mod parse;
+mod pick;
 mod read;
 mod write;
 

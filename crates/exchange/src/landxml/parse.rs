@@ -1,0 +1,393 @@
+//! The parsed file and what every reader needs of it: the units it states,
+//! its alignments with their design profiles and ground lines, and the
+//! values of their elements.
+
+use std::path::Path;
+
+use gradewright_geometry::{Foot, GroundPoint, Pvi, Station, Units, VerticalCurve, excerpt, length_factor};
+use roxmltree::{Document, Node};
+
+use super::NAMESPACE;
+use crate::ReadError;
+use crate::ground_csv::order_ground;
+use crate::note::{FileLengths, Note, NoteKind};
+
+/// The units a file states and how its linear unit scales to the base
+/// unit of that system (metre or foot).
+#[derive(Clone, Copy, Debug)]
+pub(super) struct FileUnits {
+    pub(super) units: Units,
+    pub(super) foot: Foot,
+    /// Base units (m or ft) per file unit: 1 for meter, foot, USSurveyFoot.
+    pub(super) scale: f64,
+    /// The `linearUnit` as written.
+    pub(super) name: &'static str,
+}
+
+/// Linear units the schema allows and what they are in Gradewright's terms.
+const LINEAR_UNITS: [(&str, Units, Foot, f64); 8] = [
+    ("meter", Units::Metric, Foot::International, 1.0),
+    ("millimeter", Units::Metric, Foot::International, 0.001),
+    ("centimeter", Units::Metric, Foot::International, 0.01),
+    ("kilometer", Units::Metric, Foot::International, 1000.0),
+    ("foot", Units::UsCustomary, Foot::International, 1.0),
+    ("USSurveyFoot", Units::UsCustomary, Foot::UsSurvey, 1.0),
+    ("inch", Units::UsCustomary, Foot::International, 1.0 / 12.0),
+    ("mile", Units::UsCustomary, Foot::International, 5280.0),
+];
+
+/// A parsed file and what every reader needs of it.
+pub(super) struct Parsed<'a> {
+    pub(super) origin: &'a Path,
+    pub(super) doc: Document<'a>,
+    pub(super) units: FileUnits,
+    pub(super) notes: Vec<Note>,
+}
+
+/// An alignment's design profiles and ground lines.
+pub(super) struct AlignmentNodes<'a, 'i> {
+    pub(super) name: String,
+    pub(super) node: Node<'a, 'i>,
+    pub(super) profiles: Vec<(String, Option<String>, Node<'a, 'i>)>,
+    pub(super) surfaces: Vec<(String, Node<'a, 'i>)>,
+}
+
+pub(super) fn is(node: Node<'_, '_>, name: &str) -> bool {
+    node.is_element() && node.tag_name().name() == name
+}
+
+pub(super) fn line_of(doc: &Document<'_>, node: Node<'_, '_>) -> u64 {
+    u64::from(doc.text_pos_at(node.range().start).row)
+}
+
+/// A note about `origin`.
+pub(super) fn note(origin: &Path, kind: NoteKind) -> Note {
+    Note { path: origin.to_owned(), kind }
+}
+
+impl<'a> Parsed<'a> {
+    pub(super) fn parse(text: &'a str, origin: &'a Path) -> Result<Self, ReadError> {
+        let doc = Document::parse(text).map_err(|e| {
+            // The end of a cut-off file is its last line, not where the
+            // parser started.
+            let line = if matches!(e, roxmltree::Error::UnexpectedEndOfStream) {
+                text.lines().count().max(1) as u64
+            } else {
+                u64::from(e.pos().row)
+            };
+            ReadError::new(origin, line, "xml", format!("not well-formed XML: {e}"))
+        })?;
+        let root = doc.root_element();
+        let mut notes = Vec::new();
+        if root.tag_name().name() != "LandXML" {
+            return Err(ReadError::new(
+                origin,
+                line_of(&doc, root),
+                "LandXML",
+                format!("the root element is <{}>, not <LandXML>", excerpt(root.tag_name().name())),
+            ));
+        }
+        match root.tag_name().namespace() {
+            Some(NAMESPACE) => {}
+            Some(ns) if ns.starts_with("http://www.landxml.org/schema/LandXML-") => {
+                notes.push(note(origin, NoteKind::OlderNamespace { namespace: ns.to_owned() }));
+            }
+            Some(ns) => {
+                return Err(ReadError::new(
+                    origin,
+                    line_of(&doc, root),
+                    "LandXML",
+                    format!("namespace '{}' is not LandXML's ({NAMESPACE})", excerpt(ns)),
+                ));
+            }
+            None => notes.push(note(origin, NoteKind::NoNamespace)),
+        }
+        let units = file_units(&doc, root, origin, &mut notes)?;
+        Ok(Self { origin, doc, units, notes })
+    }
+
+    pub(super) fn err(&self, node: Node<'_, '_>, field: &str, message: impl Into<String>) -> ReadError {
+        ReadError::new(self.origin, line_of(&self.doc, node), field, message)
+    }
+
+    pub(super) fn alignments(&self) -> Vec<AlignmentNodes<'_, 'a>> {
+        let mut out = Vec::new();
+        let root = self.doc.root_element();
+        for (k, node) in root
+            .children()
+            .filter(|n| is(*n, "Alignments"))
+            .flat_map(|a| a.children())
+            .filter(|n| is(*n, "Alignment"))
+            .enumerate()
+        {
+            let name = node.attribute("name").map_or_else(|| format!("alignment {}", k + 1), str::to_owned);
+            let mut profiles = Vec::new();
+            let mut surfaces = Vec::new();
+            for profile in node.children().filter(|n| is(*n, "Profile")) {
+                let holder = profile.attribute("name").map(str::to_owned);
+                for (j, child) in profile.children().filter(Node::is_element).enumerate() {
+                    let own = || {
+                        child
+                            .attribute("name")
+                            .map_or_else(|| format!("{} {}", child.tag_name().name(), j + 1), str::to_owned)
+                    };
+                    if is(child, "ProfAlign") {
+                        profiles.push((own(), holder.clone(), child));
+                    } else if is(child, "ProfSurf") {
+                        surfaces.push((own(), child));
+                    }
+                }
+            }
+            out.push(AlignmentNodes { name, node, profiles, surfaces });
+        }
+        out
+    }
+
+    /// A finite number in attribute `name` of `node`.
+    pub(super) fn attribute(&self, node: Node<'_, '_>, name: &str) -> Result<f64, ReadError> {
+        let field = format!("{}@{name}", node.tag_name().name());
+        let Some(text) = node.attribute(name) else {
+            return Err(self.err(node, &field, format!("the attribute '{name}' is missing")));
+        };
+        match text.trim().parse::<f64>() {
+            Ok(v) if v.is_finite() => Ok(v),
+            _ => Err(self.err(node, &field, format!("'{}' is not a finite number", excerpt(text)))),
+        }
+    }
+
+    /// A finite, non-negative length in attribute `name`, scaled.
+    pub(super) fn length(&self, node: Node<'_, '_>, name: &str, scale: f64) -> Result<f64, ReadError> {
+        let value = self.attribute(node, name)?;
+        if value < 0.0 {
+            let field = format!("{}@{name}", node.tag_name().name());
+            return Err(self.err(node, &field, format!("length {value} is negative")));
+        }
+        Ok(value * scale)
+    }
+
+    /// The "station elevation" text of a PVI-like element, scaled.
+    pub(super) fn station_elevation(&self, node: Node<'_, '_>, scale: f64) -> Result<(f64, f64), ReadError> {
+        let field = node.tag_name().name();
+        let text = node.text().unwrap_or("");
+        let mut values = Vec::with_capacity(2);
+        for token in text.split_whitespace() {
+            match token.parse::<f64>() {
+                Ok(v) if v.is_finite() => values.push(v * scale),
+                _ => {
+                    return Err(self.err(
+                        node,
+                        field,
+                        format!("'{}' is not a finite number", excerpt(token)),
+                    ));
+                }
+            }
+        }
+        match values.as_slice() {
+            [station, elevation] => Ok((*station, *elevation)),
+            _ => Err(self.err(
+                node,
+                field,
+                format!("{} number(s); a station and an elevation (two numbers) are needed", values.len()),
+            )),
+        }
+    }
+
+    /// The PVIs of a `ProfAlign` element, with their lines.
+    pub(super) fn pvis(
+        &self,
+        prof_align: Node<'_, '_>,
+        name: &str,
+        scale: f64,
+        notes: &mut Vec<Note>,
+    ) -> Result<(Vec<Pvi>, Vec<u64>), ReadError> {
+        let mut pvis = Vec::new();
+        let mut lines = Vec::new();
+        let mut circular = 0;
+        let mut skipped: Vec<String> = Vec::new();
+        for child in prof_align.children().filter(Node::is_element) {
+            let curve = match child.tag_name().name() {
+                "PVI" => VerticalCurve::None,
+                "ParaCurve" => {
+                    let half = self.length(child, "length", scale)? / 2.0;
+                    VerticalCurve::from_lengths(half, half)
+                }
+                "UnsymParaCurve" => VerticalCurve::from_lengths(
+                    self.length(child, "lengthIn", scale)?,
+                    self.length(child, "lengthOut", scale)?,
+                ),
+                "CircCurve" => {
+                    self.attribute(child, "radius")?;
+                    circular += 1;
+                    let half = self.length(child, "length", scale)? / 2.0;
+                    VerticalCurve::from_lengths(half, half)
+                }
+                other => {
+                    if !skipped.iter().any(|s| s == other) {
+                        skipped.push(other.to_owned());
+                    }
+                    continue;
+                }
+            };
+            let (station, elevation) = self.station_elevation(child, scale)?;
+            pvis.push(Pvi { station: Station(station), elevation, curve });
+            lines.push(line_of(&self.doc, child));
+        }
+        if pvis.is_empty() {
+            return Err(self.err(prof_align, "ProfAlign", format!("design profile '{name}' has no PVI")));
+        }
+        if circular > 0 {
+            notes.push(note(self.origin, NoteKind::CircularCurves { count: circular }));
+        }
+        if !skipped.is_empty() {
+            notes.push(note(self.origin, NoteKind::Skipped { profile: name.to_owned(), elements: skipped }));
+        }
+        Ok((pvis, lines))
+    }
+
+    /// The points of a `ProfSurf` element, in station order.
+    pub(super) fn ground(
+        &self,
+        surface: Node<'_, '_>,
+        name: &str,
+        scale: f64,
+        notes: &mut Vec<Note>,
+    ) -> Result<Vec<GroundPoint>, ReadError> {
+        let mut rows = Vec::new();
+        let lists: Vec<_> = surface.children().filter(|n| is(*n, "PntList2D")).collect();
+        for list in &lists {
+            let Some(text_node) = list.children().find(Node::is_text) else {
+                return Err(self.err(*list, "PntList2D", "the point list is empty"));
+            };
+            let text = text_node.text().unwrap_or("");
+            let start = self.doc.text_pos_at(text_node.range().start);
+            let mut pending: Option<(f64, u64)> = None;
+            let mut line = u64::from(start.row);
+            let mut rest = text;
+            while let Some(begin) = rest.find(|c: char| !c.is_whitespace()) {
+                line += rest.get(..begin).map_or(0, |s| s.matches('\n').count()) as u64;
+                let after = rest.get(begin..).unwrap_or("");
+                let end = after.find(char::is_whitespace).unwrap_or(after.len());
+                let token = after.get(..end).unwrap_or("");
+                let value = match token.parse::<f64>() {
+                    Ok(v) if v.is_finite() => v * scale,
+                    _ => {
+                        return Err(ReadError::new(
+                            self.origin,
+                            line,
+                            "PntList2D",
+                            format!("'{}' is not a finite number", excerpt(token)),
+                        ));
+                    }
+                };
+                match pending.take() {
+                    None => pending = Some((value, line)),
+                    Some((station, first_line)) => {
+                        rows.push((GroundPoint { station, elevation: value }, first_line));
+                    }
+                }
+                rest = after.get(end..).unwrap_or("");
+            }
+            if let Some((_, l)) = pending {
+                return Err(ReadError::new(
+                    self.origin,
+                    l,
+                    "PntList2D",
+                    "an odd count of numbers: the last station has no elevation",
+                ));
+            }
+        }
+        if lists.is_empty() {
+            return Err(self.err(surface, "ProfSurf", format!("ground line '{name}' has no PntList2D")));
+        }
+        if lists.len() > 1 {
+            notes.push(note(
+                self.origin,
+                NoteKind::PointListsJoined { surface: name.to_owned(), lists: lists.len() },
+            ));
+        }
+        let table = order_ground(rows, self.origin, "PntList2D")?;
+        notes.extend(table.warnings);
+        Ok(table.points)
+    }
+
+    /// Notes on what an alignment holds that is not read.
+    pub(super) fn alignment_notes(&self, alignment: &AlignmentNodes<'_, '_>, notes: &mut Vec<Note>) {
+        if alignment.node.children().any(|n| is(n, "StaEquation")) {
+            notes.push(note(self.origin, NoteKind::StationEquations { alignment: alignment.name.clone() }));
+        }
+    }
+
+    /// The scale from file values to the target and the units read into.
+    pub(super) fn target(&self, target: Option<(Units, Foot)>, notes: &mut Vec<Note>) -> (Units, Foot, f64) {
+        let file = self.units;
+        let (units, foot) = target.unwrap_or((file.units, file.foot));
+        let factor = length_factor(file.units, file.foot, units, foot);
+        let scale = file.scale * factor;
+        let lengths = match (file.units, file.foot) {
+            (Units::UsCustomary, Foot::UsSurvey) => FileLengths::UsSurveyFeet,
+            (u, _) => FileLengths::of(u),
+        };
+        let linear_unit = file.name.to_owned();
+        let kept = units == file.units && factor.to_bits() == 1.0_f64.to_bits();
+        if kept {
+            notes.push(note(self.origin, NoteKind::Lengths { lengths, linear_unit: linear_unit.clone() }));
+        } else {
+            notes.push(note(
+                self.origin,
+                NoteKind::Converted { from: lengths, linear_unit: linear_unit.clone(), to: units, scale },
+            ));
+        }
+        if file.scale.to_bits() != 1.0_f64.to_bits() && kept {
+            notes.push(note(self.origin, NoteKind::Scaled { linear_unit, to: units, scale: file.scale }));
+        }
+        (units, foot, scale)
+    }
+}
+
+pub(super) fn list<S: AsRef<str>>(names: impl Iterator<Item = S>) -> String {
+    let names: Vec<String> = names.map(|n| format!("'{}'", excerpt(n.as_ref()))).collect();
+    if names.is_empty() { "none".to_owned() } else { names.join(", ") }
+}
+
+pub(super) fn file_units(
+    doc: &Document<'_>,
+    root: Node<'_, '_>,
+    origin: &Path,
+    notes: &mut Vec<Note>,
+) -> Result<FileUnits, ReadError> {
+    let err = |node: Node<'_, '_>, field: &str, message: String| {
+        ReadError::new(origin, line_of(doc, node), field, message)
+    };
+    let Some(units) = root.children().find(|n| is(*n, "Units")) else {
+        return Err(err(root, "Units", "the file has no Units element (LandXML requires one)".to_owned()));
+    };
+    let Some(system) = units.children().find(|n| is(*n, "Metric") || is(*n, "Imperial")) else {
+        return Err(err(units, "Units", "Units has neither Metric nor Imperial".to_owned()));
+    };
+    let kind = system.tag_name().name();
+    let field = format!("{kind}@linearUnit");
+    let Some(linear) = system.attribute("linearUnit") else {
+        return Err(err(system, &field, "the attribute 'linearUnit' is missing".to_owned()));
+    };
+    let Some(&(name, units, foot, scale)) = LINEAR_UNITS.iter().find(|u| u.0 == linear) else {
+        return Err(err(
+            system,
+            &field,
+            format!("'{}' is not a linear unit of LandXML 1.2", excerpt(linear)),
+        ));
+    };
+    let expected = if kind == "Metric" { Units::Metric } else { Units::UsCustomary };
+    if units != expected {
+        return Err(err(system, &field, format!("'{linear}' is not a {kind} unit")));
+    }
+    if let Some(elevation) = system.attribute("elevationUnit") {
+        let agrees = matches!((units, elevation), (Units::Metric, "meter") | (Units::UsCustomary, "feet"));
+        if !agrees {
+            notes.push(note(
+                origin,
+                NoteKind::ElevationUnitUnused { given: excerpt(elevation), linear_unit: linear.to_owned() },
+            ));
+        }
+    }
+    Ok(FileUnits { units, foot, scale, name })
+}
