@@ -31,23 +31,24 @@ fn temp_file(name: &str, text: &str) -> PathBuf {
     path
 }
 
-/// `table --at` on the worked example of J. Mahun, vertical-curve solutions 1,
-/// Prob. 2 (PVI 56+50 at 1325.00 ft, +5.0 % / −3.5 %, L 500 ft): 55+00 at
-/// 1316.650, 57+00 at 1319.850, in the order given.
+/// `table --at` on a worked crest, hand-computed (derived from the parabola
+/// relations in Mannering & Washburn, ch. 3): PVI 32+00 at 842.60 ft,
+/// +3.0 % / −2.0 %, L 400 ft; 33+00 at 839.975 (−0.75 %), 31+00 at 838.975
+/// (+1.75 %), in the order given.
 #[test]
-fn table_at_stations_reproduces_mahun() {
+fn table_at_stations_reproduces_a_worked_crest() {
     let csv = temp_file(
-        "mahun.csv",
-        "station,elevation,curve_length\n50+00,1292.5,\n56+50,1325.00,500\n63+00,1302.25,0\n",
+        "worked-crest.csv",
+        "station,elevation,curve_length\n26+00,824.6,\n32+00,842.60,400\n38+00,830.6,0\n",
     );
     let csv = csv.to_string_lossy().into_owned();
-    let o = run(&["table", &csv, "--units", "us", "--at", "57+00", "--at", "5500", "--decimals", "3"]);
+    let o = run(&["table", &csv, "--units", "us", "--at", "33+00", "--at", "3100", "--decimals", "3"]);
     assert!(o.status.success(), "{}", stderr(&o));
     let text = stdout(&o);
     let lines: Vec<_> = text.lines().collect();
     assert_eq!(lines[0], "station,station_label,elevation,grade_percent");
-    assert_eq!(lines[1], "5700.000,57+00.000,1319.850,-0.100");
-    assert_eq!(lines[2], "5500.000,55+00.000,1316.650,3.300");
+    assert_eq!(lines[1], "3300.000,33+00.000,839.975,-0.750");
+    assert_eq!(lines[2], "3100.000,31+00.000,838.975,1.750");
     assert_eq!(lines.len(), 3);
 }
 

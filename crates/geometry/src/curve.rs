@@ -17,8 +17,7 @@
 //!
 //! Sources: the equal-tangent relations are those of F. L. Mannering and
 //! S. S. Washburn, *Principles of Highway Engineering and Traffic Analysis*,
-//! ch. 3 (vertical curve fundamentals; equation numbers from memory), and of
-//! J. Mahun, *Vertical Curves* (open-access surveying text); the
+//! ch. 3 (vertical curve fundamentals; equation numbers from memory); the
 //! unequal-tangent relations are derived from them (two parabolas meeting
 //! under the PVI with a common tangent). See `docs/sources.md`.
 //!

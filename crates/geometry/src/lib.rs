@@ -21,11 +21,11 @@ mod criteria;
 mod curve;
 mod design;
 mod earthwork;
-mod edit;
 mod finding;
 mod fit;
 mod grades;
 pub mod ground;
+mod limits;
 mod profile;
 pub mod quadratic;
 pub mod sight;
@@ -52,11 +52,11 @@ pub use earthwork::{
     Earthwork, EarthworkError, EarthworkRow, RowKind, Section, SectionField, area_symbol, earthwork,
     earthwork_at, volume_symbol,
 };
-pub use edit::InsertError;
 pub use finding::{Finding, FindingCode, Severity};
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
 pub use ground::{CutFillSummary, Depth, Ground, GroundPoint, cut_fill_summary, depth_at, grade_points};
+pub use limits::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};
 pub use stretch::Stretch;

@@ -5,40 +5,39 @@ use gradewright_geometry::{
     Alignment, CurveKind, FindingCode, Profile, Pvi, Station, Units, VerticalCurve, format_station,
 };
 
-/// J. Mahun, *Vertical Curves* (open-access surveying text), solutions 1, Problem 2: PVI 56+50.00 at
-/// 1325.00 ft, grades +5.0 % / −3.5 %, L = 500 ft. Printed stations, elevations
-/// and grades.
+/// A worked crest, hand-computed (derived from the parabola relations in
+/// Mannering & Washburn, ch. 3): PVI 32+00.00 at 842.60 ft, grades +3.0 % /
+/// −2.0 %, L = 400 ft. PVC 30+00 at 842.60 − 0.03·200 = 836.600, PVT 34+00 at
+/// 842.60 − 0.02·200 = 838.600; y = 836.60 + 0.03x − 0.05x²/800 and
+/// g = 3.0 − 5.0·x/400 % at x ft from the PVC.
 #[test]
-fn mahun_problem_2_station_elevations_and_grades() {
-    let a = alignment(
-        Units::UsCustomary,
-        &[(5000.0, 1292.5, 0.0), (5650.0, 1325.0, 500.0), (6300.0, 1302.25, 0.0)],
-    );
+fn a_worked_crest_station_elevations_and_grades() {
+    let a =
+        alignment(Units::UsCustomary, &[(2600.0, 824.6, 0.0), (3200.0, 842.6, 400.0), (3800.0, 830.6, 0.0)]);
     let curve = a.curves()[0];
-    // Mahun Prob. 2: BVC 54+00 at 1312.500, EVC 59+00 at 1316.250.
-    assert_eq!(format_station(curve.pvc.0, Units::UsCustomary, 2), "54+00.00");
-    assert_close(curve.pvc_elevation, 1312.5, 1e-9, "BVC elevation (Mahun Prob. 2)");
-    assert_eq!(format_station(curve.pvt.0, Units::UsCustomary, 2), "59+00.00");
-    assert_close(curve.pvt_elevation, 1316.25, 1e-9, "EVC elevation (Mahun Prob. 2)");
-    // Mahun Prob. 2 table: station, elevation (3 decimals), grade (1 decimal).
+    assert_eq!(format_station(curve.pvc.0, Units::UsCustomary, 2), "30+00.00");
+    assert_close(curve.pvc_elevation, 836.6, 1e-9, "PVC elevation (derived)");
+    assert_eq!(format_station(curve.pvt.0, Units::UsCustomary, 2), "34+00.00");
+    assert_close(curve.pvt_elevation, 838.6, 1e-9, "PVT elevation (derived)");
+    // x = 100, 200, 300 ft: 836.60 + 3 − 0.625, + 6 − 2.5, + 9 − 5.625.
     for (station, elevation, grade) in
-        [(5500.0, 1316.650, 3.3), (5600.0, 1319.100, 1.6), (5700.0, 1319.850, -0.1), (5800.0, 1318.900, -1.8)]
+        [(3100.0, 838.975, 1.75), (3200.0, 840.1, 0.5), (3300.0, 839.975, -0.75)]
     {
         let s = a.sample(Station(station)).unwrap_or_else(|e| panic!("{e}"));
-        assert_close(s.elevation, elevation, 5e-4, "elevation (Mahun Prob. 2)");
-        assert_close(s.grade_percent, grade, 0.05, "grade (Mahun Prob. 2)");
+        assert_close(s.elevation, elevation, 1e-9, "elevation (derived)");
+        assert_close(s.grade_percent, grade, 1e-9, "grade (derived)");
     }
-    // High point, derived from the formula in Mahun: x = g1·L/(g1 − g2) = 294.12 ft
-    // → 56+94.12 at 1319.853.
+    // High point, derived from x = g1·L/(g1 − g2) = 3·400/5 = 240 ft: 32+40.00
+    // at 836.60 + 7.2 − 3.6 = 840.200.
     let (station, elevation) = curve.turning.unwrap_or_else(|| panic!("no high point"));
-    assert_close(station.0, 5694.12, 0.005, "high point station (derived from Mahun)");
-    assert_close(elevation, 1319.853, 5e-4, "high point elevation (derived from Mahun)");
+    assert_close(station.0, 3240.0, 1e-9, "high point station (derived)");
+    assert_close(elevation, 840.2, 1e-9, "high point elevation (derived)");
     assert_eq!(curve.kind, CurveKind::Crest);
 }
 
 /// Elevation y = y_PVC + g1·x/100 + (g2 − g1)·x²/(200L) and grade
-/// g = g1 + (g2 − g1)·x/L at every metre (Mahun, *Vertical Curves*; Mannering &
-/// Washburn ch. 3; grade derived by differentiating).
+/// g = g1 + (g2 − g1)·x/L at every metre (Mannering & Washburn ch. 3; grade
+/// derived by differentiating).
 #[test]
 fn closed_form_elevation_and_grade_metric() {
     let (g1, g2, l) = (-2.2, 3.4, 180.0);
@@ -46,14 +45,14 @@ fn closed_form_elevation_and_grade_metric() {
     let c = a.curves()[0];
     assert_close(c.grade_in_percent, g1, 1e-12, "g1");
     assert_close(c.grade_out_percent, g2, 1e-12, "g2");
-    // PVC/PVT (Mahun): elev_PVC = elev_PVI − g1·L/200, elev_PVT = elev_PVI + g2·L/200.
+    // PVC/PVT (Mannering & Washburn ch. 3): elev_PVC = elev_PVI − g1·L/200, elev_PVT = elev_PVI + g2·L/200.
     assert_close(c.pvc_elevation, 96.7 - g1 * l / 200.0, 1e-9, "PVC elevation");
     assert_close(c.pvt_elevation, 96.7 + g2 * l / 200.0, 1e-9, "PVT elevation");
     for step in 0..=180 {
         let x = f64::from(step);
         let s = a.sample(c.pvc + x).unwrap_or_else(|e| panic!("{e}"));
         let y = c.pvc_elevation + g1 * x / 100.0 + (g2 - g1) * x * x / (200.0 * l);
-        assert_close(s.elevation, y, 1e-9, "elevation (Mahun)");
+        assert_close(s.elevation, y, 1e-9, "elevation (Mannering & Washburn ch. 3)");
         assert_close(s.grade_percent, g1 + (g2 - g1) * x / l, 1e-9, "grade (derived)");
     }
     // r = (g2 − g1)/L, K = L/A, E = A·L/800, offset Y = A·x²/(200L) (Mannering &
@@ -80,7 +79,7 @@ fn closed_form_elevation_and_grade_metric() {
 #[test]
 fn unequal_tangent_branches() {
     let pvis = vec![
-        Pvi::new(5650.0, 1325.0),
+        Pvi::new(5700.0, 1323.25),
         Pvi {
             station: Station(6300.0),
             elevation: 1302.25,

@@ -115,26 +115,26 @@ fn a_round_trip_gives_back_the_profile_and_the_ground() {
     }
 }
 
-/// A hand-written file in US survey feet: J. Mahun, *Vertical Curves*
-/// (open-access surveying text), solutions 1, Problem 2 — PVI 56+50.00 at
-/// 1325.00 ft, +5.0 % / −3.5 %, L = 500 ft — then an unequal-tangent curve of
-/// our own (lengthIn 200, lengthOut 300, to +2.0 %), evaluated against the
-/// printed elevations and the unequal-tangent relations (derived from the
-/// equal-tangent ones, Mannering & Washburn ch. 3).
+/// A hand-written file in US survey feet: a crest at PVI 32+00.00, 842.60 ft,
+/// +3.0 % / −2.0 %, L = 400 ft (the worked crest of `curve_relations`), then
+/// an unequal-tangent sag of our own (lengthIn 200, lengthOut 300, to
+/// +2.0 %), evaluated against hand-computed elevations and the
+/// unequal-tangent relations (both derived from the parabola relations in
+/// Mannering & Washburn ch. 3).
 #[test]
 fn a_hand_written_file_reads_as_the_published_curves() {
     let text = r#"<?xml version="1.0" encoding="UTF-8"?>
 <LandXML xmlns="http://www.landxml.org/schema/LandXML-1.2" version="1.2" date="2026-12-03" time="09:00:00">
   <Units><Imperial linearUnit="USSurveyFoot" areaUnit="squareFoot" volumeUnit="cubicYard" temperatureUnit="fahrenheit" pressureUnit="inHG"/></Units>
   <Alignments>
-    <Alignment name="Worked example" staStart="5000" length="1900">
-      <CoordGeom><Line><Start>0 0</Start><End>1900 0</End></Line></CoordGeom>
+    <Alignment name="Worked example" staStart="2600" length="1800">
+      <CoordGeom><Line><Start>0 0</Start><End>1800 0</End></Line></CoordGeom>
       <Profile name="Profiles">
         <ProfAlign name="Finished grade">
-          <PVI>5000.0 1292.50</PVI>
-          <ParaCurve length="500.0">5650.0 1325.00</ParaCurve>
-          <UnsymParaCurve lengthIn="200.0" lengthOut="300.0">6300.0 1302.25</UnsymParaCurve>
-          <PVI>6900.0 1314.25</PVI>
+          <PVI>2600.0 824.60</PVI>
+          <ParaCurve length="400.0">3200.0 842.60</ParaCurve>
+          <UnsymParaCurve lengthIn="200.0" lengthOut="300.0">3800.0 830.60</UnsymParaCurve>
+          <PVI>4400.0 842.60</PVI>
           <Feature name="note"/>
         </ProfAlign>
       </Profile>
@@ -152,28 +152,23 @@ fn a_hand_written_file_reads_as_the_published_curves() {
         read.notes
     );
     let a = Alignment::new(&Profile::new(read.units, read.pvis)).unwrap_or_else(|e| panic!("{e:?}"));
-    // Mahun Prob. 2 printed table (3 decimals): BVC 54+00 1312.500 … EVC 59+00 1316.250.
-    for (station, elevation) in [
-        (5400.0, 1312.5),
-        (5500.0, 1316.650),
-        (5600.0, 1319.100),
-        (5700.0, 1319.850),
-        (5800.0, 1318.900),
-        (5900.0, 1316.25),
-    ] {
+    // The crest, hand-computed: PVC 30+00 836.600 … PVT 34+00 838.600.
+    for (station, elevation) in
+        [(3000.0, 836.6), (3100.0, 838.975), (3200.0, 840.1), (3300.0, 839.975), (3400.0, 838.6)]
+    {
         let s = a.sample(Station(station)).unwrap_or_else(|e| panic!("{e}"));
-        assert_close(s.elevation, elevation, 5e-4, "elevation (Mahun Prob. 2)");
+        assert_close(s.elevation, elevation, 1e-9, "elevation (derived)");
     }
     // Unequal tangents: e = l1·l2·(g2 − g1)/(2L) at the PVI (derived).
-    let (g1, g2, l1, l2) = (-0.035, 0.02, 200.0, 300.0);
+    let (g1, g2, l1, l2) = (-0.02, 0.02, 200.0, 300.0);
     let e = l1 * l2 * (g2 - g1) / (2.0 * (l1 + l2));
-    let at_pvi = a.sample(Station(6300.0)).unwrap_or_else(|e| panic!("{e}"));
-    assert_close(at_pvi.elevation, 1302.25 + e, 1e-9, "elevation at the PVI (derived)");
+    let at_pvi = a.sample(Station(3800.0)).unwrap_or_else(|e| panic!("{e}"));
+    assert_close(at_pvi.elevation, 830.6 + e, 1e-9, "elevation at the PVI (derived)");
     let x = 120.0;
-    let s = a.sample(Station(6100.0 + x)).unwrap_or_else(|e| panic!("{e}"));
+    let s = a.sample(Station(3600.0 + x)).unwrap_or_else(|e| panic!("{e}"));
     assert_close(
         s.elevation,
-        1302.25 - g1 * l1 + g1 * x + e * (x / l1).powi(2),
+        830.6 - g1 * l1 + g1 * x + e * (x / l1).powi(2),
         1e-9,
         "first branch (derived)",
     );
