@@ -6,19 +6,15 @@ use anyhow::bail;
 use gradewright_geometry::{Alignment, Analysis};
 
 use super::args::{CheckArgs, Format};
-use super::{Run, check_speed, override_step, print, refuse_unchecked_sight, report, resolve};
+use super::{Run, print, refuse_unchecked_sight, report};
 
 /// Runs `check`.
 ///
 /// # Errors
 /// Bad input or options (a profile that cannot be evaluated at all included).
 pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
-    let speed = args.checking.speed.design_speed;
-    check_speed(speed)?;
     let input = &args.source.input;
-    let mut loaded = run.load(&args.source)?;
-    override_step(&mut loaded, args.checking.step)?;
-    let criteria = resolve(&mut loaded.project, speed, input)?;
+    let (loaded, criteria) = run.load_checked(&args.source, &args.checking)?;
     // Input that cannot be evaluated at all is bad input (exit 2), as for
     // every other command; curves that overlap or do not fit are design
     // failures and are listed as findings.

@@ -6,8 +6,7 @@ use gradewright_geometry::Analysis;
 
 use super::args::FitArgs;
 use super::{
-    Run, build, check_output, check_speed, override_step, positive, print, refuse_unchecked_sight, resolve,
-    write_like_input,
+    Run, build, check_output, check_speed, positive, print, refuse_unchecked_sight, write_like_input,
 };
 
 /// Runs `fit`.
@@ -15,16 +14,13 @@ use super::{
 /// # Errors
 /// Bad input or options, or an output that cannot be written.
 pub fn run(run: &mut Run, args: &FitArgs) -> anyhow::Result<ExitCode> {
-    let speed = args.checking.speed.design_speed;
-    check_speed(speed)?;
+    check_speed(args.checking.speed.design_speed)?;
     if let Some(v) = args.increment {
         positive("--increment", "the length increment", v)?;
     }
     check_output(&args.output)?;
     let input = &args.source.input;
-    let mut loaded = run.load(&args.source)?;
-    override_step(&mut loaded, args.checking.step)?;
-    let criteria = resolve(&mut loaded.project, speed, input)?;
+    let (loaded, criteria) = run.load_checked(&args.source, &args.checking)?;
     let alignment = build(&loaded)?;
     refuse_unchecked_sight(&alignment, &criteria, input)?;
     let project = &loaded.project;

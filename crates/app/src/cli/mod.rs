@@ -17,7 +17,7 @@ use std::io::Write as _;
 use std::path::Path;
 use std::process::ExitCode;
 
-pub use args::{Cli, Command, Format, Source, UnitsArg};
+pub use args::{Checking, Cli, Command, Format, Source, UnitsArg};
 
 use anyhow::{Context as _, anyhow, bail};
 use clap::Parser as _;
@@ -107,6 +107,24 @@ impl Run {
         }
         self.notes.extend(loaded.notes.iter().map(ToString::to_string));
         Ok(loaded)
+    }
+
+    /// Loads the input for a check: `--design-speed` and `--step` checked
+    /// first and set over the project's, the criteria resolved.
+    ///
+    /// # Errors
+    /// As [`Run::load`], and an unusable speed, step or criteria.
+    pub fn load_checked(
+        &mut self,
+        source: &Source,
+        checking: &Checking,
+    ) -> anyhow::Result<(Input, ResolvedCriteria)> {
+        let speed = checking.speed.design_speed;
+        check_speed(speed)?;
+        let mut loaded = self.load(source)?;
+        override_step(&mut loaded, checking.step)?;
+        let criteria = resolve(&mut loaded.project, speed, &source.input)?;
+        Ok((loaded, criteria))
     }
 }
 

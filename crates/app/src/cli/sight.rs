@@ -7,19 +7,15 @@ use anyhow::{anyhow, bail};
 use gradewright_geometry::Streamed;
 
 use super::args::SightArgs;
-use super::{Run, Spill, check_speed, override_step, resolve, take_profile};
+use super::{Run, Spill, take_profile};
 
 /// Runs `sight`.
 ///
 /// # Errors
 /// Bad input or options, or a table that cannot be written.
 pub fn run(run: &mut Run, args: &SightArgs) -> anyhow::Result<ExitCode> {
-    let speed = args.checking.speed.design_speed;
-    check_speed(speed)?;
     let input = &args.source.input;
-    let mut loaded = run.load(&args.source)?;
-    override_step(&mut loaded, args.checking.step)?;
-    let criteria = resolve(&mut loaded.project, speed, input)?;
+    let (mut loaded, criteria) = run.load_checked(&args.source, &args.checking)?;
     let profile = take_profile(&mut loaded)?;
     // One stretch of PVIs at a time, straight to the output: memory stays
     // flat however long the profile is.

@@ -183,11 +183,9 @@ fn export_tables_writes_only_the_tables() {
 /// offered in a chooser, and the one clicked opens.
 #[test]
 fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
-    let text = r#"<?xml version="1.0" encoding="UTF-8"?>
-<LandXML xmlns="http://www.landxml.org/schema/LandXML-1.2" version="1.2" date="2026-12-03" time="09:00:00">
-  <Units><Imperial linearUnit="USSurveyFoot" areaUnit="squareFoot" volumeUnit="cubicYard" temperatureUnit="fahrenheit" pressureUnit="inHG"/></Units>
-  <Alignments>
-    <Alignment name="Heron Creek Road" staStart="1000" length="2400">
+    let text = landxml(
+        true,
+        r#"    <Alignment name="Heron Creek Road" staStart="1000" length="2400">
       <Profile>
         <ProfSurf name="Survey 2026"><PntList2D>1000 498.2 1800 507.9 2600 503.1 3400 511.6</PntList2D></ProfSurf>
         <ProfAlign name="Finished grade">
@@ -198,10 +196,9 @@ fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
         </ProfAlign>
       </Profile>
     </Alignment>
-  </Alignments>
-</LandXML>
-"#;
-    let file = site_file("heron-creek.xml", text);
+"#,
+    );
+    let file = site_file("heron-creek.xml", &text);
     let mut h = demo();
     h.state_mut().push(Action::Open(Some(file.clone())));
     h.run();

@@ -107,3 +107,17 @@ fn site_file(name: &str, text: &str) -> std::path::PathBuf {
     std::fs::write(&path, text).unwrap_or_else(|e| panic!("{e}"));
     path
 }
+
+/// A LandXML 1.2 file of `alignments` (the `Alignment` elements) in US
+/// survey feet (`imperial`) or metres.
+fn landxml(imperial: bool, alignments: &str) -> String {
+    let units = if imperial {
+        r#"<Imperial linearUnit="USSurveyFoot" areaUnit="squareFoot" volumeUnit="cubicYard" temperatureUnit="fahrenheit" pressureUnit="inHG"/>"#
+    } else {
+        r#"<Metric linearUnit="meter" areaUnit="squareMeter" volumeUnit="cubicMeter" temperatureUnit="celsius" pressureUnit="milliBars"/>"#
+    };
+    format!(
+        "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<LandXML xmlns=\"http://www.landxml.org/schema/LandXML-1.2\" \
+         version=\"1.2\" date=\"2026-12-03\" time=\"09:00:00\">\n  <Units>{units}</Units>\n  <Alignments>\n{alignments}  </Alignments>\n</LandXML>\n"
+    )
+}

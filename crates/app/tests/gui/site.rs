@@ -107,21 +107,18 @@ fn control_table_and_earthwork_totals_are_live() {
 /// imported until one is clicked, and the one clicked is.
 #[test]
 fn importing_ground_from_a_file_with_two_ground_lines_offers_a_chooser() {
-    let text = r#"<?xml version="1.0" encoding="UTF-8"?>
-<LandXML xmlns="http://www.landxml.org/schema/LandXML-1.2" version="1.2" date="2026-12-04" time="09:00:00">
-  <Units><Metric linearUnit="meter" areaUnit="squareMeter" volumeUnit="cubicMeter" temperatureUnit="celsius" pressureUnit="milliBars"/></Units>
-  <Alignments>
-    <Alignment name="Alder Brook Road" staStart="0" length="2000">
+    let text = landxml(
+        false,
+        r#"    <Alignment name="Alder Brook Road" staStart="0" length="2000">
       <Profile>
         <ProfSurf name="Survey 2025"><PntList2D>0 212.0 1000 220.0 2000 222.0</PntList2D></ProfSurf>
         <ProfSurf name="Survey 2026"><PntList2D>0 212.5 500 216.0 1000 221.0 2000 223.0</PntList2D></ProfSurf>
         <ProfAlign name="Design"><PVI>0 212.4</PVI><PVI>2000 222.9</PVI></ProfAlign>
       </Profile>
     </Alignment>
-  </Alignments>
-</LandXML>
-"#;
-    let file = site_file("two-surveys.xml", text);
+"#,
+    );
+    let file = site_file("two-surveys.xml", &text);
     let mut h = demo();
     let before = h.state().project().clone();
     h.state_mut().push(Action::ImportGround(Some(file)));

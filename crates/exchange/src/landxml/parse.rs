@@ -110,6 +110,19 @@ impl<'a> Parsed<'a> {
         ReadError::new(self.origin, line_of(&self.doc, node), field, message)
     }
 
+    /// There is no alignment called `name`: the error lists those there are.
+    pub(super) fn no_alignment(&self, name: &str, alignments: &[AlignmentNodes<'_, '_>]) -> ReadError {
+        self.err(
+            self.doc.root_element(),
+            "Alignment",
+            format!(
+                "no alignment named '{}'; the file has: {}",
+                excerpt(name),
+                list(alignments.iter().map(|a| a.name.as_str()))
+            ),
+        )
+    }
+
     pub(super) fn alignments(&self) -> Vec<AlignmentNodes<'_, 'a>> {
         let mut out = Vec::new();
         let root = self.doc.root_element();

@@ -21,15 +21,7 @@ impl<'a> Parsed<'a> {
             Some(name) => {
                 let found: Vec<_> = alignments.iter().filter(|a| &a.name == name).collect();
                 if found.is_empty() {
-                    return Err(self.err(
-                        root,
-                        "Alignment",
-                        format!(
-                            "no alignment named '{}'; the file has: {}",
-                            excerpt(name),
-                            list(alignments.iter().map(|a| a.name.as_str()))
-                        ),
-                    ));
+                    return Err(self.no_alignment(name, alignments));
                 }
                 found
             }

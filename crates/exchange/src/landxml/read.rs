@@ -3,7 +3,7 @@
 use std::io::Read;
 use std::path::Path;
 
-use gradewright_geometry::{Foot, GroundPoint, Pvi, Units, excerpt};
+use gradewright_geometry::{Foot, GroundPoint, Pvi, Units};
 
 use super::parse::{AlignmentNodes, Parsed, list, note};
 use crate::ReadError;
@@ -183,15 +183,7 @@ pub fn read_landxml_ground(
     let alignment = match (with_ground.as_slice(), &selection.alignment) {
         ([one], _) => *one,
         ([], Some(name)) if !alignments.iter().any(|a| &a.name == name) => {
-            return Err(parsed.err(
-                root,
-                "Alignment",
-                format!(
-                    "no alignment named '{}'; the file has: {}",
-                    excerpt(name),
-                    list(alignments.iter().map(|a| a.name.as_str()))
-                ),
-            ));
+            return Err(parsed.no_alignment(name, &alignments));
         }
         ([], _) => {
             return Err(parsed.err(
