@@ -20,6 +20,28 @@ const GRAB_RADIUS: f32 = 12.0;
 /// The id group that links the station axes of the plot and its strips.
 pub const STATION_AXIS: &str = "station-axis";
 
+/// A strip under the profile, `height` points tall with at least `least`:
+/// it shares the profile's station axis and pans and zooms along it only,
+/// from 0 up, its values labelled `y_label`.
+pub fn strip(
+    id: &str,
+    height: f32,
+    least: f32,
+    units: gradewright_geometry::Units,
+    y_label: String,
+) -> Plot<'static> {
+    Plot::new(id)
+        .height(height.max(least))
+        .link_axis(egui::Id::unique(STATION_AXIS), [true, false])
+        .allow_drag([true, false])
+        .allow_zoom([true, false])
+        .allow_scroll([true, false])
+        .include_y(0.0)
+        .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
+        .y_axis_label(y_label)
+        .legend(Legend::default().position(egui_plot::Corner::RightTop))
+}
+
 /// What the plot should show on the next frame.
 #[derive(Clone, Copy, Debug, PartialEq)]
 enum ViewRequest {

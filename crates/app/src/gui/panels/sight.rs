@@ -3,11 +3,11 @@
 //! shares the profile's station axis.
 
 use egui::{Color32, RichText};
-use egui_plot::{Legend, Line, LineStyle, Plot, PlotPoints, Polygon};
+use egui_plot::{Line, LineStyle, PlotPoints, Polygon};
 use gradewright_geometry::format_station;
 use gradewright_geometry::visibility::SightSample;
 
-use super::plot::STATION_AXIS;
+use super::plot::strip;
 use crate::gui::document::Document;
 use crate::gui::theme::Palette;
 
@@ -95,17 +95,8 @@ impl SightStrip {
             .collect();
         let lookup = sight.clone();
         let decimals = units.station_decimals();
-        Plot::new("sight-strip")
-            .height(ui.available_height().max(80.0))
-            .link_axis(egui::Id::unique(STATION_AXIS), [true, false])
-            .allow_drag([true, false])
-            .allow_zoom([true, false])
-            .allow_scroll([true, false])
-            .include_y(0.0)
+        strip("sight-strip", ui.available_height(), 80.0, units, format!("Sight distance ({len})"))
             .include_y(top * 1.05)
-            .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
-            .y_axis_label(format!("Sight distance ({len})"))
-            .legend(Legend::default().position(egui_plot::Corner::RightTop))
             .label_formatter(move |hover| {
                 let x = match hover {
                     egui_plot::HoverPosition::NearDataPoint { position, .. }

@@ -3,7 +3,7 @@
 //! are the plot's, [`super::plot_scene`]).
 
 use egui::RichText;
-use egui_plot::{Legend, Line, LineStyle, Plot, PlotPoints};
+use egui_plot::{Line, LineStyle, PlotPoints};
 use gradewright_draw::Shape;
 use gradewright_geometry::{
     ControlKind, ControlPoint, ControlStatus, Section, SectionField, area_symbol, format_station,
@@ -11,7 +11,7 @@ use gradewright_geometry::{
 };
 
 use super::View;
-use super::plot::STATION_AXIS;
+use super::plot::strip;
 use super::plot_scene::symbol;
 use crate::gui::cell::{Cells, parse_length, parse_number};
 use crate::gui::command::{Action, Edit};
@@ -401,16 +401,7 @@ pub fn mass_strip_ui(ui: &mut egui::Ui, doc: &Document) {
     );
     let lookup = points.clone();
     let decimals = units.station_decimals();
-    Plot::new("mass-strip")
-        .height(ui.available_height().max(70.0))
-        .link_axis(egui::Id::unique(STATION_AXIS), [true, false])
-        .allow_drag([true, false])
-        .allow_zoom([true, false])
-        .allow_scroll([true, false])
-        .include_y(0.0)
-        .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
-        .y_axis_label(format!("Mass ({vol})"))
-        .legend(Legend::default().position(egui_plot::Corner::RightTop))
+    strip("mass-strip", ui.available_height(), 70.0, units, format!("Mass ({vol})"))
         .label_formatter(move |hover| {
             let x = match hover {
                 egui_plot::HoverPosition::NearDataPoint { position, .. }
