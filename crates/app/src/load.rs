@@ -21,8 +21,9 @@ pub struct Input {
     pub project: Project,
     /// File line of each PVI, when known (CSV and LandXML input).
     pub pvi_lines: Option<Vec<u64>>,
-    /// Line and column of each PVI in a project file.
-    pub pvi_positions: Vec<(usize, usize)>,
+    /// The text of a project file, kept to name where a problem is (found
+    /// only when one is reported).
+    pub text: Option<std::sync::Arc<str>>,
     /// What the reader wants the user to know (LandXML: the units read or
     /// converted, elements skipped).
     pub notes: Vec<Note>,
@@ -47,8 +48,10 @@ impl Input {
     pub fn locate(&self, problem: &ProfileProblem) -> String {
         let index = problem.pvi_index();
         let line = index.and_then(|i| self.pvi_lines.as_ref().and_then(|lines| lines.get(i)));
-        let position = index.and_then(|i| self.pvi_positions.get(i));
-        match (line, position) {
+        let position = index
+            .zip(self.text.as_deref())
+            .and_then(|(i, text)| gradewright_document::pvi_position(text, i));
+        match (line, position.as_ref()) {
             (Some(line), _) => format!("{}:{line}: {}", self.path.display(), problem.field()),
             (None, Some((line, column))) => {
                 format!(
@@ -154,7 +157,7 @@ pub fn load_input(path: &Path, units: Option<Units>, selection: &Selection) -> R
                 path: path.to_owned(),
                 project,
                 pvi_lines: Some(table.lines),
-                pvi_positions: Vec::new(),
+                text: None,
                 notes: Vec::new(),
                 picked: None,
             })
@@ -166,7 +169,7 @@ pub fn load_input(path: &Path, units: Option<Units>, selection: &Selection) -> R
                 path: path.to_owned(),
                 project: read.project(),
                 pvi_lines: Some(read.lines),
-                pvi_positions: Vec::new(),
+                text: None,
                 notes: read.notes,
                 picked: Some(Picked {
                     alignment: read.alignment,
@@ -191,12 +194,11 @@ pub fn load_input(path: &Path, units: Option<Units>, selection: &Selection) -> R
                     project: project.units,
                 });
             }
-            let pvi_positions = gradewright_document::pvi_positions(&text);
             Ok(Input {
                 path: path.to_owned(),
                 project,
                 pvi_lines: None,
-                pvi_positions,
+                text: Some(text.into()),
                 notes: Vec::new(),
                 picked: None,
             })

@@ -10,6 +10,6 @@ mod settings;
 mod write;
 
 pub use error::{FileError, LooksLike, Unwritable};
-pub use project::{FORMAT_VERSION, Project, pvi_positions};
+pub use project::{FORMAT_VERSION, Project, pvi_position};
 pub use settings::{ExportSettings, Snap};
 pub use write::write_atomic;

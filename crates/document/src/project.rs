@@ -195,23 +195,27 @@ fn looks_like(text: &str) -> Option<LooksLike> {
     }
 }
 
-/// The 1-based line and column of the `station` key of every PVI in project
-/// text, in order (for naming where a PVI's problem is).
-pub fn pvi_positions(text: &str) -> Vec<(usize, usize)> {
+/// The 1-based line and column of the `station` key of PVI `index` (0-based)
+/// in project text, for naming where a PVI's problem is: found when a
+/// problem is reported, in one pass over the text up to it.
+pub fn pvi_position(text: &str, index: usize) -> Option<(usize, usize)> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
-    let Some(start) = text.find("pvis") else { return Vec::new() };
-    let mut positions = Vec::new();
+    let start = text.find("pvis")?;
     let mut rest = start;
+    let mut seen = 0;
     while let Some(found) = text.get(rest..).and_then(|t| t.find("station")) {
         let at = rest + found;
         let after = text.get(at + "station".len()..).unwrap_or("");
         let before = text.get(..at).and_then(|b| b.chars().next_back());
         if after.trim_start().starts_with(':') && !before.is_some_and(|c| c.is_alphanumeric() || c == '_') {
-            positions.push(line_column(text, at));
+            if seen == index {
+                return Some(line_column(text, at));
+            }
+            seen += 1;
         }
         rest = at + "station".len();
     }
-    positions
+    None
 }
 
 /// The 1-based line and column of byte offset `at` in `text`.

@@ -33,8 +33,9 @@ const US_TABLE: [(f64, f64, f64, f64); 14] = [
     (80.0, 910.0, 384.0, 231.0),
 ];
 
-/// The same tables, metric edition (from memory; K 20–120 km/h match a public
-/// transcription attributed to NYSDOT HDM Ch. 2 and INDOT DM Ch. 43–44).
+/// The same tables, metric edition: AASHTO, *A Policy on Geometric Design of
+/// Highways and Streets* (2018), Tables 3-1, 3-34 and 3-36, metric columns
+/// (from memory: not read in the published edition).
 const METRIC_TABLE: [(f64, f64, f64, f64); 12] = [
     (20.0, 20.0, 1.0, 3.0),
     (30.0, 35.0, 2.0, 6.0),
