@@ -437,3 +437,22 @@ fn check_and_fit_take_the_sight_step() {
     let fitted = run(&["fit", &project, "--step", "2", "-o", &out]);
     assert!(matches!(fitted.status.code(), Some(0 | 1)), "{}", stderr(&fitted));
 }
+
+/// Two curves that exactly touch (PVT 130.4 = PVC 130.4 but for round-off:
+/// 100.3 + 30.1 and 170.6 − 40.2) are no overlap, and the profile is
+/// evaluated at the point where they meet (common practice: curves may
+/// abut).
+#[test]
+fn curves_that_exactly_touch_are_no_overlap() {
+    let csv = temp_file(
+        "touching.csv",
+        "station,elevation,curve_length\n0,100,0\n100.3,103,60.2\n170.6,100.5,80.4\n300,104,0\n",
+    );
+    let csv = csv.to_string_lossy().into_owned();
+    let o = run(&["check", &csv, "--units", "metric", "--design-speed", "50"]);
+    let text = stdout(&o);
+    assert!(!text.contains("curve.overlap") && !text.contains("exceeds-tangent"), "{text}");
+    let o = run(&["table", &csv, "--units", "metric", "--at", "130", "--at", "130.4"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    assert_eq!(stdout(&o).lines().count(), 3, "{}", stdout(&o));
+}

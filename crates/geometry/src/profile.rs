@@ -3,6 +3,7 @@
 
 use serde::{Deserialize, Serialize};
 
+use crate::tolerance::past;
 use crate::{FindingCode, Station, Units};
 
 /// The vertical curve at a PVI.
@@ -413,7 +414,10 @@ impl Profile {
             };
             let back = pvi.station - prev.station;
             let ahead = next.station - pvi.station;
-            if pvi.curve.length_in() > back {
+            // A curve may reach its neighbour's station (to round-off): only
+            // a PVC before it, or a PVT past it, by more than the station
+            // hair does not fit.
+            if past(prev.station.0, pvi.pvc()) {
                 problems.push(ProfileProblem::CurveExceedsTangent {
                     index,
                     side: "back",
@@ -421,7 +425,7 @@ impl Profile {
                     available: back,
                 });
             }
-            if pvi.curve.length_out() > ahead {
+            if past(pvi.pvt(), next.station.0) {
                 problems.push(ProfileProblem::CurveExceedsTangent {
                     index,
                     side: "ahead",
@@ -434,8 +438,9 @@ impl Profile {
             let [a, b] = pair else { continue };
             let (pvt, pvc) = (a.pvt(), b.pvc());
             // Only report an overlap between two real curves; a single curve that is
-            // too long for its tangent was reported above.
-            if pvt > pvc && a.curve.is_curve() && b.curve.is_curve() {
+            // too long for its tangent was reported above. Curves that touch
+            // (to round-off) do not overlap.
+            if past(pvt, pvc) && a.curve.is_curve() && b.curve.is_curve() {
                 problems.push(ProfileProblem::Overlap { index, pvt, pvc, overlap: pvt - pvc });
             }
         }

@@ -102,6 +102,13 @@ pub fn same_station(a: f64, b: f64) -> bool {
     (a - b).abs() <= STATION_HAIR
 }
 
+/// Whether station `a` lies past station `b` by more than [`STATION_HAIR`]:
+/// curves that touch, or fill their tangent, to round-off are not past each
+/// other.
+pub fn past(a: f64, b: f64) -> bool {
+    a > b + STATION_HAIR
+}
+
 /// The station hair at `magnitude`: [`STATION_HAIR`] relative to it, and
 /// never less than [`STATION_HAIR`] itself.
 pub fn station_hair(magnitude: f64) -> f64 {
@@ -157,6 +164,8 @@ mod tests {
         assert!((station_hair(0.2) - STATION_HAIR).abs() < 1e-18);
         assert!((station_hair(-2000.0) - 2000.0 * STATION_HAIR).abs() < 1e-15);
         assert!(settled(100.0 + 1e-8, 100.0) && !settled(100.001, 100.0));
+        // PVT 130.4 and PVC 130.39999999999998 touch; a micrometre more overlaps.
+        assert!(!past(130.4, 130.399_999_999_999_98) && past(130.4 + 2e-6, 130.4));
         assert!(run_end(100.0, 20.0) > 100.0 && run_end(100.0, 20.0) < 100.0 + 1e-7);
     }
 

@@ -32,8 +32,70 @@ fn profiles() -> impl Strategy<Value = Profile> {
         })
 }
 
+/// Random profiles whose curves leave no tangent at all: every tangent is
+/// shared between the curve at each end, split at a random fraction, so the
+/// curves touch (their PVT and PVC equal but for round-off), unequal-tangent
+/// unless the split is even; the first and last curves fill their outer
+/// tangents to the end PVI. Stations with decimals, so the round-off is real.
+fn touching_profiles() -> impl Strategy<Value = Profile> {
+    (3usize..10)
+        .prop_flat_map(|n| {
+            (
+                proptest::collection::vec(40.0f64..400.0, n - 1),
+                proptest::collection::vec(-7.0f64..7.0, n - 1),
+                proptest::collection::vec(0.15f64..0.85, n - 1),
+            )
+        })
+        .prop_map(|(spacing, grades, split)| {
+            let mut stations = vec![1000.3];
+            let mut elevations = vec![200.7];
+            for (dx, g) in spacing.iter().zip(&grades) {
+                let (s, y) = (stations[stations.len() - 1], elevations[elevations.len() - 1]);
+                stations.push(s + dx + 0.1);
+                elevations.push(y + g / 100.0 * (dx + 0.1));
+            }
+            let n = stations.len();
+            let mut pvis: Vec<Pvi> = (0..n).map(|i| Pvi::new(stations[i], elevations[i])).collect();
+            for i in 1..n - 1 {
+                // The share of tangent i − 1 (back) and of tangent i (ahead).
+                let back_share = if i == 1 { 1.0 } else { 1.0 - split[i - 1] };
+                let ahead_share = if i == n - 2 { 1.0 } else { split[i] };
+                let back = (stations[i] - stations[i - 1]) * back_share;
+                let ahead = (stations[i + 1] - stations[i]) * ahead_share;
+                pvis[i].curve = gradewright_geometry::VerticalCurve::from_lengths(back, ahead);
+            }
+            Profile::new(Units::Metric, pvis)
+        })
+}
+
 proptest! {
     #![proptest_config(ProptestConfig { cases: 256, ..ProptestConfig::default() })]
+
+    /// Curves that exactly touch, or exactly fill their tangent, are a valid
+    /// profile whatever the round-off (they do not overlap), continuous where
+    /// they meet.
+    #[test]
+    fn touching_and_unequal_curves_are_valid_and_continuous(profile in touching_profiles()) {
+        let problems = profile.problems();
+        prop_assert!(problems.is_empty(), "{problems:?}");
+        let a = Alignment::new(&profile).map_err(|e| TestCaseError::fail(format!("{e:?}")))?;
+        for pair in a.curves().windows(2) {
+            let [c, d] = pair else { continue };
+            // Where one curve hands over to the next: the same elevation and
+            // grade from both sides (the tangent between them has no length).
+            let at = 0.5 * (c.pvt.0 + d.pvc.0);
+            let meet = a.sample(Station(at)).map_err(|e| TestCaseError::fail(e.to_string()))?;
+            prop_assert!((meet.elevation - c.pvt_elevation).abs() < 1e-6, "{} vs {}", meet.elevation, c.pvt_elevation);
+            prop_assert!((meet.elevation - d.pvc_elevation).abs() < 1e-6);
+            prop_assert!((c.grade_out_percent - d.grade_in_percent).abs() < 1e-9, "one tangent between them");
+        }
+        let (start, end) = (a.start().0, a.end().0);
+        for k in 0..=200 {
+            let s = (start + (end - start) * f64::from(k) / 200.0).min(end);
+            let p = a.sample(Station(s)).map_err(|e| TestCaseError::fail(e.to_string()))?;
+            prop_assert!(p.elevation.is_finite() && p.grade_percent.is_finite());
+        }
+    }
 
     #[test]
     fn continuous_at_pvc_and_pvt(profile in profiles()) {
