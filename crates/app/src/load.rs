@@ -48,9 +48,8 @@ impl Input {
     pub fn locate(&self, problem: &ProfileProblem) -> String {
         let index = problem.pvi_index();
         let line = index.and_then(|i| self.pvi_lines.as_ref().and_then(|lines| lines.get(i)));
-        let position = index
-            .zip(self.text.as_deref())
-            .and_then(|(i, text)| gradewright_document::pvi_position(text, i));
+        let position =
+            index.zip(self.text.as_deref()).and_then(|(i, text)| gradewright_document::pvi_position(text, i));
         match (line, position.as_ref()) {
             (Some(line), _) => format!("{}:{line}: {}", self.path.display(), problem.field()),
             (None, Some((line, column))) => {

@@ -236,7 +236,7 @@ fn fit_writes_the_same_format_and_reports() {
     let csv = asset("cedar-hollow-lane.csv").to_string_lossy().into_owned();
     let o = run(&["fit", &csv, "--units", "us", "--design-speed", "70", "-o", &out.to_string_lossy()]);
     assert_eq!(o.status.code(), Some(1));
-    assert!(stdout(&o).contains("only 500 ft fits"), "{}", stdout(&o));
+    assert!(stdout(&o).contains("needs 800 ft, at most 500 ft fits"), "{}", stdout(&o));
     let written = std::fs::read_to_string(&out).unwrap_or_default();
     assert!(written.starts_with("station,elevation,curve_length\n"), "{written}");
     assert!(written.contains("19+00.00,846.1,570"), "{written}");

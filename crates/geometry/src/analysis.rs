@@ -275,6 +275,15 @@ impl Analysis {
         let findings = control_findings(design.units, &self.controls, &self.control_status);
         self.report.findings.extend(findings);
         if let Ok(criteria) = &self.criteria {
+            // Sight under a structure is a criterion of the curve: its length
+            // is part of what the curve needs.
+            for u in crate::controls::undercrossings(&alignment, &self.controls, criteria) {
+                if let Some(check) = self.report.curves.iter_mut().find(|c| c.curve.index == u.pvi)
+                    && u.needed.is_finite()
+                {
+                    check.length_required = check.length_required.max(u.needed);
+                }
+            }
             let under = crate::controls::undercrossing_findings(&alignment, &self.controls, criteria);
             for f in under {
                 if let Some(list) = f.pvi.and_then(|i| self.by_pvi.get_mut(i)) {

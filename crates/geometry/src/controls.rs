@@ -218,13 +218,86 @@ pub fn undercrossing_heights(units: Units) -> (f64, f64) {
     }
 }
 
+/// What sight under a structure asks of the sag curve it stands over: a
+/// maximum control point with a clearance, on a sag curve.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Undercrossing {
+    /// The control point (index into the project's).
+    pub control: usize,
+    /// The PVI whose sag curve it stands over.
+    pub pvi: usize,
+    /// The underside of the structure.
+    pub underside: f64,
+    /// The clearance between the profile and the underside there.
+    pub clearance: f64,
+    /// The total length the curve needs to see the stopping sight distance
+    /// under it (at its own back:ahead ratio); infinite when the clearance
+    /// leaves no sight line at all.
+    pub needed: f64,
+}
+
+impl Undercrossing {
+    /// Whether the curve, `length` long, is long enough.
+    pub fn met_by(&self, length: f64) -> bool {
+        !below(length, self.needed)
+    }
+}
+
 /// For each maximum control point with a clearance that lies on a sag
-/// curve: whether the curve is long enough to see the stopping sight
-/// distance under the structure, L = A·S²/(800(C − (h1 + h2)/2)) when
-/// S < L, else 2S − 800(C − (h1 + h2)/2)/A (Green Book 2018 eq. 3-51 and
-/// 3-52; equation numbers from memory), with C the clearance between the
-/// profile and the underside there. A curve shorter than that is a failing
-/// `control.undercrossing` finding.
+/// curve: the length the curve needs to see the stopping sight distance
+/// under the structure, L = A·S²/(800(C − (h1 + h2)/2)) when S < L, else
+/// 2S − 800(C − (h1 + h2)/2)/A (Green Book 2018 eq. 3-51 and 3-52;
+/// equation numbers from memory), with C the clearance between the
+/// profile and the underside there, times the curve's ratio factor on an
+/// unequal-tangent curve (as for every length requirement). The clearance
+/// follows the curve: lengthening a sag raises the road under the
+/// structure and shrinks it.
+pub fn undercrossings(
+    alignment: &Alignment,
+    controls: &[ControlPoint],
+    criteria: &crate::ResolvedCriteria,
+) -> Vec<Undercrossing> {
+    let mut out = Vec::new();
+    for (i, c) in controls.iter().enumerate() {
+        let on = alignment.curves().iter().find(|k| k.pvc.0 <= c.station && c.station <= k.pvt.0);
+        if let Some(u) = on.and_then(|curve| undercrossing(curve, i, c, criteria)) {
+            out.push(u);
+        }
+    }
+    out
+}
+
+/// What sight under control point `c` (number `index`) asks of `curve`,
+/// when it is a maximum with a clearance standing over this sag curve.
+pub fn undercrossing(
+    curve: &crate::CurveGeometry,
+    index: usize,
+    c: &ControlPoint,
+    criteria: &crate::ResolvedCriteria,
+) -> Option<Undercrossing> {
+    let over = curve.kind == crate::CurveKind::Sag
+        && curve.length() > 0.0
+        && curve.pvc.0 <= c.station
+        && c.station <= curve.pvt.0;
+    if c.kind != ControlKind::Maximum || !(c.clearance > 0.0 && c.clearance.is_finite()) || !over {
+        return None;
+    }
+    let (h1, h2) = undercrossing_heights(criteria.units);
+    let ssd = criteria.get(crate::CriterionId::StoppingSightDistance);
+    let road = curve.segments().into_iter().flatten().find(|s| s.start <= c.station && c.station <= s.end)?;
+    let underside = c.elevation + c.clearance;
+    let clearance = underside - road.elevation_at(c.station);
+    let needed = if clearance <= (h1 + h2) / 2.0 {
+        f64::INFINITY
+    } else {
+        let equal = crate::sight::sag_undercrossing_length(curve.a_percent(), ssd, clearance, h1, h2).length;
+        equal * curve.ratio_factor()
+    };
+    Some(Undercrossing { control: index, pvi: curve.index, underside, clearance, needed })
+}
+
+/// A failing `control.undercrossing` finding for each sag curve too short
+/// to see the stopping sight distance under a structure ([`undercrossings`]).
 pub fn undercrossing_findings(
     alignment: &Alignment,
     controls: &[ControlPoint],
@@ -235,46 +308,39 @@ pub fn undercrossing_findings(
     let (h1, h2) = undercrossing_heights(units);
     let ssd = criteria.get(crate::CriterionId::StoppingSightDistance);
     let mut findings = Vec::new();
-    for (i, c) in controls.iter().enumerate() {
-        if c.kind != ControlKind::Maximum || !(c.clearance > 0.0 && c.clearance.is_finite()) {
+    for u in undercrossings(alignment, controls, criteria) {
+        let (Some(c), Some(curve)) =
+            (controls.get(u.control), alignment.curves().iter().find(|k| k.index == u.pvi))
+        else {
+            continue;
+        };
+        if u.met_by(curve.length()) {
             continue;
         }
-        let on = alignment.curves().iter().find(|k| {
-            k.kind == crate::CurveKind::Sag
-                && k.length() > 0.0
-                && k.pvc.0 <= c.station
-                && c.station <= k.pvt.0
-        });
-        let (Some(curve), Ok(sample)) = (on, alignment.sample(Station(c.station))) else { continue };
         let at = format_station(c.station, units, units.station_decimals());
-        let underside = c.elevation + c.clearance;
-        let clear = underside - sample.elevation;
-        let name = c.title(i);
-        let finding = |message: String| {
-            Finding::new(
-                FindingCode::ControlUndercrossing,
-                (curve.pvc, curve.pvt),
-                Some(curve.index),
-                message,
-            )
-        };
-        if clear <= (h1 + h2) / 2.0 {
-            findings.push(finding(format!(
+        let name = c.title(u.control);
+        let (underside, clear) = (u.underside, u.clearance);
+        let message = if u.needed.is_infinite() {
+            format!(
                 "{name} at {at}: {clear:.3} {len} between the profile and the underside {underside:.3} leaves no \
                  sight line under it for an eye at {h1} {len} and an object at {h2} {len}"
-            )));
-            continue;
-        }
-        let need = crate::sight::sag_undercrossing_length(curve.a_percent(), ssd, clear, h1, h2).length;
-        if below(curve.length(), need) {
-            findings.push(finding(format!(
-                "{name} at {at}: the sag curve at PVI {} (L = {:.2} {len}) is shorter than the {need:.2} {len} \
+            )
+        } else {
+            format!(
+                "{name} at {at}: the sag curve at PVI {} (L = {:.2} {len}) is shorter than the {:.2} {len} \
                  needed to see {ssd:.1} {len} under the structure (clearance {clear:.3} {len}, eye {h1}, \
                  object {h2}; L = A·S²/(800(C − (h1 + h2)/2)) or 2S − 800(C − (h1 + h2)/2)/A)",
                 curve.index + 1,
-                curve.length()
-            )));
-        }
+                curve.length(),
+                u.needed
+            )
+        };
+        findings.push(Finding::new(
+            FindingCode::ControlUndercrossing,
+            (curve.pvc, curve.pvt),
+            Some(curve.index),
+            message,
+        ));
     }
     findings
 }

@@ -4,11 +4,12 @@
 //! length, and the sight distance actually available over the profile —
 //! without overlapping its neighbours.
 
-use crate::tolerance::{above, below, ceil_to};
+use crate::tolerance::{above, below};
 use crate::visibility::{Direction, SightProfile, grid_between, sight_profile};
 use crate::{
-    Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, MAX_SIGHT_STATIONS,
-    Profile, ResolvedCriteria, Units, check_controls, check_curve, format_station,
+    Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, Increment,
+    MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Undercrossing, Units, check_controls, check_curve,
+    format_station, undercrossing,
 };
 
 /// What happened to one curve.
@@ -44,7 +45,7 @@ pub fn lengthen_to_clear(
     let mut targets: Vec<usize> = targets.to_vec();
     targets.sort_unstable();
     targets.dedup();
-    let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
+    let increment = Increment::new(increment);
     let run = Run::new(&profile, criteria, controls);
     let mut outcomes = Vec::new();
     for index in targets {
@@ -145,7 +146,7 @@ fn broken_control(
     })
 }
 
-fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -> FitOutcome {
+fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: Increment) -> FitOutcome {
     let (criteria, controls) = (run.criteria, run.controls);
     let units = profile.units;
     let len = units.length_symbol();
@@ -177,12 +178,24 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -
         return outcome;
     }
     // The curve criteria give a first length; the sight distance over the
-    // actual profile may ask for more (neighbouring curves).
+    // actual profile may ask for more (neighbouring curves), and so may the
+    // sight under a structure, which changes with the length (a longer sag
+    // raises the road under it): each length is judged as it stands.
     // The required length is already the total for this curve's l1:l2 ratio.
     let mut scratch = Vec::new();
     let check = check_curve(&curve, criteria, &mut scratch);
-    let needed = check.length_required.max(check.min_length).max(old_length);
-    let mut length = ceil_to(needed, increment);
+    let asked = check.length_required.max(check.min_length);
+    let needed = asked.max(old_length);
+    let needs = increment.up(needed);
+    let fits = increment.down(max_length);
+    let at = label(units, original.station.0);
+    if let Some(under) =
+        undercrossing_conflict(profile, run, index, increment, (increment.up(asked), needs, fits))
+    {
+        outcome.message = format!("{name} ({at}): {under}; unchanged");
+        return outcome;
+    }
+    let mut length = needs;
     let steps_limit = 400;
     let near = controls_near(profile, controls, index);
     let met = met_controls(profile, run, index, &near);
@@ -197,8 +210,9 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -
             }
             let title = controls.get(c).map_or_else(String::new, |p| p.title(c));
             outcome.message = format!(
-                "{name}: a length of {length:.2} {len} would miss {title} by {miss:.3} {len}; unchanged \
-                 (move the PVI or the grades instead)"
+                "{name}: a length of {} {len} would miss {title} by {miss:.3} {len}; unchanged \
+                 (move the PVI or the grades instead)",
+                increment.text(length)
             );
             return outcome;
         }
@@ -208,25 +222,101 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: f64) -
             outcome.message = format!("{name}: lengthened from {old_length:.2} {len} to {length:.2} {len}");
             return outcome;
         }
-        length += increment;
+        length = increment.after(length);
     }
     if let Some(p) = profile.pvis.get_mut(index) {
         *p = original;
     }
-    let needs = ceil_to(needed, increment);
+    let what = |v: f64| format!("{} {len}", increment.text(v));
     outcome.message = if needs > max_length {
         format!(
-            "{name} ({}): needs {needs:.0} {len}, only {max_length:.0} {len} fits between its neighbours; unchanged",
-            label(units, original.station.0)
+            "{name} ({at}): needs {}, at most {} fits between its neighbours ({max_length:.2} {len} of room); unchanged",
+            what(needs),
+            what(fits)
         )
     } else {
         format!(
-            "{name} ({}): no length up to the {max_length:.0} {len} that fits clears the sight distance \
+            "{name} ({at}): no length up to the {} that fits clears the sight distance \
              (neighbouring curves limit it); unchanged",
-            label(units, original.station.0)
+            what(fits)
         )
     };
     outcome
+}
+
+/// What sight under a structure asks of the curve at `index` when it is
+/// `length` long: the first control point it is not met for, if any.
+fn unmet_undercrossing(profile: &Profile, run: &Run<'_>, index: usize) -> Option<Undercrossing> {
+    let curve = geometry_at(profile, index)?;
+    controls_near(profile, run.controls, index).into_iter().find_map(|i| {
+        let u = undercrossing(&curve, i, run.controls.get(i)?, run.criteria)?;
+        (!u.met_by(curve.length())).then_some(u)
+    })
+}
+
+/// When sight under a structure is met by no length of the curve at
+/// `index` from `from` (what the curve criteria ask, or its length now when
+/// longer: the fit only lengthens) to `fits` (the longest that fits): what
+/// the criteria ask (`asked`, at the increment), where sight under it is
+/// met, and that no length meets both.
+fn undercrossing_conflict(
+    profile: &Profile,
+    run: &Run<'_>,
+    index: usize,
+    increment: Increment,
+    (asked, from, fits): (f64, f64, f64),
+) -> Option<String> {
+    let mut probe = profile.clone();
+    set_length(&mut probe, index, asked.min(fits));
+    let unmet = unmet_undercrossing(&probe, run, index)?;
+    let control = run.controls.get(unmet.control)?;
+    let len = profile.units.length_symbol();
+    let title = run.controls.get(unmet.control).map_or_else(String::new, |c| c.title(unmet.control));
+    // The lengths at the increment sight under it is met for.
+    let mut met = Vec::new();
+    let mut length = increment.up(increment.step());
+    while !above(length, fits) && met.len() < 100_000 {
+        set_length(&mut probe, index, length);
+        let under = geometry_at(&probe, index)
+            .and_then(|curve| undercrossing(&curve, unmet.control, control, run.criteria));
+        // Where the structure is off the curve, the sight line under it is
+        // not limited by the sag.
+        if under.is_none_or(|u| u.met_by(length)) {
+            met.push(length);
+        }
+        length = increment.after(length);
+    }
+    if met.iter().any(|&l| !below(l, from)) {
+        // A length the curve criteria allow meets it too: stepping finds it.
+        return None;
+    }
+    let at = increment.text(asked.min(fits));
+    let need = if unmet.needed.is_finite() {
+        format!("it needs {:.2} {len}", unmet.needed)
+    } else {
+        "the clearance leaves no sight line".to_owned()
+    };
+    let window = match (met.first(), met.last()) {
+        (Some(&lo), Some(hi)) if lo <= increment.step() => {
+            format!("sight under {title} is met only for L up to {} {len}", increment.text(*hi))
+        }
+        (Some(lo), Some(hi)) => format!(
+            "sight under {title} is met only for L from {} to {} {len}",
+            increment.text(*lo),
+            increment.text(*hi)
+        ),
+        _ => format!("sight under {title} is met by no length that fits"),
+    };
+    let longer = if from > asked {
+        format!(" (the curve is {} {len} now and is never shortened here)", increment.text(from))
+    } else {
+        String::new()
+    };
+    Some(format!(
+        "the curve criteria need L ≥ {} {len}{longer}; {window} (at {at} {len} {need}): no length meets both; \
+         move the PVI or raise the structure",
+        increment.text(asked)
+    ))
 }
 
 fn set_length(profile: &mut Profile, index: usize, length: f64) {
@@ -285,7 +375,10 @@ fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
     let Some(curve) = geometry_at(profile, index) else { return false };
     let mut findings = Vec::new();
     let check = check_curve(&curve, criteria, &mut findings);
-    if !check.ok || below(curve.length(), check.min_length) {
+    if !check.ok
+        || below(curve.length(), check.min_length)
+        || unmet_undercrossing(profile, run, index).is_some()
+    {
         return false;
     }
     let step = criteria.get(CriterionId::SightStep);
@@ -339,18 +432,18 @@ pub fn default_curve_length(
     set_length(&mut probe, index, 0.0);
     let curve = geometry_at(&probe, index)?;
     let room = probe.curve_room(index)?;
-    let increment = if increment.is_finite() && increment > 0.0 { increment } else { 1.0 };
+    let increment = Increment::new(increment);
     let min_length = criteria.get(CriterionId::MinCurveLength);
     let (needed, rule) = if curve.kind == CurveKind::None {
         (min_length, "the minimum length")
     } else {
         let mut scratch = Vec::new();
         // As a curve (not a bare break), so K and the sight formulas apply.
-        set_length(&mut probe, index, increment);
+        set_length(&mut probe, index, increment.step());
         let curve = geometry_at(&probe, index)?;
         let check = check_curve(&curve, criteria, &mut scratch);
         (check.length_required.max(min_length), "the shortest length that meets the criteria")
     };
-    let length = ceil_to(needed.max(increment), increment);
+    let length = increment.up(needed.max(increment.step()));
     (length <= room && length > 0.0).then_some((length, rule))
 }

@@ -25,6 +25,7 @@ mod finding;
 mod fit;
 mod grades;
 pub mod ground;
+mod increment;
 mod limits;
 mod profile;
 pub mod quadratic;
@@ -42,7 +43,10 @@ pub use checks::{
     CheckReport, CurveCheck, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, check_curve, check_profile,
     check_profile_with_sight, compute_sight, sight_by_stretch, structural_findings,
 };
-pub use controls::{ControlKind, ControlPoint, ControlStatus, check_controls, control_findings};
+pub use controls::{
+    ControlKind, ControlPoint, ControlStatus, Undercrossing, check_controls, control_findings, undercrossing,
+    undercrossings,
+};
 pub use criteria::{
     Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, SagRule, Setting,
 };
@@ -56,6 +60,7 @@ pub use finding::{Finding, FindingCode, Severity};
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
 pub use ground::{CutFillSummary, Depth, Ground, GroundPoint, cut_fill_summary, depth_at, grade_points};
+pub use increment::Increment;
 pub use limits::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use station::{Station, StationError, excerpt, format_station, parse_station};

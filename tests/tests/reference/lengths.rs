@@ -246,5 +246,66 @@ fn lengthen_to_clear_reports_what_does_not_fit() {
     let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(&profile, &resolved, &[], &[1], 5.0);
     assert_eq!(fitted, profile);
     assert!(!outcomes[0].cleared);
-    assert!(outcomes[0].message.contains("needs 420 m, only 300 m fits"), "{}", outcomes[0].message);
+    assert!(outcomes[0].message.contains("needs 420 m, at most 300 m fits"), "{}", outcomes[0].message);
+}
+
+/// Sight under a structure on a sag: PVIs 0/115, 500/100 (L = 200 m),
+/// 1000/115 at 80 km/h (SSD 130 m, Green Book 2018 Table 3-1), A = 6 %; a
+/// maximum at 0+500, 103.0, with a clearance of 0.5 m (underside 103.5).
+/// The road at the PVI is 100 + A·L/800 = 101.5, so C = 2.0 and the sag
+/// needs L = A·S²/(800(C − 1.5)) = 6·130²/400 = 253.50 m (eq. 3-51 form,
+/// truck eye 2.4 m and taillights 0.6 m, from memory; hand-computed). The
+/// curve's required length says so; and since lengthening the sag raises
+/// the road (C = 3.5 − 0.0075·L), the clearance is met only while
+/// L ≤ 162.96 m, below the 180 m the sag K asks (K 30, Table 3-36): no
+/// length meets both, and the fit says so rather than "already clears".
+#[test]
+fn sight_under_a_structure_is_part_of_the_required_length_and_the_fit() {
+    let pvis = vec![Pvi::new(0.0, 115.0), Pvi::with_curve(500.0, 100.0, 200.0), Pvi::new(1000.0, 115.0)];
+    let bridge = |station: f64, elevation: f64| gradewright_geometry::ControlPoint {
+        name: "Rail bridge".to_owned(),
+        station,
+        kind: gradewright_geometry::ControlKind::Maximum,
+        elevation,
+        tolerance: 0.0,
+        clearance: 0.5,
+    };
+    let design = |controls| gradewright_geometry::Design {
+        units: Units::Metric,
+        criteria: gradewright_geometry::Criteria { design_speed: Some(80.0), ..Default::default() },
+        pvis: pvis.clone(),
+        controls,
+        ..Default::default()
+    };
+    let analysis = gradewright_geometry::Analysis::of(&design(vec![bridge(500.0, 103.0)]));
+    let curve = analysis.report.curves.first().unwrap_or_else(|| panic!("a curve"));
+    assert_close(curve.length_required, 253.5, 1e-9, "L req with the undercrossing (hand-computed)");
+    let criteria = analysis.criteria.clone().unwrap_or_else(|e| panic!("{e}"));
+    let profile = Profile::new(Units::Metric, pvis.clone());
+    let (fitted, outcomes) =
+        gradewright_geometry::lengthen_to_clear(&profile, &criteria, &[bridge(500.0, 103.0)], &[1], 5.0);
+    let outcome = outcomes.first().unwrap_or_else(|| panic!("an outcome"));
+    assert!(!outcome.cleared && fitted == profile, "{outcome:?}");
+    assert!(!outcome.message.contains("already clears"), "{}", outcome.message);
+    assert!(outcome.message.contains("need L ≥ 180 m"), "{}", outcome.message);
+    // Below S = 130 m the S > L form 2S − 800(C − 1.5)/A = L − 6.67 is always
+    // met; above it, while L ≥ 126.75/(2 − 0.0075L), i.e. up to 162.96 m (the
+    // upper root of 0.0075L² − 2L + 126.75): 160 m on the 5 m grid; at 180 m
+    // it needs 126.75/(2 − 1.35) = 195.00 m (derived from eq. 3-51 and 3-52).
+    assert!(outcome.message.contains("met only for L up to 160 m"), "{}", outcome.message);
+    assert!(outcome.message.contains("at 180 m it needs 195.00 m"), "{}", outcome.message);
+    assert!(outcome.message.contains("no length meets both"), "{}", outcome.message);
+    // With the structure over 0+600 (104.6, underside 105.1) a length exists:
+    // about 213.5 m (derived), so 215 m at the 5 m increment, and the whole
+    // check then passes.
+    let (fitted, outcomes) =
+        gradewright_geometry::lengthen_to_clear(&profile, &criteria, &[bridge(600.0, 104.6)], &[1], 5.0);
+    let outcome = outcomes.first().unwrap_or_else(|| panic!("an outcome"));
+    assert!(outcome.cleared, "{}", outcome.message);
+    assert_close(outcome.new_length, 215.0, 1e-9, "the shortest length at the increment");
+    let after = gradewright_geometry::Analysis::of(&gradewright_geometry::Design {
+        pvis: fitted.pvis,
+        ..design(vec![bridge(600.0, 104.6)])
+    });
+    assert!(!after.has_failures(), "{:?}", after.report.findings);
 }
