@@ -456,3 +456,23 @@ fn curves_that_exactly_touch_are_no_overlap() {
     assert!(o.status.success(), "{}", stderr(&o));
     assert_eq!(stdout(&o).lines().count(), 3, "{}", stdout(&o));
 }
+
+/// Tables are on even stations, as plans and cross-sections are stationed
+/// (common practice): a road from 12+34.56 at 50 ft gives 12+34.56, 12+50,
+/// 13+00, … and the end, plus the PVC, PVI and PVT of its curve.
+#[test]
+fn tables_are_on_even_stations() {
+    let csv = temp_file(
+        "uneven-start.csv",
+        "station,elevation,curve_length\n12+34.56,500,0\n15+00,505,200\n18+10.20,498,0\n",
+    );
+    let csv = csv.to_string_lossy().into_owned();
+    let o = run(&["table", &csv, "--units", "us", "--interval", "50", "--decimals", "2"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    let stations: Vec<&str> = text.lines().skip(1).filter_map(|l| l.split(',').nth(1)).collect();
+    assert_eq!(stations.first().copied(), Some("12+34.56"));
+    assert_eq!(stations.get(1..4), Some(&["12+50.00", "13+00.00", "13+50.00"][..]), "{stations:?}");
+    assert!(stations.contains(&"14+00.00") && stations.contains(&"16+00.00"), "{stations:?}");
+    assert_eq!(stations.last().copied(), Some("18+10.20"));
+}

@@ -223,3 +223,27 @@ fn refused_options_write_nothing() {
     assert!(stderr.contains("million"), "{stderr}");
     assert!(!out.exists());
 }
+
+/// The earthwork totals say which stations they cover, on the command line,
+/// in `check` and on the sheet (the demo's survey covers 0+000 to 2+000).
+#[test]
+fn earthwork_totals_name_the_stations_they_cover() {
+    let dir = scratch("earthwork-range");
+    let svg = dir.join("alder.svg");
+    let (code, _, err) = run(&["export", &s(&demo()), "--svg", &s(&svg)]);
+    assert_eq!(code, Some(1), "{err}");
+    let text = std::fs::read_to_string(&svg).unwrap_or_default();
+    assert!(
+        text.contains("Earthwork (level section) from 0+000.000 to 2+000.000, where the ground covers"),
+        "no totals on the sheet"
+    );
+    let (_, out, _) = run(&["check", &s(&demo())]);
+    assert!(
+        out.contains("earthwork from 0+000.000 to 2+000.000 (where the ground covers the profile)"),
+        "{out}"
+    );
+    let (code, _, err) =
+        run(&["earthwork", &s(&demo()), "--width", "10", "--cut-slope", "2", "--fill-slope", "3"]);
+    assert_eq!(code, Some(0), "{err}");
+    assert!(err.contains("from 0+000.000 to 2+000.000 (where the ground covers the profile)"), "{err}");
+}

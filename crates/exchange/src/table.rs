@@ -15,25 +15,16 @@ pub const GROUND_COLUMNS: [&str; 3] = ["ground_elevation", "cut", "fill"];
 pub const EARTHWORK_HEADER: [&str; 6] =
     ["station", "cut_area", "fill_area", "cut_volume", "fill_volume", "mass"];
 
-/// Stations every `interval` from the first PVI (first + k·interval), plus both
-/// ends and every PVC, PVI and PVT, sorted, without duplicates.
+/// Stations on every whole multiple of `interval` (plan stationing: 12+50,
+/// 13+00, … on a road starting at 12+34.56), plus both ends and every PVC,
+/// PVI and PVT, sorted, without duplicates.
 pub fn interval_stations(alignment: &Alignment, interval: f64) -> Vec<f64> {
     let start = alignment.start().0;
     let end = alignment.end().0;
     let mut stations: Vec<f64> = alignment.key_stations().iter().map(|(s, _)| s.0).collect();
-    if interval.is_finite() && interval > 0.0 {
-        let steps = ((end - start) / interval).floor();
-        // Bounded by the caller's interval check; 10 million rows at the most.
-        let steps = steps.clamp(0.0, 1.0e7);
-        #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
-        for k in 0..=(steps as u64) {
-            #[allow(clippy::cast_precision_loss)]
-            let s = start + k as f64 * interval;
-            if s <= end {
-                stations.push(s);
-            }
-        }
-    }
+    stations.extend(
+        gradewright_geometry::even_stations(start, end, interval).filter(|&s| s >= start && s <= end),
+    );
     stations.push(start);
     stations.push(end);
     stations.sort_by(f64::total_cmp);
@@ -122,20 +113,13 @@ pub fn write_interval_table(
         let alignment = Alignment::new(&part).map_err(|_| TableError::Invalid)?;
         stations.clear();
         stations.extend(alignment.key_stations().iter().map(|(s, _)| s.0));
-        if interval.is_finite() && interval > 0.0 {
-            let steps = ((end - start) / interval).floor().clamp(0.0, 1.0e7);
-            // From a step before the stretch, so rounding never skips one.
-            let first = ((stretch.from - start) / interval).floor().clamp(1.0, 1.0e7 + 1.0) - 1.0;
-            #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
-            for k in (first as u64)..=(steps as u64) {
-                #[allow(clippy::cast_precision_loss)]
-                let s = start + k as f64 * interval;
-                if s > end || !(s < stretch.to || stretch.closes) {
-                    break;
-                }
-                stations.push(s);
-            }
-        }
+        // The even stations of this stretch, from one interval before it so
+        // rounding never skips one.
+        let from = (stretch.from - interval).max(start);
+        let to = if stretch.closes { end } else { stretch.to.min(end) };
+        stations.extend(
+            gradewright_geometry::even_stations(from, to, interval).filter(|&s| s >= start && s <= end),
+        );
         stations.extend([start, end]);
         stations.retain(|&s| stretch.holds(s));
         stations.sort_by(f64::total_cmp);

@@ -166,6 +166,8 @@ pub enum RowKind {
     Interval,
     /// Where the profile crosses the ground.
     GradePoint,
+    /// A point of the ground line (a break of the ground).
+    GroundPoint,
     /// A PVI, PVC or PVT.
     Key(KeyPoint),
 }
@@ -206,6 +208,9 @@ pub struct Earthwork {
     pub cut: f64,
     /// Total fill.
     pub fill: f64,
+    /// The stations the estimate covers: where the ground and the profile
+    /// overlap.
+    pub range: (f64, f64),
 }
 
 impl Earthwork {
@@ -243,8 +248,8 @@ fn volume_factor(units: Units) -> f64 {
 const MAX_ROWS: f64 = 1.0e7;
 
 /// The estimate over the stretch where `ground` and the profile overlap,
-/// at stations every `interval` from the first PVI plus the range ends,
-/// grade points, PVCs, PVIs and PVTs.
+/// at every whole multiple of `interval` plus the range ends, the grade
+/// points, every point of the ground, and the PVCs, PVIs and PVTs.
 ///
 /// # Errors
 /// [`EarthworkError`] for an unusable section or interval, or no overlap.
@@ -281,21 +286,19 @@ pub fn earthwork_at(
     if !(interval.is_finite() && interval > 0.0) || (hi - lo) / interval > MAX_ROWS {
         return Err(EarthworkError::Interval(interval));
     }
-    // Three lists already in station order — the interval with both ends,
-    // the grade points, the PVCs, PVIs and PVTs — merged, interval first on
-    // a tie, then grade points.
+    // Four lists already in station order — the even stations with both
+    // ends, the grade points, the ground's own points (so no break of the
+    // ground is averaged away; common practice), the PVCs, PVIs and PVTs —
+    // merged, the first list first on a tie.
     let mut regular: Vec<f64> = vec![lo];
-    let first = ((lo - start) / interval).ceil();
-    let last = ((hi - start) / interval).floor();
-    #[allow(clippy::cast_possible_truncation)]
-    for k in (first as i64)..=(last as i64) {
-        #[allow(clippy::cast_precision_loss)]
-        let s = start + k as f64 * interval;
-        if s > lo && s < hi {
-            regular.push(s);
-        }
-    }
+    regular.extend(crate::even_stations(lo, hi, interval).filter(|&s| s > lo && s < hi));
     regular.push(hi);
+    let breaks: Vec<f64> = {
+        let points = ground.ground();
+        let from = points.partition_point(|p| p.station <= lo);
+        let to = points.partition_point(|p| p.station < hi);
+        points.get(from..to).unwrap_or(&[]).iter().map(|p| p.station).collect()
+    };
     let mut keys: Vec<(f64, KeyPoint)> = Vec::with_capacity(3 * alignment.pvis().len());
     let mut curves = alignment.curves().iter().peekable();
     for (i, p) in alignment.pvis().iter().enumerate() {
@@ -312,12 +315,13 @@ pub fn earthwork_at(
     }
     keys.retain(|(s, _)| *s > lo && *s < hi);
     let mut stations: Vec<(f64, RowKind)> =
-        Vec::with_capacity(regular.len() + grade_points.len() + keys.len());
-    let (mut a, mut b, mut c) = (0, 0, 0);
+        Vec::with_capacity(regular.len() + grade_points.len() + breaks.len() + keys.len());
+    let (mut a, mut b, mut c, mut d) = (0, 0, 0, 0);
     loop {
         let next = [
             regular.get(a).map(|&s| (s, RowKind::Interval)),
             grade_points.get(b).map(|&s| (s, RowKind::GradePoint)),
+            breaks.get(d).map(|&s| (s, RowKind::GroundPoint)),
             keys.get(c).map(|&(s, k)| (s, RowKind::Key(k))),
         ];
         let Some((pick, item)) = next
@@ -331,6 +335,7 @@ pub fn earthwork_at(
         match pick {
             0 => a += 1,
             1 => b += 1,
+            2 => d += 1,
             _ => c += 1,
         }
         if stations.last().is_none_or(|last| item.0 - last.0 > STATION_HAIR) {
@@ -375,7 +380,7 @@ pub fn earthwork_at(
             mass,
         });
     }
-    Ok(Earthwork { units: alignment.units(), section: *section, rows, cut, fill })
+    Ok(Earthwork { units: alignment.units(), section: *section, rows, cut, fill, range: (lo, hi) })
 }
 
 #[cfg(test)]
@@ -459,5 +464,39 @@ mod tests {
             earthwork(&road, &ground(&[(0.0, 1.0), (9.0, 1.0)]), &SECTION, 0.0),
             Err(EarthworkError::Interval(0.0))
         );
+    }
+
+    /// A break of the ground between two interval stations is a section of
+    /// its own (common practice for a centreline estimate): a level road at
+    /// 100 over ground 100 at 0 and 10, 102 at 15, 100 at 20 and 40. At 20 m
+    /// only the stations 0, 20, 40 (all on the ground) would give no cut at
+    /// all; with the ground's points, 2 m of cut at 15 (A = 2·(10 + 2·2) =
+    /// 28 m²) and cut = 5·28/2 + 5·28/2 = 140 m³ (hand-computed by average
+    /// end areas). The estimate says which stations it covers.
+    #[test]
+    fn every_break_of_the_ground_is_a_section() {
+        let road = level(Units::Metric, 40.0);
+        let g = ground(&[(0.0, 100.0), (10.0, 100.0), (15.0, 102.0), (20.0, 100.0), (40.0, 100.0)]);
+        let e = earthwork(&road, &g, &SECTION, 20.0).expect("estimate");
+        assert!((e.cut - 140.0).abs() < 1e-9, "{}", e.cut);
+        let spike = e.rows.iter().find(|r| (r.station - 15.0).abs() < 1e-12).expect("a section at the spike");
+        assert_eq!(spike.kind, RowKind::GroundPoint);
+        assert!((spike.cut_area - 28.0).abs() < 1e-12);
+        assert_eq!(e.range, (0.0, 40.0));
+    }
+
+    /// The interval stations are on whole multiples of the interval, as a
+    /// plan is stationed (common practice): a road from 12.34 to 100 at 20
+    /// has sections at 12.34, 20, 40, 60, 80, 100.
+    #[test]
+    fn interval_sections_are_on_even_stations() {
+        let road = Alignment::new(&Profile::new(
+            Units::Metric,
+            vec![Pvi::new(12.34, 100.0), Pvi::new(100.0, 100.0)],
+        ))
+        .expect("valid");
+        let e = earthwork(&road, &ground(&[(0.0, 101.0), (120.0, 101.0)]), &SECTION, 20.0).expect("estimate");
+        let stations: Vec<f64> = e.rows.iter().map(|r| r.station).collect();
+        assert_eq!(stations, vec![12.34, 20.0, 40.0, 60.0, 80.0, 100.0]);
     }
 }

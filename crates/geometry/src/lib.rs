@@ -63,6 +63,6 @@ pub use ground::{CutFillSummary, Depth, Ground, GroundPoint, cut_fill_summary, d
 pub use increment::Increment;
 pub use limits::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
-pub use station::{Station, StationError, excerpt, format_station, parse_station};
+pub use station::{Station, StationError, even_stations, excerpt, format_station, parse_station};
 pub use stretch::Stretch;
 pub use units::{Foot, Units, length_factor};

@@ -83,6 +83,27 @@ fn example(units: Units) -> &'static str {
     }
 }
 
+/// The stations on whole multiples of `interval` from `from` to `to` (both
+/// included when on a multiple), in order: plan stationing, as tables and
+/// cross-sections are stationed (12+50, 13+00, … on a road starting at
+/// 12+34.56; common practice). Nothing for an interval that is not a
+/// positive number; at most ten million stations.
+pub fn even_stations(from: f64, to: f64, interval: f64) -> impl Iterator<Item = f64> {
+    let usable = interval.is_finite() && interval > 0.0 && from.is_finite() && to.is_finite();
+    let (first, last) = if usable {
+        (
+            (from / interval - crate::tolerance::ROUNDING_HAIR).ceil(),
+            (to / interval + crate::tolerance::ROUNDING_HAIR).floor().min((from / interval).ceil() + 1.0e7),
+        )
+    } else {
+        (1.0, 0.0)
+    };
+    #[allow(clippy::cast_possible_truncation)]
+    let (first, last) = (first as i64, last as i64);
+    #[allow(clippy::cast_precision_loss)]
+    (first..=last).map(move |k| k as f64 * interval)
+}
+
 /// Formats `value` in station notation: `1+234.567` (metric, 1000 m stations) or
 /// `12+34.56` (US, 100 ft stations); negative stations get a leading `-`
 /// (`-0+050.000`). Rounding is done once on the whole value, so a remainder never

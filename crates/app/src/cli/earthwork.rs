@@ -50,9 +50,13 @@ pub fn run(run: &mut Run, args: &EarthworkArgs) -> anyhow::Result<ExitCode> {
         .map_err(|e| anyhow!("{}: {e}", input.display()))?;
     print(&buffer)?;
     let vol = gradewright_geometry::volume_symbol(project.units);
+    let label =
+        |s: f64| gradewright_geometry::format_station(s, project.units, project.units.station_decimals());
     eprintln!(
-        "level-section estimate: cut {:.1} {vol}, fill {:.1} {vol}, net {:+.1} {vol} after {}% shrinkage \
-         (areas in {}, volumes in {vol})",
+        "level-section estimate from {} to {} (where the ground covers the profile): cut {:.1} {vol}, fill {:.1} {vol}, \
+         net {:+.1} {vol} after {}% shrinkage (areas in {}, volumes in {vol})",
+        label(estimate.range.0),
+        label(estimate.range.1),
         estimate.cut,
         estimate.fill,
         estimate.net(),

@@ -214,7 +214,9 @@ fn site_text(out: &mut String, analysis: &gradewright_geometry::Analysis) {
                 let vol = volume_symbol(units);
                 let _ = writeln!(
                     out,
-                    "  earthwork, level section W {} {len}, cut slope {}:1, fill slope {}:1, shrinkage {} %: cut {:.1} {vol}, fill {:.1} {vol}, net {:+.1} {vol}",
+                    "  earthwork from {} to {} (where the ground covers the profile), level section W {} {len}, cut slope {}:1, fill slope {}:1, shrinkage {} %: cut {:.1} {vol}, fill {:.1} {vol}, net {:+.1} {vol}",
+                    label(e.range.0),
+                    label(e.range.1),
                     e.section.width,
                     e.section.cut_slope,
                     e.section.fill_slope,

@@ -225,6 +225,27 @@ pub(super) fn findings(analysis: &Analysis, paper: (f64, f64), page: &Page, drop
                 .a("font-size", SMALL),
         );
     }
+    if let Some(Ok(e)) = &analysis.earthwork {
+        let units = analysis.profile.units;
+        let (vol, label) = (gradewright_geometry::volume_symbol(units), |s: f64| {
+            format_station(s, units, units.station_decimals())
+        });
+        out.push(
+            Element::text(format!(
+                "Earthwork (level section) from {} to {}, where the ground covers the profile: cut {:.0} {vol}, \
+                 fill {:.0} {vol}, net {:+.0} {vol}",
+                label(e.range.0),
+                label(e.range.1),
+                e.cut,
+                e.fill,
+                e.net()
+            ))
+            .a("class", "Earthwork")
+            .a("x", mm(MARGIN + 2.0))
+            .a("y", mm(block_y + BOTTOM_BLOCK - 9.0))
+            .a("font-size", SMALL),
+        );
+    }
     if dropped > 0 {
         out.push(
             Element::text(format!("{dropped} label(s) left out for lack of room; see the tables"))

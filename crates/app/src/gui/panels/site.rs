@@ -348,6 +348,11 @@ impl SitePanel {
         match &doc.analysis().earthwork {
             Some(Ok(e)) => {
                 let net = e.net();
+                ui.label(format!(
+                    "From {} to {} (where the ground covers the profile)",
+                    format_station(e.range.0, units, units.station_decimals()),
+                    format_station(e.range.1, units, units.station_decimals())
+                ));
                 ui.label(format!("Cut {:.0} {vol} · Fill {:.0} {vol}", e.cut, e.fill));
                 ui.label(
                     RichText::new(format!(
