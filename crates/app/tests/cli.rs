@@ -476,3 +476,30 @@ fn tables_are_on_even_stations() {
     assert!(stations.contains(&"14+00.00") && stations.contains(&"16+00.00"), "{stations:?}");
     assert_eq!(stations.last().copied(), Some("18+10.20"));
 }
+
+/// A survey with a no-data elevation and a long gap imports, with a warning
+/// for each saying where; `check` then lists them as warnings (never a
+/// silent 10 099 m of fill).
+#[test]
+fn implausible_ground_is_warned_about() {
+    let ground = temp_file(
+        "no-data-ground.csv",
+        "station,elevation\n0,212\n10,212.1\n20,-9999\n30,212.3\n40,212.4\n400,213\n",
+    );
+    let out = std::env::temp_dir().join(format!("gradewright-cli-{}-no-data.ron", std::process::id()));
+    let o = run(&[
+        "import",
+        &asset("alder-brook-road.ron").to_string_lossy(),
+        "--ground",
+        &ground.to_string_lossy(),
+        "-o",
+        &out.to_string_lossy(),
+    ]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let said = stdout(&o);
+    assert!(said.contains("warning:") && said.contains("0+020.000 has elevation -9999"), "{said}");
+    assert!(said.contains("no point from 0+040.000 to 0+400.000"), "{said}");
+    let o = run(&["check", &out.to_string_lossy()]);
+    let text = stdout(&o);
+    assert_eq!(text.matches("[WARN] ground.suspicious").count(), 2, "{text}");
+}

@@ -52,6 +52,9 @@ pub struct Analysis {
     source: Option<Design>,
     /// The scan of the profile over the ground (kept for the next edit).
     site: Option<Arc<crate::ground::SiteScan>>,
+    /// What looks wrong in the survey, and the ground it was read from
+    /// (kept while the ground is the same).
+    ground_review: Option<(Ground, Arc<Vec<crate::GroundWarning>>)>,
     /// Ground elevations at the earthwork's stations (kept for the next edit).
     ground_samples: Option<crate::ground::GroundSamples>,
     /// The indices of the findings that name each PVI.
@@ -81,6 +84,7 @@ impl Default for Analysis {
             sight: None,
             source: None,
             site: None,
+            ground_review: None,
             ground_samples: None,
             by_pvi: Vec::new(),
             sight_notes: Arc::default(),
@@ -127,6 +131,7 @@ impl Analysis {
         let criteria = design.criteria.resolve(design.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
+        let previous_review = previous.as_ref().and_then(|p| p.ground_review.clone());
         let samples = previous.as_mut().and_then(|p| p.ground_samples.take());
         let notes = previous.as_ref().map(|p| p.sight_notes.clone());
         // Curve checks depend on the curve's geometry and the criteria only.
@@ -181,6 +186,7 @@ impl Analysis {
         let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn };
         let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse);
         analysis.add_site(design, previous_site.as_deref(), samples);
+        analysis.review_ground(design, previous_review);
         analysis.source = Some(design.clone());
         analysis
     }
@@ -307,6 +313,25 @@ impl Analysis {
             }
             self.site = Some(Arc::new(scan));
         }
+    }
+
+    /// Reviews the survey (kept from `previous` while the ground is the
+    /// same shared line): a warning finding for each point that looks like
+    /// no data or jumps, and each long gap.
+    fn review_ground(&mut self, design: &Design, previous: Option<(Ground, Arc<Vec<crate::GroundWarning>>)>) {
+        let review = match previous {
+            Some((ground, review)) if ground.shares(&self.ground) => review,
+            _ => Arc::new(self.ground.review(design.units)),
+        };
+        for w in review.iter() {
+            self.report.findings.push(Finding::new(
+                FindingCode::GroundSuspicious,
+                w.stations(),
+                None,
+                w.describe(design.units),
+            ));
+        }
+        self.ground_review = Some((self.ground.clone(), review));
     }
 
     /// Whether any finding is a failure.

@@ -119,6 +119,9 @@ finding_codes! {
     ControlInvalid = "control.invalid", Fail;
     /// A sag too short to see under a structure.
     ControlUndercrossing = "control.undercrossing", Fail;
+    /// A ground point that looks like no data or jumps, or a long gap in
+    /// the survey.
+    GroundSuspicious = "ground.suspicious", Warn;
     /// A design speed off the tables.
     CriteriaSpeedOffTable = "criteria.speed-off-table", Warn;
     /// No usable criteria: the design checks are off.

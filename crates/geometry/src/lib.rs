@@ -59,7 +59,9 @@ pub use earthwork::{
 pub use finding::{Finding, FindingCode, Severity};
 pub use fit::{FitOutcome, default_curve_length, lengthen_to_clear};
 pub use grades::{Area, RoadClass, Terrain, max_grade};
-pub use ground::{CutFillSummary, Depth, Ground, GroundPoint, cut_fill_summary, depth_at, grade_points};
+pub use ground::{
+    CutFillSummary, Depth, Ground, GroundPoint, GroundWarning, cut_fill_summary, depth_at, grade_points,
+};
 pub use increment::Increment;
 pub use limits::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};

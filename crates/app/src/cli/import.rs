@@ -67,7 +67,11 @@ pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
                 label(last.station)
             ));
         }
-        loaded.project.ground = table.points.into();
+        let points = gradewright_geometry::Ground::new(table.points);
+        for w in points.review(units) {
+            text.push_str(&format!("warning: {}: {}\n", ground.display(), w.describe(units)));
+        }
+        loaded.project.ground = points;
     }
     if let Some(controls) = &args.controls {
         let points = gradewright_exchange::read_controls_csv(open("--controls", controls)?, controls, units)?;

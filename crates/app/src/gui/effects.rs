@@ -347,9 +347,11 @@ impl GradewrightApp {
                 .map(|t| (t.points, t.warnings.iter().map(ToString::to_string).collect()))
         };
         match read {
-            Ok((points, said)) => {
+            Ok((points, mut said)) => {
                 let count = points.len();
-                let changed = self.apply_edit(Edit::SetGround(Ground::new(points)));
+                let ground = Ground::new(points);
+                said.extend(ground.review(units).iter().map(|w| w.describe(units)));
+                let changed = self.apply_edit(Edit::SetGround(ground));
                 let mut text = format!("Imported {count} ground point(s) from {}", path.display());
                 if !changed {
                     text.push_str(" (the same ground as before)");

@@ -7,8 +7,10 @@
 //! The points are shared behind an [`Arc`], so copying a project (an undo
 //! step, a drag frame) never copies a large ground line.
 
+mod review;
 mod scan;
 
+pub use review::GroundWarning;
 pub use scan::{CutFillSummary, Depth, SiteScan, cut_fill_summary, depth_at, grade_points};
 
 use std::ops::Deref;
