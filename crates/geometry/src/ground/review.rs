@@ -179,7 +179,7 @@ mod tests {
             "{warnings:?}"
         );
         assert!(
-            warnings.iter().any(|w| matches!(w, GroundWarning::Jump { station, off, .. } if *station == 200.0 && (*off - 7.45).abs() < 1e-9)),
+            warnings.iter().any(|w| matches!(w, GroundWarning::Jump { station, off, .. } if (*station - 200.0).abs() < 1e-9 && (*off - 7.45).abs() < 1e-9)),
             "{warnings:?}"
         );
         assert!(
