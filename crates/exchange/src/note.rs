@@ -4,7 +4,7 @@
 
 use std::path::PathBuf;
 
-use gradewright_geometry::Units;
+use gradewright_geometry::{Units, trimmed};
 
 /// One thing to know about a file that was read.
 #[derive(Clone, Debug, PartialEq)]
@@ -120,6 +120,17 @@ pub enum NoteKind {
         /// The alignment.
         alignment: String,
     },
+    /// The design speed the file gives the alignment.
+    DesignSpeed {
+        /// The speed as written (km/h or mph).
+        speed: f64,
+        /// The file's units.
+        file_units: Units,
+        /// The speed in the units read.
+        converted: f64,
+        /// The units read.
+        units: Units,
+    },
     /// PVIs outside their alignment's stations, read as given.
     OutsideAlignment {
         /// How many.
@@ -180,6 +191,18 @@ impl std::fmt::Display for Note {
                 f,
                 "alignment '{alignment}' has station equations; stations are read as internal stations (none applied)"
             ),
+            NoteKind::DesignSpeed { speed, file_units, converted, units } => {
+                write!(
+                    f,
+                    "design speed {} {} read from the file",
+                    trimmed(*speed, 2),
+                    file_units.speed_symbol()
+                )?;
+                if file_units != units {
+                    write!(f, " ({} {})", trimmed(*converted, 2), units.speed_symbol())?;
+                }
+                Ok(())
+            }
             NoteKind::OutsideAlignment { count, alignment, start, end } => write!(
                 f,
                 "{count} PVI(s) lie outside alignment '{alignment}' (stations {start} to {end}); read as given"

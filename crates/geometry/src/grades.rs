@@ -8,7 +8,7 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::Units;
+use crate::{KM_PER_MILE, Units};
 
 /// Terrain class for the default maximum grade.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
@@ -178,9 +178,6 @@ const FREEWAY: Table = Table {
         &[6.0, 6.0, 6.0, 5.0, 5.0, 5.0, 5.0],
     ],
 };
-
-/// Kilometres in a mile.
-const KM_PER_MILE: f64 = 1.609_344;
 
 /// The default maximum grade (percent) and the rule that gave it, for a road
 /// class, area, terrain and design speed.

@@ -57,6 +57,28 @@ pub fn length_factor(from: Units, from_foot: Foot, to: Units, to_foot: Foot) -> 
     if a.to_bits() == b.to_bits() { 1.0 } else { a / b }
 }
 
+/// `value` to `decimals` places without trailing zeros ("80", "49.71",
+/// "0.3"); a value that rounds to zero is "0", never "-0".
+pub fn trimmed(value: f64, decimals: usize) -> String {
+    let text = format!("{value:.decimals$}");
+    let text = if text.contains('.') { text.trim_end_matches('0').trim_end_matches('.') } else { &text };
+    if text == "-0" { "0".to_owned() } else { text.to_owned() }
+}
+
+/// Kilometres in a mile: exactly 1.609344 (the international mile, 5280
+/// international feet).
+pub const KM_PER_MILE: f64 = 1.609_344;
+
+/// The factor that turns a speed in `from`'s unit (km/h or mph) into a
+/// speed in `to`'s: 1 when they agree.
+pub fn speed_factor(from: Units, to: Units) -> f64 {
+    match (from, to) {
+        (Units::Metric, Units::UsCustomary) => 1.0 / KM_PER_MILE,
+        (Units::UsCustomary, Units::Metric) => KM_PER_MILE,
+        _ => 1.0,
+    }
+}
+
 impl Units {
     /// Length of one full station in the project's length unit (1000 m or 100 ft).
     pub fn station_length(self) -> f64 {
@@ -173,5 +195,27 @@ impl std::fmt::Display for Units {
             Self::Metric => "metric (m, km/h)",
             Self::UsCustomary => "US customary (ft, mph)",
         })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn trimmed_numbers_drop_trailing_zeros_only() {
+        assert_eq!(trimmed(80.0, 2), "80");
+        assert_eq!(trimmed(80.0 / KM_PER_MILE, 2), "49.71");
+        assert_eq!(trimmed(0.1 + 0.2, 6), "0.3");
+        assert_eq!(trimmed(-0.000_000_1, 6), "0");
+        assert_eq!(trimmed(1200.0, 0), "1200");
+        assert_eq!(trimmed(215.125, 6), "215.125");
+    }
+
+    #[test]
+    fn speeds_convert_by_the_international_mile() {
+        assert!((50.0 * speed_factor(Units::UsCustomary, Units::Metric) - 80.4672).abs() < 1e-12);
+        assert!((speed_factor(Units::Metric, Units::UsCustomary) * KM_PER_MILE - 1.0).abs() < 1e-15);
+        assert_eq!(speed_factor(Units::Metric, Units::Metric), 1.0);
     }
 }

@@ -18,9 +18,12 @@ fn stamp() -> Stamp {
     Stamp { date: "2026-12-03".to_owned(), time: "10:00:00".to_owned() }
 }
 
+/// The test project; its name holds spaces, so its design speed goes in a
+/// `Feature` of the alignment ([`named`] gives one a `Roadway` can refer to).
 fn project(units: Units, foot: Foot, ground: bool) -> Project {
     let mut p = Project::new("Quarry Spur & Mill <east>", units);
     p.foot = foot;
+    p.criteria.design_speed = Some(if units == Units::Metric { 80.0 } else { 50.0 });
     p.pvis = vec![
         Pvi::new(120.0, 150.25),
         Pvi::with_curve(420.0, 156.5, 140.0),
@@ -42,6 +45,12 @@ fn project(units: Units, foot: Foot, ground: bool) -> Project {
     p
 }
 
+/// `p` renamed to a name without spaces (its design speed in a `Roadway`).
+fn named(mut p: Project, name: &str) -> Project {
+    p.name = name.to_owned();
+    p
+}
+
 fn xml(p: &Project) -> Vec<u8> {
     let mut out = Vec::new();
     write_landxml(&mut out, p, &stamp()).unwrap_or_else(|e| panic!("{e}"));
@@ -50,7 +59,8 @@ fn xml(p: &Project) -> Vec<u8> {
 
 /// Every export validates against the LandXML 1.2 schema (xmllint from
 /// libxml2-utils; `.ci/run` installs it): metres, international feet and US
-/// survey feet, with and without ground, with an unequal-tangent curve.
+/// survey feet, with and without ground, with an unequal-tangent curve, the
+/// design speed in a `Roadway` and in a `Feature`, and with none.
 #[test]
 fn exports_validate_against_the_landxml_schema() {
     let dir = std::env::temp_dir().join(format!("gradewright-landxml-{}", std::process::id()));
@@ -61,9 +71,22 @@ fn exports_validate_against_the_landxml_schema() {
         (Units::UsCustomary, Foot::International),
         (Units::UsCustomary, Foot::UsSurvey),
     ] {
-        for ground in [false, true] {
-            let path = dir.join(format!("{}-{foot:?}-{ground}.xml", units.key()));
-            std::fs::write(&path, xml(&project(units, foot, ground))).unwrap_or_else(|e| panic!("{e}"));
+        for (ground, speed) in [(false, "feature"), (true, "roadway"), (true, "none")] {
+            let p = match speed {
+                "roadway" => named(project(units, foot, ground), "Quarry_Spur"),
+                "none" => {
+                    let mut p = project(units, foot, ground);
+                    p.criteria.design_speed = None;
+                    p
+                }
+                _ => project(units, foot, ground),
+            };
+            let text = xml(&p);
+            let written = String::from_utf8_lossy(&text);
+            assert_eq!(written.contains("<Roadways>"), speed == "roadway", "{written}");
+            assert_eq!(written.contains(r#"label="designSpeed""#), speed == "feature", "{written}");
+            let path = dir.join(format!("{}-{foot:?}-{ground}-{speed}.xml", units.key()));
+            std::fs::write(&path, &text).unwrap_or_else(|e| panic!("{e}"));
             let run = std::process::Command::new("xmllint")
                 .arg("--noout")
                 .arg("--schema")
@@ -77,7 +100,7 @@ fn exports_validate_against_the_landxml_schema() {
             count += 1;
         }
     }
-    assert_eq!(count, 6);
+    assert_eq!(count, 9);
     // The check can fail: a ProfAlign without its required name does not validate.
     let bad = dir.join("no-name.xml");
     let text =
@@ -107,12 +130,71 @@ fn a_round_trip_gives_back_the_profile_and_the_ground() {
             assert_close(a.curve.length_out(), b.curve.length_out(), 1e-6, "length out");
         }
         assert!(matches!(read.pvis[2].curve, VerticalCurve::Unequal { .. }));
+        assert_eq!(read.design_speed, p.criteria.design_speed, "design speed in a Feature");
+        assert_eq!(read.project().criteria.design_speed, p.criteria.design_speed);
         assert_eq!(read.ground.len(), p.ground.len());
         for (a, b) in read.ground.iter().zip(p.ground.iter()) {
             assert_close(a.station, b.station, 1e-6, "ground station");
             assert_close(a.elevation, b.elevation, 1e-6, "ground elevation");
         }
     }
+}
+
+/// The design speed is written where LandXML 1.2 puts it (`Roadway`/
+/// `Speeds`/`DesignSpeed@speed`, km/h for Metric files and mph for
+/// Imperial ones, as the schema's `speed` type says) and read back, in the
+/// file's units or converted (1 mi = 1.609344 km exactly, the international
+/// mile); a file with none opens with none, and the reader says what it read.
+#[test]
+fn the_design_speed_goes_in_the_roadway_and_comes_back() {
+    let metric = named(project(Units::Metric, Foot::International, false), "Quarry_Spur");
+    let text = xml(&metric);
+    let written = String::from_utf8_lossy(&text);
+    assert!(
+        written.contains(r#"<Roadway name="Quarry_Spur" alignmentRefs="Quarry_Spur">"#)
+            && written.contains(r#"<DesignSpeed staStart="120" staEnd="1100" speed="80"/>"#),
+        "{written}"
+    );
+    let read = read_landxml(text.as_slice(), Path::new("r.xml"), &Selection::default(), None)
+        .unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(read.design_speed, Some(80.0));
+    assert!(read.notes.iter().any(|n| n.to_string().contains("design speed 80 km/h read from the file")));
+    // Into US customary: 80 km/h is 49.709... mph.
+    let us =
+        read_landxml(text.as_slice(), Path::new("r.xml"), &Selection::default(), Some(Units::UsCustomary))
+            .unwrap_or_else(|e| panic!("{e}"));
+    assert_close(us.design_speed.unwrap_or(f64::NAN), 80.0 / 1.609_344, 1e-12, "80 km/h in mph");
+    assert!(
+        us.notes
+            .iter()
+            .any(|n| n.to_string().contains("design speed 80 km/h read from the file (49.71 mph)")),
+        "{:?}",
+        us.notes.iter().map(ToString::to_string).collect::<Vec<_>>()
+    );
+    // An Imperial file read into metric: 50 mph is 80.4672 km/h.
+    let imperial = xml(&named(project(Units::UsCustomary, Foot::International, false), "Quarry_Spur"));
+    let m = read_landxml(imperial.as_slice(), Path::new("i.xml"), &Selection::default(), Some(Units::Metric))
+        .unwrap_or_else(|e| panic!("{e}"));
+    assert_close(m.design_speed.unwrap_or(f64::NAN), 80.4672, 1e-9, "50 mph in km/h");
+    // A file with no design speed opens with none (its checks then say so).
+    let mut none = metric.clone();
+    none.criteria.design_speed = None;
+    let read = read_landxml(xml(&none).as_slice(), Path::new("n.xml"), &Selection::default(), None)
+        .unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!((read.design_speed, read.project().criteria.design_speed), (None, None));
+    // A Roadway of another alignment is not this alignment's speed.
+    let other =
+        String::from_utf8_lossy(&text).replace(r#"alignmentRefs="Quarry_Spur""#, r#"alignmentRefs="Other""#);
+    let read = read_landxml(other.as_bytes(), Path::new("o.xml"), &Selection::default(), None)
+        .unwrap_or_else(|e| panic!("{e}"));
+    assert_eq!(read.design_speed, None);
+    // A speed that is no speed is an error naming the element.
+    let bad = String::from_utf8_lossy(&text).replace(r#"speed="80""#, r#"speed="-5""#);
+    let err = read_landxml(bad.as_bytes(), Path::new("b.xml"), &Selection::default(), None)
+        .err()
+        .map(|e| e.to_string())
+        .unwrap_or_default();
+    assert!(err.contains("b.xml") && err.contains("DesignSpeed@speed") && err.contains("-5"), "{err}");
 }
 
 /// A hand-written file in US survey feet: a crest at PVI 32+00.00, 842.60 ft,

@@ -115,7 +115,7 @@ pub fn text(
         "{}: {} PVIs, {units}, design speed {} {}",
         if project.name.is_empty() { "profile" } else { &project.name },
         project.pvis.len(),
-        criteria.design_speed,
+        gradewright_geometry::trimmed(criteria.design_speed, 2),
         units.speed_symbol()
     );
     for id in CriterionId::ALL {

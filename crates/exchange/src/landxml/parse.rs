@@ -4,7 +4,9 @@
 
 use std::path::Path;
 
-use gradewright_geometry::{Foot, GroundPoint, Pvi, Station, Units, VerticalCurve, excerpt, length_factor};
+use gradewright_geometry::{
+    Foot, GroundPoint, Pvi, Station, Units, VerticalCurve, excerpt, length_factor, speed_factor,
+};
 use roxmltree::{Document, Node};
 
 use super::NAMESPACE;
@@ -108,6 +110,60 @@ impl<'a> Parsed<'a> {
 
     pub(super) fn err(&self, node: Node<'_, '_>, field: &str, message: impl Into<String>) -> ReadError {
         ReadError::new(self.origin, line_of(&self.doc, node), field, message)
+    }
+
+    /// The design speed the file gives `alignment`: a `Roadway` referring to
+    /// it (`Speeds`/`DesignSpeed@speed`, the standard's place), else a
+    /// `Feature` of the alignment with a `Property` labelled `designSpeed`
+    /// (where a name holding spaces cannot be referred to). In km/h for a
+    /// Metric file and mph for an Imperial one, converted to `units`.
+    pub(super) fn design_speed(
+        &self,
+        alignment: &AlignmentNodes<'_, '_>,
+        units: Units,
+        notes: &mut Vec<Note>,
+    ) -> Result<Option<f64>, ReadError> {
+        let root = self.doc.root_element();
+        let refers = |refs: &str| {
+            refs.trim() == alignment.name || refs.split_whitespace().any(|r| r == alignment.name)
+        };
+        let roadway = root
+            .children()
+            .filter(|n| is(*n, "Roadways"))
+            .flat_map(|n| n.children())
+            .filter(|n| is(*n, "Roadway") && n.attribute("alignmentRefs").is_some_and(refers))
+            .flat_map(|n| n.children())
+            .filter(|n| is(*n, "Speeds"))
+            .flat_map(|n| n.children())
+            .find(|n| is(*n, "DesignSpeed") && n.attribute("speed").is_some());
+        let found = match roadway {
+            Some(node) => Some((self.attribute(node, "speed")?, node)),
+            None => {
+                let property =
+                    alignment.node.children().filter(|n| is(*n, "Feature")).flat_map(|n| n.children()).find(
+                        |n| {
+                            is(*n, "Property")
+                                && n.attribute("label").is_some_and(|l| l.eq_ignore_ascii_case("designSpeed"))
+                        },
+                    );
+                match property {
+                    Some(node) => Some((self.attribute(node, "value")?, node)),
+                    None => None,
+                }
+            }
+        };
+        let Some((speed, node)) = found else { return Ok(None) };
+        if speed <= 0.0 {
+            let field = format!("{}@speed", node.tag_name().name());
+            return Err(self.err(node, &field, format!("design speed {speed} is not a positive speed")));
+        }
+        // km/h and mph: the file's system, converted when read into the other.
+        let converted = speed * speed_factor(self.units.units, units);
+        notes.push(note(
+            self.origin,
+            NoteKind::DesignSpeed { speed, file_units: self.units.units, converted, units },
+        ));
+        Ok(Some(converted))
     }
 
     /// There is no alignment called `name`: the error lists those there are.

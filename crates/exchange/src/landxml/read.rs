@@ -43,6 +43,9 @@ pub struct LandXmlProfile {
     pub surface: Option<String>,
     /// The ground points, in station order.
     pub ground: Vec<GroundPoint>,
+    /// The design speed the file gives the alignment (km/h or mph, in the
+    /// units read), if it gives one.
+    pub design_speed: Option<f64>,
     /// What the reader wants the user to know: the units it read, what it
     /// converted, and every element it skipped.
     pub notes: Vec<Note>,
@@ -50,11 +53,12 @@ pub struct LandXmlProfile {
 
 impl LandXmlProfile {
     /// A new project of this profile and ground, named after the alignment,
-    /// in the units and foot read (criteria at their defaults: LandXML has
-    /// none).
+    /// in the units and foot read, with the file's design speed (the other
+    /// criteria at their defaults: LandXML has no place for them).
     pub fn project(&self) -> gradewright_document::Project {
         let mut project = gradewright_document::Project::new(self.alignment.clone(), self.units);
         project.foot = self.foot;
+        project.criteria.design_speed = self.design_speed;
         project.pvis.clone_from(&self.pvis);
         project.ground = self.ground.clone().into();
         project
@@ -119,6 +123,7 @@ pub fn read_landxml(
         Some((name, node)) => (Some(name.clone()), parsed.ground(*node, name, scale, &mut notes)?),
         None => (None, Vec::new()),
     };
+    let design_speed = parsed.design_speed(alignment, units, &mut notes)?;
     Ok(LandXmlProfile {
         units,
         foot,
@@ -128,6 +133,7 @@ pub fn read_landxml(
         lines,
         surface,
         ground,
+        design_speed,
         notes,
     })
 }

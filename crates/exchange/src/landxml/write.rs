@@ -3,7 +3,7 @@
 use std::io::Write;
 
 use gradewright_document::Project;
-use gradewright_geometry::{Foot, Units, VerticalCurve};
+use gradewright_geometry::{Foot, Units, VerticalCurve, trimmed};
 
 use super::NAMESPACE;
 
@@ -55,9 +55,7 @@ pub const GROUND_NAME: &str = "Existing ground";
 /// A number as LandXML text: at most six decimals (a micrometre or a
 /// millionth of a foot), no trailing zeros, never `-0`.
 fn number(value: f64) -> String {
-    let text = format!("{value:.6}");
-    let text = text.trim_end_matches('0').trim_end_matches('.');
-    if text == "-0" || text.is_empty() { "0".to_owned() } else { text.to_owned() }
+    trimmed(value, 6)
 }
 
 /// `text` escaped for an attribute value.
@@ -84,8 +82,10 @@ fn escape(text: &str) -> String {
 /// `ProfAlign` (`PVI` where there is no curve, `ParaCurve` for a
 /// symmetric curve, `UnsymParaCurve` for unequal tangents). Metric projects
 /// are written in metres; US customary ones in the project's foot
-/// (`foot` or `USSurveyFoot`). Control points and criteria have no LandXML
-/// element and stay in the project file.
+/// (`foot` or `USSurveyFoot`). The design speed goes in a `Roadway`'s
+/// `Speeds` (or a `Feature` of the alignment when its name holds spaces);
+/// control points and the other criteria have no LandXML element and stay
+/// in the project file.
 ///
 /// # Errors
 /// Any I/O error of `out`; `InvalidInput` for a project with no PVI.
@@ -163,8 +163,32 @@ pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> s
     }
     writeln!(w, "        </ProfAlign>")?;
     writeln!(w, "      </Profile>")?;
+    // The design speed: the standard's place is a Roadway referring to the
+    // alignment by name; a name holding spaces cannot be referred to (the
+    // reference is a list of names), so it goes in a Feature of the
+    // alignment then.
+    let speed = project.criteria.design_speed.filter(|v| v.is_finite() && *v > 0.0);
+    let by_reference = !name.chars().any(char::is_whitespace);
+    if let Some(v) = speed.filter(|_| !by_reference) {
+        writeln!(w, r#"      <Feature name="Design criteria">"#)?;
+        writeln!(w, r#"        <Property label="designSpeed" value="{}"/>"#, number(v))?;
+        writeln!(w, "      </Feature>")?;
+    }
     writeln!(w, "    </Alignment>")?;
     writeln!(w, "  </Alignments>")?;
+    if let Some(v) = speed.filter(|_| by_reference) {
+        writeln!(w, "  <Roadways>")?;
+        writeln!(w, r#"    <Roadway name="{}" alignmentRefs="{}">"#, escape(name), escape(name))?;
+        writeln!(
+            w,
+            r#"      <Speeds><DesignSpeed staStart="{}" staEnd="{}" speed="{}"/></Speeds>"#,
+            number(first.station.0),
+            number(last.station.0),
+            number(v)
+        )?;
+        writeln!(w, "    </Roadway>")?;
+        writeln!(w, "  </Roadways>")?;
+    }
     writeln!(w, "</LandXML>")?;
     w.flush()
 }

@@ -2,7 +2,7 @@
 //! user's own, with a reset to the computed value.
 
 use egui::RichText;
-use gradewright_geometry::{Area, CriterionId, RoadClass, Setting, Terrain};
+use gradewright_geometry::{Area, CriterionId, RoadClass, Setting, Terrain, trimmed};
 
 use super::View;
 use crate::gui::cell::{Cells, parse_number};
@@ -51,7 +51,7 @@ impl CriteriaPanel {
             ui.end_row();
 
             ui.label("Design speed");
-            let current = criteria.design_speed.map_or_else(String::new, |v| format!("{v}"));
+            let current = criteria.design_speed.map_or_else(String::new, |v| trimmed(v, 4));
             let id = Cell::DesignSpeed;
             if let Some(text) = self.cells.edit(ui, id, &current, 60.0, "Design speed value") {
                 let parsed = parse_number(&text).and_then(|v| {
@@ -207,7 +207,5 @@ impl CriteriaPanel {
 
 /// A value without trailing zeros (for showing computed criteria).
 fn trim(v: f64) -> String {
-    let text = format!("{v:.4}");
-    let text = text.trim_end_matches('0').trim_end_matches('.');
-    text.to_owned()
+    trimmed(v, 4)
 }
