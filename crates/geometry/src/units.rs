@@ -216,6 +216,6 @@ mod tests {
     fn speeds_convert_by_the_international_mile() {
         assert!((50.0 * speed_factor(Units::UsCustomary, Units::Metric) - 80.4672).abs() < 1e-12);
         assert!((speed_factor(Units::Metric, Units::UsCustomary) * KM_PER_MILE - 1.0).abs() < 1e-15);
-        assert_eq!(speed_factor(Units::Metric, Units::Metric), 1.0);
+        assert_eq!(speed_factor(Units::Metric, Units::Metric).to_bits(), 1.0_f64.to_bits());
     }
 }
