@@ -247,3 +247,22 @@ fn earthwork_totals_name_the_stations_they_cover() {
     assert_eq!(code, Some(0), "{err}");
     assert!(err.contains("from 0+000.000 to 2+000.000 (where the ground covers the profile)"), "{err}");
 }
+
+/// A sheet drawn with the checks off (no design speed) says so where the
+/// findings count would be: "0 fail, 0 warn" would read as a pass.
+#[test]
+fn a_sheet_whose_checks_did_not_run_says_not_checked() {
+    let mut project = Project::load(&demo()).unwrap_or_else(|e| panic!("{e}"));
+    let options = gradewright_draw::SheetOptions::default();
+    let checked = gradewright_draw::sheet_svgs(&Analysis::of(&project.design()), &options)
+        .unwrap_or_else(|e| panic!("{e}"))
+        .concat();
+    assert!(checked.contains("Findings: ") && !checked.contains("NOT CHECKED"));
+    project.criteria.design_speed = None;
+    let sheets = gradewright_draw::sheet_svgs(&Analysis::of(&project.design()), &options)
+        .unwrap_or_else(|e| panic!("{e}"));
+    for svg in &sheets {
+        assert!(svg.contains("NOT CHECKED: no design speed is set; no curve, grade or sight check has run"));
+        assert!(!svg.contains("Findings: 0 fail"), "a count that reads as a pass");
+    }
+}

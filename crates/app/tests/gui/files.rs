@@ -245,6 +245,45 @@ fn a_landxml_file_opens_as_a_new_project_and_exports_back() {
     assert_eq!(h.state().project().ground, project.ground);
 }
 
+/// A LandXML file with no design speed opens with its checks off, and
+/// nothing reads as a pass: each PVI row says "not checked: no design speed"
+/// (never "✔ ok"), the findings say no check has run; entering the speed
+/// checks the rows.
+#[test]
+fn a_profile_without_a_design_speed_is_not_shown_as_passing() {
+    let text = landxml(
+        false,
+        r#"    <Alignment name="Wren Gap Road" staStart="0" length="900">
+      <Profile>
+        <ProfAlign name="Proposed">
+          <PVI>0 100</PVI>
+          <ParaCurve length="150">400 108</ParaCurve>
+          <PVI>900 101.5</PVI>
+        </ProfAlign>
+      </Profile>
+    </Alignment>
+"#,
+    );
+    let mut h = demo();
+    h.state_mut().push(Action::Open(Some(site_file("wren-gap.xml", &text))));
+    h.run();
+    assert_eq!(h.state().project().criteria.design_speed, None);
+    assert_eq!(h.query_all_by_label("○ not checked: no design speed").count(), 3, "every row");
+    assert_eq!(h.query_all_by_label("✔ ok").count(), 0, "no row reads as passed");
+    assert!(
+        h.query_by_label("⚠ Not checked: no design speed is set. No curve, grade or sight check has run.")
+            .is_some()
+    );
+    // The speed entered, the rows are checked: +2.0 % to −1.3 %, K =
+    // 150/3.3 = 45.5 ≥ 26, the crest minimum at 80 km/h (Green Book 2018
+    // Table 3-34, from memory), so every row passes.
+    replace_text(&mut h, "Design speed value", "80");
+    assert_eq!(h.state().project().criteria.design_speed, Some(80.0));
+    assert_eq!(h.query_all_by_label("○ not checked: no design speed").count(), 0);
+    assert_eq!(h.query_all_by_label("✔ ok").count(), 3, "every row checked and passing");
+    assert!(h.query_by_label_contains("Not checked").is_none());
+}
+
 /// `gradewright edit FILE.xml` starts on the LandXML file's profile.
 #[test]
 fn the_editor_starts_on_a_landxml_file() {

@@ -190,12 +190,20 @@ pub(super) fn findings(analysis: &Analysis, paper: (f64, f64), page: &Page, drop
     findings
         .sort_by(|a, b| b.severity().cmp(&a.severity()).then(a.station_start.total_cmp(&b.station_start)));
     let fails = findings.iter().filter(|f| f.fails()).count();
+    // A sheet whose checks did not run says so where the count would be: a
+    // count of no failures would read as a pass.
+    let (heading, colour) = match &analysis.criteria {
+        Err(why) => (format!("NOT CHECKED: {why}; no curve, grade or sight check has run"), ACCENT),
+        Ok(_) => (format!("Findings: {fails} fail, {} warn", findings.len() - fails), "#000"),
+    };
     out.push(
-        Element::text(format!("Findings: {fails} fail, {} warn", findings.len() - fails))
+        Element::text(heading)
+            .a("class", "FindingsHeading")
             .a("x", mm(MARGIN + 2.0))
             .a("y", mm(block_y + 4.0))
             .a("font-size", TEXT)
-            .a("font-weight", "bold"),
+            .a("font-weight", "bold")
+            .a("fill", colour),
     );
     let rows = 9;
     #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]

@@ -18,6 +18,15 @@ pub fn findings_ui(ui: &mut egui::Ui, view: &mut View<'_>) {
     let units = doc.project().units;
     let findings = &doc.analysis().report.findings;
     let count = |s| findings.iter().filter(|f| f.severity() == s).count();
+    if let Err(why) = &doc.analysis().criteria {
+        // No count of failures may read as a pass when nothing was checked.
+        ui.label(
+            RichText::new(format!("⚠ Not checked: {why}. No curve, grade or sight check has run."))
+                .color(palette.warn)
+                .strong(),
+        );
+        ui.label(RichText::new("Enter the design speed under Criteria to check the profile.").weak());
+    }
     ui.label(format!(
         "{} fail · {} warn · {} info",
         count(Severity::Fail),

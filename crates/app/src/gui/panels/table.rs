@@ -2,7 +2,9 @@
 //! derived grades, A, K, minimum K, required length and status.
 
 use egui::RichText;
-use gradewright_geometry::{Pvi, Severity, Station, VerticalCurve, format_station, parse_station};
+use gradewright_geometry::{
+    CriteriaError, Pvi, Severity, Station, VerticalCurve, format_station, parse_station,
+};
 
 use super::View;
 use crate::gui::cell::{Cells, parse_length, parse_number};
@@ -55,6 +57,21 @@ pub fn status_text(worst: Option<Severity>, palette: Palette) -> RichText {
         Some(Severity::Info) => RichText::new("ℹ info").color(palette.text),
         None => RichText::new("✔ ok").color(palette.ok),
     }
+}
+
+/// What "not checked" says of why, in a word or two (the full reason is
+/// the findings panel's and the hover's).
+pub fn unchecked_words(why: &CriteriaError) -> &'static str {
+    match why {
+        CriteriaError::NoDesignSpeed => "no design speed",
+        CriteriaError::BadDesignSpeed(_) => "design speed unusable",
+        CriteriaError::BadOverride { .. } => "a criterion unusable",
+    }
+}
+
+/// The status of a row whose design checks did not run: never "ok".
+fn unchecked_text(why: &CriteriaError, palette: Palette) -> RichText {
+    RichText::new(format!("○ not checked: {}", unchecked_words(why))).color(palette.warn)
 }
 
 fn optional(value: Option<f64>, decimals: usize) -> String {
@@ -364,7 +381,16 @@ impl TablePanel {
         let messages: Vec<String> =
             analysis.findings_at(i).map(|f| format!("[{}] {}", f.severity().key(), f.message)).collect();
         let worst = analysis.worst_at(i);
-        let status = ui.label(status_text(worst, palette));
+        // With the criteria off only the profile's own problems were looked
+        // for: a row without one was not checked, not passed.
+        let unchecked =
+            analysis.criteria.as_ref().err().filter(|_| !worst.is_some_and(|w| w > Severity::Info));
+        let status = match unchecked {
+            Some(why) => ui.label(unchecked_text(why, palette)).on_hover_text(format!(
+                "Not checked: {why}. Enter it under Criteria to check this row's curve and grades."
+            )),
+            None => ui.label(status_text(worst, palette)),
+        };
         if !messages.is_empty() {
             status.on_hover_text(messages.join("\n"));
         }
