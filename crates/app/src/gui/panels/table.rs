@@ -384,7 +384,7 @@ impl TablePanel {
         // With the criteria off only the profile's own problems were looked
         // for: a row without one was not checked, not passed.
         let unchecked =
-            analysis.criteria.as_ref().err().filter(|_| !worst.is_some_and(|w| w > Severity::Info));
+            analysis.criteria.as_ref().err().filter(|_| worst.is_none_or(|w| w <= Severity::Info));
         let status = match unchecked {
             Some(why) => ui.label(unchecked_text(why, palette)).on_hover_text(format!(
                 "Not checked: {why}. Enter it under Criteria to check this row's curve and grades."
