@@ -7,7 +7,7 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_document::{Project, write_atomic};
+use gradewright_document::{Project, TableDecimals, write_atomic};
 use gradewright_draw::{SheetOptions, SheetSize, TitleBlock};
 use gradewright_geometry::Analysis;
 
@@ -36,6 +36,8 @@ pub struct Request {
     pub overlap: f64,
     /// Station interval of stations.csv.
     pub interval: Option<f64>,
+    /// How the tables round their numbers.
+    pub decimals: TableDecimals,
     /// Title block fields (the project name is filled in from the project).
     pub title: TitleBlock,
     /// Whether the sheet carries the sight-distance band.
@@ -64,6 +66,8 @@ pub enum Field {
     Overlap,
     /// The station interval of the tables.
     Interval,
+    /// The decimals of the tables.
+    Decimals,
     /// The PNG file.
     Png,
     /// The SVG file.
@@ -161,7 +165,7 @@ fn check_folder(dir: &Path) -> Result<(), PlanError> {
     let fail = |problem| Err(PlanError::Path { field: Field::Tables, path: dir.to_owned(), problem });
     match std::fs::metadata(dir) {
         Ok(meta) if meta.is_dir() => {
-            for name in ["stations.csv", "curves.csv", "findings.csv"] {
+            for name in ["stations.csv", "curves.csv", "findings.csv", "earthwork.csv"] {
                 check_file(Field::Tables, &dir.join(name))?;
             }
             Ok(())
@@ -204,6 +208,11 @@ pub fn plan(request: &Request) -> Result<Plan, PlanError> {
         && !(v.is_finite() && v > 0.0)
     {
         return value(Field::Interval, format!("the station interval must be a positive number (got {v})"));
+    }
+    if let TableDecimals::Fixed(n) = request.decimals
+        && n > TableDecimals::MAX
+    {
+        return value(Field::Decimals, format!("{n} decimals is more than {}", TableDecimals::MAX));
     }
     let files = [
         (Field::Png, &request.png),
@@ -320,14 +329,21 @@ pub fn render(
         let Some(alignment) = analysis.alignment.as_ref() else { return Err(RenderError::Unusable) };
         let interval = request.interval.unwrap_or(project.units.table_interval());
         let stations = gradewright_exchange::interval_stations(alignment, interval);
+        let rounding = gradewright_exchange::Rounding::of(request.decimals, project.units);
         let mut buffer = Vec::new();
-        gradewright_exchange::write_stations_csv(&mut buffer, alignment, &analysis.ground, &stations)?;
+        gradewright_exchange::write_stations_csv(
+            &mut buffer,
+            alignment,
+            &analysis.ground,
+            &stations,
+            rounding,
+        )?;
         files.push((dir.join("stations.csv"), buffer));
         let mut buffer = Vec::new();
-        gradewright_exchange::write_curves_csv(&mut buffer, analysis)?;
+        gradewright_exchange::write_curves_csv(&mut buffer, analysis, rounding)?;
         files.push((dir.join("curves.csv"), buffer));
         let mut buffer = Vec::new();
-        gradewright_exchange::write_findings_csv(&mut buffer, analysis)?;
+        gradewright_exchange::write_findings_csv(&mut buffer, analysis, rounding)?;
         files.push((dir.join("findings.csv"), buffer));
         // The level-section earthwork, when the project sets a section.
         if let Some(section) = &project.section
@@ -335,7 +351,7 @@ pub fn render(
         {
             let estimate = gradewright_geometry::earthwork(alignment, &analysis.ground, section, interval)?;
             let mut buffer = Vec::new();
-            gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate)?;
+            gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate, rounding)?;
             files.push((dir.join("earthwork.csv"), buffer));
         }
     }

@@ -128,18 +128,23 @@ fn the_demo_sheet_in_every_format() {
         (numbers[2] - 1224.0).abs() < 0.01 && (numbers[3] - 792.0).abs() < 0.01,
         "17 × 11 in in points: {media}"
     );
-    // CSV read back: every curve value equals the geometry crate's.
+    // CSV read back: every curve value is the geometry crate's, rounded as a
+    // plan shows it (0.001 m; K to 0.1).
+    let near = |got: Option<f64>, want: Option<f64>, half: f64| match (got, want) {
+        (Some(g), Some(w)) => (g - w).abs() <= half + 1e-9,
+        (g, w) => g.is_none() && w.is_none(),
+    };
     let mut curves = csv::Reader::from_path(csv.join("curves.csv")).unwrap_or_else(|e| panic!("{e}"));
     let headers = curves.headers().unwrap_or_else(|e| panic!("{e}")).clone();
     let col = |name: &str| headers.iter().position(|h| h == name).unwrap_or_else(|| panic!("{name}"));
     for (i, row) in curves.records().enumerate() {
         let row = row.unwrap_or_else(|e| panic!("{e}"));
         let number = |name: &str| row.get(col(name)).and_then(|v| v.parse::<f64>().ok());
-        assert_eq!(number("station_m"), Some(project.pvis[i].station.0));
+        assert!(near(number("station_m"), Some(project.pvis[i].station.0), 0.0005));
         if let Some(check) = analysis.report.curves.iter().find(|c| c.curve.index == i) {
-            assert_eq!(number("k_m_per_percent"), check.curve.k());
-            assert_eq!(number("length_required_m"), Some(check.length_required));
-            assert_eq!(number("pvc_station_m"), Some(check.curve.pvc.0));
+            assert!(near(number("k_m_per_percent"), check.curve.k(), 0.05), "K of PVI {}", i + 1);
+            assert!(near(number("length_required_m"), Some(check.length_required), 0.0005));
+            assert!(near(number("pvc_station_m"), Some(check.curve.pvc.0), 0.0005));
         }
     }
     let findings =
@@ -264,5 +269,112 @@ fn a_sheet_whose_checks_did_not_run_says_not_checked() {
     for svg in &sheets {
         assert!(svg.contains("NOT CHECKED: no design speed is set; no curve, grade or sight check has run"));
         assert!(!svg.contains("Findings: 0 fail"), "a count that reads as a pass");
+    }
+}
+
+/// Every number of a hand-over table, column by column: how many decimals
+/// it has.
+fn decimals_by_column(path: &Path) -> Vec<(String, std::collections::BTreeSet<usize>)> {
+    let mut reader = csv::Reader::from_path(path).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+    let headers: Vec<String> =
+        reader.headers().unwrap_or_else(|e| panic!("{e}")).iter().map(str::to_owned).collect();
+    let mut seen = vec![std::collections::BTreeSet::new(); headers.len()];
+    for row in reader.records() {
+        let row = row.unwrap_or_else(|e| panic!("{e}"));
+        for (k, field) in row.iter().enumerate() {
+            if field.parse::<f64>().is_ok() && !field.contains('+') {
+                seen[k].insert(field.split_once('.').map_or(0, |(_, d)| d.len()));
+            }
+        }
+    }
+    headers.into_iter().zip(seen).collect()
+}
+
+/// The hand-over tables carry what a plan shows, not float noise: a curve of
+/// +2.5 % to −1.0 % over 120 m (K = 120/3.5 = 34.2857…, written 34.3, the
+/// grade −1.000, not −1.0000000000000029), stations and elevations to
+/// 0.001 m, grades to 0.001 %, K and quantities to 0.1; the unit in every
+/// column of earthwork.csv (m², m³; ft², yd³ in US units), the mass in
+/// compacted measure. `--decimals exact` gives the unrounded numbers,
+/// `--decimals N` N decimals everywhere; a count over 15 is refused.
+#[test]
+fn hand_over_tables_are_rounded_as_a_plan_shows() {
+    let dir = scratch("rounded");
+    let tables = dir.join("plan");
+    let (code, _, err) = run(&["export", &s(&demo()), "--csv-dir", &s(&tables)]);
+    assert_eq!(code, Some(1), "{err}");
+    let expected = |name: &str| -> Option<usize> {
+        match name {
+            "pvi" => Some(0),
+            n if n.starts_with("k_") => Some(1),
+            n if n.contains("percent") => Some(3),
+            n if n.ends_with("_m2") || n.ends_with("_m3") => Some(1),
+            n if n.ends_with("_m") => Some(3),
+            _ => None,
+        }
+    };
+    for table in ["stations.csv", "curves.csv", "findings.csv", "earthwork.csv"] {
+        for (column, seen) in decimals_by_column(&tables.join(table)) {
+            if let Some(d) = expected(&column) {
+                assert!(seen.iter().all(|&s| s == d), "{table} {column}: decimals {seen:?}, want {d}");
+            } else {
+                assert!(seen.is_empty(), "{table} {column} holds numbers: {seen:?}");
+            }
+        }
+    }
+    let curves = std::fs::read_to_string(tables.join("curves.csv")).unwrap_or_default();
+    assert!(
+        curves.contains(
+            "2,320.000,0+320.000,220.400,2.500,-1.000,crest,120.000,60.000,60.000,3.500,34.3,34.3,26.0,"
+        ),
+        "{curves}"
+    );
+    let earthwork = std::fs::read_to_string(tables.join("earthwork.csv")).unwrap_or_default();
+    assert!(
+        earthwork.starts_with(
+            "station_m,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3\n"
+        ),
+        "{earthwork}"
+    );
+    // Exact: the float as computed.
+    let exact = dir.join("exact");
+    let (code, _, err) = run(&["export", &s(&demo()), "--csv-dir", &s(&exact), "--decimals", "exact"]);
+    assert_eq!(code, Some(1), "{err}");
+    let curves = std::fs::read_to_string(exact.join("curves.csv")).unwrap_or_default();
+    assert!(curves.contains(&format!(",{},", 120.0 / 3.5)) || curves.contains(",34.28571428571"), "{curves}");
+    // Two decimals everywhere.
+    let two = dir.join("two");
+    let (code, _, err) = run(&["export", &s(&demo()), "--csv-dir", &s(&two), "--decimals", "2"]);
+    assert_eq!(code, Some(1), "{err}");
+    for (column, seen) in decimals_by_column(&two.join("curves.csv")) {
+        if column != "pvi" {
+            assert!(seen.iter().all(|&d| d == 2), "{column}: {seen:?}");
+        }
+    }
+    // Refused before anything is written.
+    let none = dir.join("none");
+    let (code, _, err) = run(&["export", &s(&demo()), "--csv-dir", &s(&none), "--decimals", "16"]);
+    assert_eq!(code, Some(2));
+    assert!(err.contains("--decimals") && err.contains("'16'"), "{err}");
+    assert!(!none.exists());
+    // US customary: ft², yd³ and 0.01 ft.
+    let us = dir.join("us.ron");
+    let mut project = Project::load(&demo()).unwrap_or_else(|e| panic!("{e}"));
+    project.units = gradewright_geometry::Units::UsCustomary;
+    project.criteria.design_speed = Some(50.0);
+    std::fs::write(&us, project.to_ron().unwrap_or_default()).unwrap_or_else(|e| panic!("{e}"));
+    let us_tables = dir.join("us");
+    let (_, _, err) = run(&["export", &s(&us), "--csv-dir", &s(&us_tables)]);
+    let earthwork = std::fs::read_to_string(us_tables.join("earthwork.csv")).unwrap_or_default();
+    assert!(
+        earthwork.starts_with(
+            "station_ft,cut_area_ft2,fill_area_ft2,cut_volume_yd3,fill_volume_yd3,mass_compacted_yd3\n"
+        ),
+        "{err}{earthwork}"
+    );
+    for (column, seen) in decimals_by_column(&us_tables.join("stations.csv")) {
+        if column.ends_with("_ft") {
+            assert!(seen.iter().all(|&d| d == 2), "{column}: {seen:?}");
+        }
     }
 }

@@ -11,5 +11,5 @@ mod write;
 
 pub use error::{FileError, LooksLike, Unwritable};
 pub use project::{FORMAT_VERSION, Project, pvi_position};
-pub use settings::{ExportSettings, Snap};
+pub use settings::{ExportSettings, Snap, TableDecimals};
 pub use write::write_atomic;

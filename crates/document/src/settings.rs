@@ -78,6 +78,49 @@ pub struct ExportSettings {
     pub interval: Option<f64>,
     /// Folder for File ▸ Export tables… (empty: beside the project file).
     pub tables_path: String,
+    /// How the tables round their numbers.
+    pub decimals: TableDecimals,
+}
+
+/// How the hand-over tables round their numbers.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(try_from = "DecimalsAsWritten")]
+pub enum TableDecimals {
+    /// As a plan shows them: stations, lengths and elevations to 0.001 m or
+    /// 0.01 ft, grades to 0.001 %, K to 0.1, areas and volumes to 0.1
+    /// (common practice).
+    #[default]
+    Plan,
+    /// Every number to this many decimals (0 to 15).
+    Fixed(u8),
+    /// Unrounded: the shortest text that reads back to the same number.
+    Exact,
+}
+
+impl TableDecimals {
+    /// The most decimals [`TableDecimals::Fixed`] may ask for.
+    pub const MAX: u8 = 15;
+}
+
+/// [`TableDecimals`] as a file writes it, before the count is checked.
+#[derive(Deserialize)]
+enum DecimalsAsWritten {
+    Plan,
+    Fixed(u8),
+    Exact,
+}
+
+impl TryFrom<DecimalsAsWritten> for TableDecimals {
+    type Error = String;
+
+    fn try_from(value: DecimalsAsWritten) -> Result<Self, Self::Error> {
+        match value {
+            DecimalsAsWritten::Plan => Ok(Self::Plan),
+            DecimalsAsWritten::Exact => Ok(Self::Exact),
+            DecimalsAsWritten::Fixed(n) if n <= Self::MAX => Ok(Self::Fixed(n)),
+            DecimalsAsWritten::Fixed(n) => Err(format!("decimals: {n} is more than {}", Self::MAX)),
+        }
+    }
 }
 
 impl Default for ExportSettings {
@@ -101,6 +144,7 @@ impl Default for ExportSettings {
             path: String::new(),
             interval: None,
             tables_path: String::new(),
+            decimals: TableDecimals::Plan,
         }
     }
 }
@@ -108,5 +152,23 @@ impl Default for ExportSettings {
 impl ExportSettings {
     pub(crate) fn is_default(&self) -> bool {
         *self == Self::default()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn table_decimals_round_trip_and_refuse_too_many() {
+        for d in
+            [TableDecimals::Plan, TableDecimals::Exact, TableDecimals::Fixed(0), TableDecimals::Fixed(15)]
+        {
+            let text = ron::to_string(&d).unwrap_or_default();
+            assert_eq!(ron::from_str::<TableDecimals>(&text).ok(), Some(d), "{text}");
+        }
+        let err =
+            ron::from_str::<TableDecimals>("Fixed(16)").err().map(|e| e.to_string()).unwrap_or_default();
+        assert!(err.contains("16 is more than 15"), "{err}");
     }
 }

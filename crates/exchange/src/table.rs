@@ -2,7 +2,7 @@
 
 use std::io::Write;
 
-use gradewright_geometry::{Alignment, Earthwork, Ground, Profile, Station, format_station};
+use gradewright_geometry::{Alignment, Ground, Profile, Station, format_station};
 
 /// The header of a station table.
 pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "grade_percent"];
@@ -10,10 +10,6 @@ pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "g
 /// The columns a station table gains after [`TABLE_HEADER`] when the
 /// project has ground (depths ≥ 0; empty where there is no ground).
 pub const GROUND_COLUMNS: [&str; 3] = ["ground_elevation", "cut", "fill"];
-
-/// The header of an earthwork table.
-pub const EARTHWORK_HEADER: [&str; 6] =
-    ["station", "cut_area", "fill_area", "cut_volume", "fill_volume", "mass"];
 
 /// Stations on every whole multiple of `interval` (plan stationing: 12+50,
 /// 13+00, … on a road starting at 12+34.56), plus both ends and every PVC,
@@ -235,26 +231,6 @@ pub enum TableError {
     /// The profile has a problem (check it first).
     #[error("the profile has problems")]
     Invalid,
-}
-
-/// Writes an earthwork estimate, one row per station of it (the extra
-/// stations included): end areas, the volumes of the interval ending at the
-/// row (0 on the first row) and the mass ordinate, unrounded.
-///
-/// # Errors
-/// A value that is not finite, or an I/O error of `out`.
-pub fn write_earthwork_csv(out: impl Write, earthwork: &Earthwork) -> Result<(), TableError> {
-    let mut csv = csv::Writer::from_writer(out);
-    csv.write_record(EARTHWORK_HEADER)?;
-    for r in &earthwork.rows {
-        let values = [r.station, r.cut_area, r.fill_area, r.cut_volume, r.fill_volume, r.mass];
-        if !values.iter().all(|v| v.is_finite()) {
-            return Err(TableError::NotFinite { station: r.station });
-        }
-        csv.write_record(values.map(|v| number(v, None)))?;
-    }
-    csv.flush()?;
-    Ok(())
 }
 
 /// The header of a sight-distance table.

@@ -5,6 +5,7 @@
 use std::path::PathBuf;
 
 use clap::{Parser, Subcommand, ValueEnum};
+use gradewright_document::TableDecimals;
 use gradewright_geometry::Units;
 
 /// Gradewright: design the vertical profile of a road.
@@ -205,6 +206,26 @@ pub struct EarthworkArgs {
     /// Station interval (default 20 m or 50 ft); grade points, PVCs, PVIs and PVTs are added
     #[arg(long, allow_negative_numbers = true)]
     pub interval: Option<f64>,
+    /// Numbers: exact (unrounded, the default), plan (stations to 0.001 m or 0.01 ft, areas and volumes to
+    /// 0.1) or N decimals (0 to 15)
+    #[arg(long, value_name = "plan|N|exact", value_parser = table_decimals, allow_hyphen_values = true)]
+    pub decimals: Option<TableDecimals>,
+}
+
+/// `--decimals` of the hand-over tables: `plan`, `exact` or a number of
+/// decimals from 0 to 15.
+fn table_decimals(text: &str) -> Result<TableDecimals, String> {
+    match text.trim() {
+        "plan" => Ok(TableDecimals::Plan),
+        "exact" => Ok(TableDecimals::Exact),
+        n => match n.parse::<u8>() {
+            Ok(n) if n <= TableDecimals::MAX => Ok(TableDecimals::Fixed(n)),
+            _ => Err(format!(
+                "'{text}' is not plan, exact or a number of decimals from 0 to {}",
+                TableDecimals::MAX
+            )),
+        },
+    }
 }
 
 /// `export`.
@@ -246,6 +267,11 @@ pub struct ExportArgs {
     /// Station interval of stations.csv (default 20 m or 50 ft)
     #[arg(long, allow_negative_numbers = true)]
     pub interval: Option<f64>,
+    /// Numbers in the tables: plan (stations and elevations to 0.001 m or 0.01 ft, grades to 0.001 %, K and
+    /// quantities to 0.1), N decimals (0 to 15) for every number, or exact (unrounded); default: the
+    /// project's choice, plan unless changed in the editor
+    #[arg(long, value_name = "plan|N|exact", value_parser = table_decimals, allow_hyphen_values = true)]
+    pub decimals: Option<TableDecimals>,
     /// Title block: road or section
     #[arg(long, default_value = "")]
     pub road: String,

@@ -3,6 +3,7 @@
 use std::process::ExitCode;
 
 use anyhow::{anyhow, bail};
+use gradewright_document::TableDecimals;
 use gradewright_geometry::{EarthworkError, Section, SectionField};
 
 use super::args::EarthworkArgs;
@@ -46,7 +47,9 @@ pub fn run(run: &mut Run, args: &EarthworkArgs) -> anyhow::Result<ExitCode> {
     let estimate = gradewright_geometry::earthwork(&alignment, &project.ground, &section, interval)
         .map_err(|e| anyhow!("{}: {e}", input.display()))?;
     let mut buffer = Vec::new();
-    gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate)
+    let rounding =
+        gradewright_exchange::Rounding::of(args.decimals.unwrap_or(TableDecimals::Exact), project.units);
+    gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate, rounding)
         .map_err(|e| anyhow!("{}: {e}", input.display()))?;
     print(&buffer)?;
     let vol = gradewright_geometry::volume_symbol(project.units);

@@ -26,6 +26,7 @@ pub fn run(run: &mut Run, args: &ExportArgs) -> anyhow::Result<ExitCode> {
         v_scale: args.v_scale,
         overlap: args.overlap,
         interval: args.interval,
+        decimals: args.decimals.unwrap_or_default(),
         title: gradewright_draw::TitleBlock {
             project: String::new(),
             road: args.road.clone(),
@@ -41,6 +42,8 @@ pub fn run(run: &mut Run, args: &ExportArgs) -> anyhow::Result<ExitCode> {
     let plan = crate::export::plan(&request).map_err(plan_error)?;
     let input = &args.source.input;
     let mut loaded = run.load(&args.source)?;
+    // Without --decimals, the tables round as the project chose.
+    let request = Request { decimals: args.decimals.unwrap_or(loaded.project.export.decimals), ..request };
     let criteria = resolve(&mut loaded.project, speed, input)?;
     if let Some(problem) = loaded.project.profile().problems().into_iter().next() {
         bail!("{}: {problem}", loaded.locate(&problem));

@@ -185,6 +185,7 @@ fn option_of(field: Field) -> &'static str {
         Field::VScale => "--v-scale",
         Field::Overlap => "--overlap",
         Field::Interval => "--interval",
+        Field::Decimals => "--decimals",
         Field::Png => "--png",
         Field::Svg => "--svg",
         Field::Pdf => "--pdf",

@@ -136,8 +136,9 @@ fn export_window_previews_and_writes_the_sheet() {
     assert!(text.contains("designer: \"Q. Checker\""), "the choices are saved with the project");
 }
 
-/// File ▸ Export tables…: only the three tables are written, at the interval
-/// chosen, into the folder chosen (made when it does not exist).
+/// File ▸ Export tables…: only the tables are written, at the interval
+/// chosen, into the folder chosen (made when it does not exist), rounded as
+/// chosen.
 #[test]
 fn export_tables_writes_only_the_tables() {
     let dir = std::env::temp_dir().join(format!("gradewright-gui-tables-{}", std::process::id()));
@@ -173,6 +174,19 @@ fn export_tables_writes_only_the_tables() {
     let expected = gradewright_exchange::interval_stations(alignment, 50.0).len();
     let mut reader = csv::Reader::from_path(folder.join("stations.csv")).unwrap_or_else(|e| panic!("{e}"));
     assert_eq!(reader.records().count(), expected);
+    // Rounded as a plan shows them by default (the choice is in the window);
+    // a fixed count of decimals chosen there is what is written.
+    let curves = std::fs::read_to_string(folder.join("curves.csv")).unwrap_or_default();
+    assert!(curves.contains(",34.3,34.3,26.0,"), "{curves}");
+    h.get_by_label("Numbers in the tables").click();
+    h.run();
+    h.get_by_label("A fixed number of decimals").click();
+    h.run();
+    assert_eq!(h.state().project().export.decimals, gradewright_document::TableDecimals::Fixed(3));
+    h.get_by_label("Write tables").click();
+    h.run();
+    let curves = std::fs::read_to_string(folder.join("curves.csv")).unwrap_or_default();
+    assert!(curves.contains(",34.286,34.286,26.000,"), "{curves}");
     let _ = std::fs::remove_dir_all(&dir);
 }
 

@@ -4,7 +4,7 @@
 use std::path::{Path, PathBuf};
 
 use egui::RichText;
-use gradewright_document::ExportSettings;
+use gradewright_document::{ExportSettings, TableDecimals};
 
 use crate::export::{Field, PlanError};
 use crate::gui::command::{Action, Edit};
@@ -30,6 +30,7 @@ fn label_of(field: Field) -> &'static str {
         Field::VScale => "Vertical scale",
         Field::Overlap => "Overlap between sheets",
         Field::Interval => "Stations table every",
+        Field::Decimals => "Numbers in the tables",
         Field::Png | Field::Svg | Field::Pdf => "Write to",
         Field::Tables => "Tables folder",
         Field::LandXml => "LandXML file",
@@ -89,6 +90,7 @@ pub fn request(settings: &ExportSettings, base: &std::path::Path) -> crate::expo
         v_scale: settings.v_scale,
         overlap: settings.overlap,
         interval: settings.interval,
+        decimals: settings.decimals,
         title: gradewright_draw::TitleBlock {
             project: String::new(),
             road: settings.road.clone(),
@@ -142,6 +144,42 @@ fn interval_ui(ui: &mut egui::Ui, settings: &mut ExportSettings, units: gradewri
     ui.end_row();
 }
 
+/// How the tables round their numbers: as on a plan (the default), a fixed
+/// number of decimals, or exact.
+fn decimals_ui(ui: &mut egui::Ui, settings: &mut ExportSettings, units: gradewright_geometry::Units) {
+    let name = ui.label("Numbers in the tables");
+    let plan = match units {
+        gradewright_geometry::Units::Metric => "As on a plan: 0.001 m, 0.001 %, K and quantities 0.1",
+        gradewright_geometry::Units::UsCustomary => "As on a plan: 0.01 ft, 0.001 %, K and quantities 0.1",
+    };
+    let shown = match settings.decimals {
+        TableDecimals::Plan => plan.to_owned(),
+        TableDecimals::Fixed(n) => format!("{n} decimals for every number"),
+        TableDecimals::Exact => "Exact: unrounded".to_owned(),
+    };
+    ui.horizontal(|ui| {
+        let combo = egui::ComboBox::from_id_salt("table-decimals").selected_text(shown).width(340.0).show_ui(
+            ui,
+            |ui| {
+                ui.selectable_value(&mut settings.decimals, TableDecimals::Plan, plan);
+                let fixed = matches!(settings.decimals, TableDecimals::Fixed(_));
+                if ui.selectable_label(fixed, "A fixed number of decimals").clicked() && !fixed {
+                    settings.decimals = TableDecimals::Fixed(3);
+                }
+                ui.selectable_value(&mut settings.decimals, TableDecimals::Exact, "Exact: unrounded");
+            },
+        );
+        let _ = combo.response.labelled_by(name.id).on_hover_text(
+            "Stations, lengths and elevations; grades; K; areas and volumes. \
+             Exact writes the shortest text that reads back to the same number.",
+        );
+        if let TableDecimals::Fixed(n) = &mut settings.decimals {
+            let _ = ui.add(egui::DragValue::new(n).range(0..=TableDecimals::MAX).suffix(" decimals"));
+        }
+    });
+    ui.end_row();
+}
+
 impl ExportPanel {
     /// Both export windows, for one frame: `paths` are where the sheet and
     /// the tables go by default.
@@ -165,7 +203,7 @@ impl ExportPanel {
         let mut settings = doc.project().export.clone();
         let mut export = false;
         egui::Window::new("Export tables").open(&mut open).default_width(560.0).show(ctx, |ui| {
-            ui.label("Three CSV files (RFC 4180, units in the column names) that open in a spreadsheet:");
+            ui.label("CSV files (RFC 4180, units in the column names) that open in a spreadsheet:");
             ui.label(
                 "  stations.csv — station, elevation and grade at the interval and at every PVC, PVI, PVT",
             );
@@ -173,8 +211,14 @@ impl ExportPanel {
                 "  curves.csv — every PVI and its curve: grades, L, A, K, minimum K, required L, status",
             );
             ui.label("  findings.csv — every check result: severity, code, stations, message");
+            if doc.project().section.is_some() {
+                ui.label(
+                    "  earthwork.csv — end areas, volumes and the mass ordinate (compacted measure) at every section",
+                );
+            }
             egui::Grid::new("tables-grid").num_columns(2).spacing([8.0, 4.0]).show(ui, |ui| {
                 interval_ui(ui, &mut settings, doc.project().units);
+                decimals_ui(ui, &mut settings, doc.project().units);
                 path_ui(
                     ui,
                     "Folder",
@@ -255,6 +299,7 @@ impl ExportPanel {
                     .labelled_by(name.id);
                 ui.end_row();
                 interval_ui(ui, &mut settings, units);
+                decimals_ui(ui, &mut settings, units);
                 let name2 = ui.label("PNG resolution");
                 let _ = ui
                     .add(egui::DragValue::new(&mut settings.dpi).range(10.0..=600.0).suffix(" dpi"))
