@@ -52,6 +52,50 @@ fn table_at_stations_reproduces_a_worked_crest() {
     assert_eq!(lines.len(), 3);
 }
 
+/// A station typed at the very end of a profile converted from metres is
+/// that end: 92.9 m is 304.790026246719… ft, and `--at 304.7900263` (the
+/// end rounded up to seven decimals, 5e-8 ft past it) is accepted as it; a
+/// station a thousandth past the end is still refused.
+#[test]
+fn at_the_end_of_a_converted_profile_within_the_station_tolerance() {
+    let csv = temp_file("end-m.csv", "station,elevation,curve_length\n0,100,0\n50,103,30\n92.9,101,0\n");
+    let xml = csv.with_extension("xml");
+    let o = run(&[
+        "export",
+        &csv.to_string_lossy(),
+        "--units",
+        "metric",
+        "--design-speed",
+        "50",
+        "--landxml",
+        &xml.to_string_lossy(),
+    ]);
+    assert!(o.status.code().is_some_and(|c| c <= 1), "{}", stderr(&o));
+    let xml = xml.to_string_lossy().into_owned();
+    let o = run(&[
+        "table",
+        &xml,
+        "--units",
+        "us",
+        "--at",
+        "304.7900262",
+        "--at",
+        "304.7900263",
+        "--decimals",
+        "3",
+    ]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    // 101 m is 331.365 ft; both rows are the end.
+    assert_eq!(stdout(&o).lines().nth(2), stdout(&o).lines().nth(1));
+    assert_eq!(stdout(&o).lines().nth(1), Some("304.790,3+04.790,331.365,-4.662"), "{}", stdout(&o));
+    // And the start the same way.
+    let o = run(&["table", &xml, "--units", "us", "--at", "-0.0000001", "--decimals", "3"]);
+    assert_eq!(stdout(&o).lines().nth(1), Some("0.000,0+00.000,328.084,6.000"), "{}", stderr(&o));
+    let o = run(&["table", &xml, "--units", "us", "--at", "304.791"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("304.791 is outside the profile"), "{}", stderr(&o));
+}
+
 #[test]
 fn table_interval_includes_ends_and_key_points() {
     let o = run(&["table", &asset("alder-brook-road.ron").to_string_lossy(), "--interval", "100"]);

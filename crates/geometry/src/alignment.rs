@@ -134,9 +134,20 @@ impl Alignment {
         self.pvis.last().map_or(Station(0.0), |p| p.station)
     }
 
-    fn check_range(&self, station: f64) -> Result<(), OutOfRange> {
+    /// `station` if it is on the profile, taken to the end it is within the
+    /// station hair of (a station typed to fewer decimals than a converted
+    /// end, 304.8006096 against 304.8006096012192, is that end).
+    fn within(&self, station: f64) -> Result<f64, OutOfRange> {
         let (start, end) = (self.start().0, self.end().0);
-        if station >= start && station <= end { Ok(()) } else { Err(OutOfRange { station, start, end }) }
+        if station >= start && station <= end {
+            Ok(station)
+        } else if crate::tolerance::same_station(station, start) {
+            Ok(start)
+        } else if crate::tolerance::same_station(station, end) {
+            Ok(end)
+        } else {
+            Err(OutOfRange { station, start, end })
+        }
     }
 
     fn segment_index(&self, station: f64) -> usize {
@@ -147,10 +158,11 @@ impl Alignment {
     /// Elevation and grade at `station`, O(log n).
     ///
     /// # Errors
-    /// [`OutOfRange`] for a station before the first or after the last PVI.
+    /// [`OutOfRange`] for a station before the first or after the last PVI
+    /// by more than the station hair.
     pub fn sample(&self, station: Station) -> Result<Sample, OutOfRange> {
-        self.check_range(station.0)?;
-        Ok(self.sample_in(self.segment_index(station.0), station.0))
+        let s = self.within(station.0)?;
+        Ok(self.sample_in(self.segment_index(s), s))
     }
 
     fn sample_in(&self, index: usize, s: f64) -> Sample {
@@ -249,8 +261,7 @@ impl Cursor<'_> {
     /// [`OutOfRange`] for a station outside the profile.
     #[inline]
     pub fn sample(&mut self, station: Station) -> Result<Sample, OutOfRange> {
-        let s = station.0;
-        self.alignment.check_range(s)?;
+        let s = self.alignment.within(station.0)?;
         let segments = &self.alignment.segments;
         match segments.get(self.index) {
             Some(seg) if s >= seg.start => {
