@@ -96,6 +96,44 @@ fn at_the_end_of_a_converted_profile_within_the_station_tolerance() {
     assert!(stderr(&o).contains("304.791 is outside the profile"), "{}", stderr(&o));
 }
 
+/// `check --format json` on the demo: both control points met at the
+/// profile's elevation there, the ground's extent and the earthwork totals
+/// with the stations they cover, equal to what `earthwork` reports.
+#[test]
+fn check_json_carries_the_site() {
+    let demo = asset("alder-brook-road.ron").to_string_lossy().into_owned();
+    let o = run(&["check", &demo, "--format", "json"]);
+    let json: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap_or_else(|e| panic!("{e}"));
+    let controls = json["controls"].as_array().cloned().unwrap_or_default();
+    assert_eq!(controls.len(), 2);
+    assert_eq!(controls[0]["kind"], "fixed");
+    assert_eq!(controls[0]["status"], "met");
+    assert!((controls[0]["tolerance"].as_f64().unwrap_or(f64::NAN) - 0.02).abs() < 1e-12);
+    // The culvert at 0+690 on the sag (PVC 620 at 217.4, −1 % to +3 %,
+    // L 160): y = 217.4 − 0.01·70 + (0.04/160)·70²/2 = 217.3125.
+    assert_eq!(controls[1]["station"], 690.0);
+    assert!((controls[1]["profile"].as_f64().unwrap_or(f64::NAN) - 217.3125).abs() < 1e-9, "{json}");
+    assert_eq!((json["ground"]["start"].as_f64(), json["ground"]["end"].as_f64()), (Some(0.0), Some(2000.0)));
+    let earthwork = &json["earthwork"];
+    assert_eq!((earthwork["start"].as_f64(), earthwork["end"].as_f64()), (Some(0.0), Some(2000.0)));
+    assert_eq!(earthwork["volume_unit"], "m³");
+    let o = run(&[
+        "earthwork",
+        &demo,
+        "--width",
+        "10",
+        "--cut-slope",
+        "2",
+        "--fill-slope",
+        "3",
+        "--shrinkage",
+        "10",
+    ]);
+    let said = stderr(&o);
+    let cut = earthwork["cut"].as_f64().unwrap_or(f64::NAN);
+    assert!(said.contains(&format!("cut {cut:.1} m³")), "{said} vs {cut}");
+}
+
 #[test]
 fn table_interval_includes_ends_and_key_points() {
     let o = run(&["table", &asset("alder-brook-road.ron").to_string_lossy(), "--interval", "100"]);
@@ -395,6 +433,19 @@ fn site_data_flows_through_check_table_and_earthwork() {
     assert!(text.contains("0.500 m below the minimum 100.500"), "{text}");
     assert!(!text.contains("control.max"), "a met point gives no finding: {text}");
     assert!(text.contains("Footbridge") && text.contains("met"), "the site section lists it: {text}");
+    // The JSON report carries the control points, the ground and the
+    // earthwork totals too.
+    let o = run(&["check", &out_s, "--design-speed", "50", "--format", "json"]);
+    let json: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap_or_else(|e| panic!("{e}"));
+    let controls = json["controls"].as_array().cloned().unwrap_or_default();
+    assert_eq!(controls.len(), 2, "{json}");
+    let missed: Vec<_> = controls.iter().filter(|c| c["status"] == "missed").collect();
+    assert_eq!(missed.len(), 1, "{json}");
+    assert_eq!(missed[0]["kind"], "min");
+    assert!((missed[0]["miss"].as_f64().unwrap_or(f64::NAN) - 0.5).abs() < 1e-9, "{json}");
+    assert!((missed[0]["elevation"].as_f64().unwrap_or(f64::NAN) - 100.5).abs() < 1e-9, "{json}");
+    assert!(controls.iter().any(|c| c["name"] == "Footbridge" && c["status"] == "met" && c["miss"] == 0.0));
+    assert!(json["ground"]["points"].as_u64().is_some_and(|n| n >= 2), "{json}");
 
     let o = run(&["table", &out_s, "--interval", "10"]);
     assert!(o.status.success(), "{}", stderr(&o));

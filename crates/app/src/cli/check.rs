@@ -32,7 +32,7 @@ pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
     let checks = &analysis.report;
     let text = match args.format {
         Format::Text => report::text(&project, &criteria, &analysis),
-        Format::Json => report::json(&project, &criteria, checks)?,
+        Format::Json => report::json(&project, &criteria, &analysis)?,
     };
     print(text.as_bytes())?;
     Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })

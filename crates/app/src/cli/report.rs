@@ -3,7 +3,9 @@
 use std::fmt::Write as _;
 
 use gradewright_document::Project;
-use gradewright_geometry::{CheckReport, CriterionId, ResolvedCriteria};
+use gradewright_geometry::{
+    Analysis, ControlKind, ControlStatus, CriterionId, ResolvedCriteria, area_symbol, volume_symbol,
+};
 use serde::Serialize;
 
 #[derive(Serialize)]
@@ -13,6 +15,63 @@ struct JsonReport<'a> {
     ssd_required: f64,
     curves: Vec<JsonCurve>,
     findings: Vec<JsonFinding<'a>>,
+    controls: Vec<JsonControl<'a>>,
+    ground: Option<JsonGround>,
+    earthwork: Option<JsonEarthwork>,
+}
+
+#[derive(Serialize)]
+struct JsonControl<'a> {
+    name: &'a str,
+    station: f64,
+    kind: &'static str,
+    elevation: f64,
+    /// Fixed points only.
+    tolerance: Option<f64>,
+    /// Maximum points under a structure only.
+    clearance: Option<f64>,
+    /// The profile elevation at the point (none when it was not checked).
+    profile: Option<f64>,
+    /// By how much it is missed (0 when met).
+    miss: Option<f64>,
+    /// `met`, `missed`, `outside` (not on the profile), `invalid` or
+    /// `not-checked` (the profile has problems).
+    status: &'static str,
+}
+
+#[derive(Serialize)]
+struct JsonDepth {
+    station: f64,
+    depth: f64,
+}
+
+#[derive(Serialize)]
+struct JsonGround {
+    points: usize,
+    start: f64,
+    end: f64,
+    largest_cut: Option<JsonDepth>,
+    largest_fill: Option<JsonDepth>,
+}
+
+#[derive(Serialize)]
+struct JsonEarthwork {
+    /// The stations the estimate covers (where the ground covers the profile).
+    start: Option<f64>,
+    end: Option<f64>,
+    width: f64,
+    cut_slope: f64,
+    fill_slope: f64,
+    shrinkage_percent: f64,
+    /// Bank measure.
+    cut: Option<f64>,
+    fill: Option<f64>,
+    /// Compacted measure: cut · (1 − shrinkage) − fill.
+    net: Option<f64>,
+    area_unit: &'static str,
+    volume_unit: &'static str,
+    /// Why there is no estimate, when there is none.
+    error: Option<String>,
 }
 
 #[derive(Serialize)]
@@ -48,8 +107,88 @@ struct JsonFinding<'a> {
     message: &'a str,
 }
 
+/// The control points of `analysis` with their status.
+fn json_controls(analysis: &Analysis) -> Vec<JsonControl<'_>> {
+    analysis
+        .controls
+        .iter()
+        .enumerate()
+        .map(|(i, c)| {
+            let (profile, miss, status) = match analysis.control_status.get(i) {
+                Some(ControlStatus::Met(y)) => (Some(*y), Some(0.0), "met"),
+                Some(ControlStatus::Missed(y, m)) => (Some(*y), Some(*m), "missed"),
+                Some(ControlStatus::Outside) => (None, None, "outside"),
+                Some(ControlStatus::Invalid) => (None, None, "invalid"),
+                None => (None, None, "not-checked"),
+            };
+            JsonControl {
+                name: &c.name,
+                station: c.station,
+                kind: c.kind.key(),
+                elevation: c.elevation,
+                tolerance: (c.kind == ControlKind::Fixed).then_some(c.tolerance),
+                clearance: (c.kind == ControlKind::Maximum && c.clearance > 0.0).then_some(c.clearance),
+                profile,
+                miss,
+                status,
+            }
+        })
+        .collect()
+}
+
+/// The ground's extent and largest depths, and the earthwork totals.
+fn json_site(
+    analysis: &Analysis,
+    section: Option<gradewright_geometry::Section>,
+) -> (Option<JsonGround>, Option<JsonEarthwork>) {
+    let units = analysis.profile.units;
+    let depth = |d: Option<(f64, f64)>| d.map(|(station, depth)| JsonDepth { station, depth });
+    let ground = analysis.ground.range().map(|(start, end)| JsonGround {
+        points: analysis.ground.len(),
+        start,
+        end,
+        largest_cut: depth(analysis.cut_fill.cut),
+        largest_fill: depth(analysis.cut_fill.fill),
+    });
+    // The analysis estimates earthwork only for a project with a section.
+    let earthwork = analysis.earthwork.as_ref().zip(section).map(|(result, section)| {
+        let section = match result {
+            Ok(e) => e.section,
+            Err(_) => section,
+        };
+        let mut out = JsonEarthwork {
+            start: None,
+            end: None,
+            width: section.width,
+            cut_slope: section.cut_slope,
+            fill_slope: section.fill_slope,
+            shrinkage_percent: section.shrinkage_percent,
+            cut: None,
+            fill: None,
+            net: None,
+            area_unit: area_symbol(units),
+            volume_unit: volume_symbol(units),
+            error: None,
+        };
+        match result {
+            Ok(e) => {
+                out.start = Some(e.range.0);
+                out.end = Some(e.range.1);
+                out.cut = Some(e.cut);
+                out.fill = Some(e.fill);
+                out.net = Some(e.net());
+            }
+            Err(e) => out.error = Some(e.to_string()),
+        }
+        out
+    });
+    (ground, earthwork)
+}
+
 /// The check report as one JSON object (see the README for its fields).
-pub fn json(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport) -> anyhow::Result<String> {
+pub fn json(project: &Project, criteria: &ResolvedCriteria, analysis: &Analysis) -> anyhow::Result<String> {
+    let checks = &analysis.report;
+    let (ground, earthwork) = json_site(analysis, project.section);
     let report = JsonReport {
         units: project.units.key(),
         design_speed: criteria.design_speed,
@@ -94,6 +233,9 @@ pub fn json(project: &Project, criteria: &ResolvedCriteria, checks: &CheckReport
                 message: &f.message,
             })
             .collect(),
+        controls: json_controls(analysis),
+        ground,
+        earthwork,
     };
     let mut text = serde_json::to_string_pretty(&report)?;
     text.push('\n');
