@@ -173,12 +173,17 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
             ControlStatus::Missed(y, miss) => {
                 let (code, message) = match c.kind {
                     ControlKind::Fixed => {
+                        // The whole difference first, then what is beyond
+                        // the tolerance (the miss): "0.030 below, 0.010
+                        // beyond the tolerance", never the miss alone as if
+                        // it were the difference.
                         let side = if y > c.elevation { "above" } else { "below" };
+                        let off = (y - c.elevation).abs();
                         (
                             FindingCode::ControlFixed,
                             format!(
-                                "{name} at {at}: the profile is {miss:.3} {len} {side} the fixed elevation \
-                                 {:.3} ± {:.3} (profile {y:.3})",
+                                "{name} at {at}: the profile {y:.3} is {off:.3} {len} {side} the fixed elevation \
+                                 {:.3}, {miss:.3} {len} beyond the tolerance ± {:.3}",
                                 c.elevation,
                                 c.tolerance.abs()
                             ),
@@ -369,6 +374,28 @@ mod tests {
 
     fn status(c: &ControlPoint) -> ControlStatus {
         check_controls(&road(), std::slice::from_ref(c)).first().copied().unwrap_or(ControlStatus::Invalid)
+    }
+
+    /// The profile 101.000 at a fixed 101.030 ± 0.020: 0.030 below it,
+    /// 0.010 beyond the tolerance (the finding gives both, in that order).
+    #[test]
+    fn a_missed_fixed_point_says_the_difference_and_the_excess() {
+        let c = control(ControlKind::Fixed, 101.03, 0.02);
+        let findings = control_findings(Units::Metric, std::slice::from_ref(&c), &[status(&c)]);
+        let message = findings.first().map(|f| f.message.clone()).unwrap_or_default();
+        assert!(
+            message.ends_with(
+                "the profile 101.000 is 0.030 m below the fixed elevation 101.030, 0.010 m beyond the tolerance ± 0.020"
+            ),
+            "{message}"
+        );
+        let c = control(ControlKind::Fixed, 100.95, 0.02);
+        let findings = control_findings(Units::Metric, std::slice::from_ref(&c), &[status(&c)]);
+        let message = findings.first().map(|f| f.message.clone()).unwrap_or_default();
+        assert!(
+            message.contains("is 0.050 m above the fixed elevation 100.950, 0.030 m beyond"),
+            "{message}"
+        );
     }
 
     #[test]
