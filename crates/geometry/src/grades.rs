@@ -2,13 +2,14 @@
 //! tables (AASHTO, *A Policy on Geometric Design of Highways and Streets*,
 //! 2018: Table 5-2 rural local roads, §5.3 urban local streets, Table 6-2
 //! rural collectors, Table 6-8 urban collectors, Table 7-2 rural arterials,
-//! Table 7-10 urban arterials, Table 8-1 freeways). Every value here is
-//! recalled, not read (from memory); the rows of the local-road table for
-//! level terrain agree with TxDOT *Roadway Design Manual* (2020) Table 4-11.
+//! Table 7-10 urban arterials, Table 8-1 freeways), each in its metric and
+//! its US customary edition. Every value here is recalled, not read (from
+//! memory); the rows of the local-road table for level terrain agree with
+//! TxDOT *Roadway Design Manual* (2020) Table 4-11.
 
 use serde::{Deserialize, Serialize};
 
-use crate::{KM_PER_MILE, Units};
+use crate::Units;
 
 /// Terrain class for the default maximum grade.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
@@ -96,7 +97,8 @@ impl Area {
     }
 }
 
-/// One table: design speeds (mph or km/h) and grades per terrain row.
+/// One table: design speeds (mph or km/h, as its edition) and grades per
+/// terrain row.
 struct Table {
     name: &'static str,
     speeds: &'static [f64],
@@ -113,9 +115,25 @@ const RURAL_LOCAL: Table = Table {
     ],
 };
 
+const RURAL_LOCAL_METRIC: Table = Table {
+    name: "Table 5-2 (rural local roads, metric)",
+    speeds: &[20.0, 30.0, 40.0, 50.0, 60.0, 70.0, 80.0, 90.0, 100.0],
+    grades: [
+        &[9.0, 8.0, 7.0, 7.0, 7.0, 7.0, 6.0, 6.0, 5.0],
+        &[12.0, 11.0, 11.0, 10.0, 10.0, 9.0, 8.0, 7.0, 6.0],
+        &[17.0, 16.0, 15.0, 14.0, 13.0, 12.0, 10.0, 10.0, 10.0],
+    ],
+};
+
 const URBAN_LOCAL: Table = Table {
     name: "§5.3 (urban local streets: residential under 15 %; commercial and industrial under 8 %, enter as an override)",
     speeds: &[15.0],
+    grades: [&[15.0], &[15.0], &[15.0]],
+};
+
+const URBAN_LOCAL_METRIC: Table = Table {
+    name: "§5.3 (urban local streets, metric: residential under 15 %; commercial and industrial under 8 %, enter as an override)",
+    speeds: &[20.0],
     grades: [&[15.0], &[15.0], &[15.0]],
 };
 
@@ -129,6 +147,16 @@ const RURAL_COLLECTOR: Table = Table {
     ],
 };
 
+const RURAL_COLLECTOR_METRIC: Table = Table {
+    name: "Table 6-2 (rural collectors, metric)",
+    speeds: &[20.0, 30.0, 40.0, 50.0, 60.0, 70.0, 80.0, 90.0, 100.0],
+    grades: [
+        &[7.0, 7.0, 7.0, 7.0, 7.0, 6.0, 6.0, 6.0, 5.0],
+        &[10.0, 10.0, 9.0, 9.0, 8.0, 7.0, 7.0, 6.0, 6.0],
+        &[12.0, 11.0, 10.0, 10.0, 10.0, 9.0, 9.0, 8.0, 8.0],
+    ],
+};
+
 const URBAN_COLLECTOR: Table = Table {
     name: "Table 6-8 (urban collectors)",
     speeds: &[20.0, 25.0, 30.0, 35.0, 40.0, 45.0, 50.0, 55.0, 60.0],
@@ -136,6 +164,16 @@ const URBAN_COLLECTOR: Table = Table {
         &[9.0, 9.0, 9.0, 9.0, 9.0, 8.0, 7.0, 7.0, 6.0],
         &[12.0, 12.0, 11.0, 10.0, 10.0, 9.0, 8.0, 8.0, 7.0],
         &[14.0, 13.0, 12.0, 12.0, 12.0, 11.0, 10.0, 10.0, 9.0],
+    ],
+};
+
+const URBAN_COLLECTOR_METRIC: Table = Table {
+    name: "Table 6-8 (urban collectors, metric)",
+    speeds: &[20.0, 30.0, 40.0, 50.0, 60.0, 70.0, 80.0, 90.0, 100.0],
+    grades: [
+        &[9.0, 9.0, 9.0, 9.0, 8.0, 7.0, 7.0, 6.0, 6.0],
+        &[12.0, 12.0, 11.0, 10.0, 9.0, 8.0, 8.0, 7.0, 7.0],
+        &[14.0, 13.0, 12.0, 12.0, 11.0, 10.0, 10.0, 9.0, 9.0],
     ],
 };
 
@@ -169,6 +207,16 @@ const URBAN_ARTERIAL: Table = Table {
     ],
 };
 
+const URBAN_ARTERIAL_METRIC: Table = Table {
+    name: "Table 7-10 (urban arterials, metric)",
+    speeds: &[50.0, 60.0, 70.0, 80.0, 90.0, 100.0],
+    grades: [
+        &[8.0, 7.0, 6.0, 6.0, 5.0, 5.0],
+        &[9.0, 8.0, 7.0, 7.0, 6.0, 6.0],
+        &[11.0, 10.0, 9.0, 9.0, 8.0, 8.0],
+    ],
+};
+
 const FREEWAY: Table = Table {
     name: "Table 8-1 (freeways)",
     speeds: &[50.0, 55.0, 60.0, 65.0, 70.0, 75.0, 80.0],
@@ -179,51 +227,67 @@ const FREEWAY: Table = Table {
     ],
 };
 
+const FREEWAY_METRIC: Table = Table {
+    name: "Table 8-1 (freeways, metric)",
+    speeds: &[80.0, 90.0, 100.0, 110.0, 120.0, 130.0],
+    grades: [
+        &[4.0, 4.0, 3.0, 3.0, 3.0, 3.0],
+        &[5.0, 5.0, 4.0, 4.0, 4.0, 4.0],
+        &[6.0, 6.0, 6.0, 5.0, 5.0, 5.0],
+    ],
+};
+
+/// The table of a class and area in the edition of `units`: the metric
+/// edition's own rows in km/h, the US customary edition's in mph.
+fn table(class: RoadClass, area: Area, units: Units) -> &'static Table {
+    let metric = units == Units::Metric;
+    match (class, area) {
+        (RoadClass::Local, Area::Rural) if metric => &RURAL_LOCAL_METRIC,
+        (RoadClass::Local, Area::Rural) => &RURAL_LOCAL,
+        (RoadClass::Local, Area::Urban) if metric => &URBAN_LOCAL_METRIC,
+        (RoadClass::Local, Area::Urban) => &URBAN_LOCAL,
+        (RoadClass::Collector, Area::Rural) if metric => &RURAL_COLLECTOR_METRIC,
+        (RoadClass::Collector, Area::Rural) => &RURAL_COLLECTOR,
+        (RoadClass::Collector, Area::Urban) if metric => &URBAN_COLLECTOR_METRIC,
+        (RoadClass::Collector, Area::Urban) => &URBAN_COLLECTOR,
+        (RoadClass::Arterial, Area::Rural) if metric => &RURAL_ARTERIAL_METRIC,
+        (RoadClass::Arterial, Area::Rural) => &RURAL_ARTERIAL,
+        (RoadClass::Arterial, Area::Urban) if metric => &URBAN_ARTERIAL_METRIC,
+        (RoadClass::Arterial, Area::Urban) => &URBAN_ARTERIAL,
+        (RoadClass::Freeway, _) if metric => &FREEWAY_METRIC,
+        (RoadClass::Freeway, _) => &FREEWAY,
+    }
+}
+
 /// The default maximum grade (percent) and the rule that gave it, for a road
 /// class, area, terrain and design speed.
 ///
-/// A speed between two columns takes the higher, stricter column; a speed
-/// outside the table takes its nearest end, and the rule says so. Metric
-/// speeds are looked up at the equivalent mph (derived), except on rural
-/// arterials, whose metric table is its own. The usual allowances — about
-/// 1 % steeper for short grades (under 500 ft or 150 m) and one-way
-/// downgrades, and on urban freeways — are named in the rule and entered as
-/// an override (from memory).
+/// Each table is used in its own units: a metric project reads the metric
+/// edition's rows in km/h, a US customary one the US rows in mph (the
+/// editions' columns are not conversions of each other: 100 km/h on a
+/// mountainous freeway is 6 % in the metric table, while its 62 mph would
+/// read 5 % in the US one). A speed between two columns takes the higher,
+/// stricter column; a speed outside the table takes its nearest end, and
+/// the rule says so. The usual allowances — about 1 % steeper for short
+/// grades (under 500 ft or 150 m) and one-way downgrades, and on urban
+/// freeways — are named in the rule and entered as an override (from
+/// memory).
 pub fn max_grade(units: Units, speed: f64, class: RoadClass, area: Area, terrain: Terrain) -> (f64, String) {
-    let (table, lookup, unit) = match (class, area, units) {
-        (RoadClass::Arterial, Area::Rural, Units::Metric) => (&RURAL_ARTERIAL_METRIC, speed, "km/h"),
-        (c, a, u) => {
-            let table = match (c, a) {
-                (RoadClass::Local, Area::Rural) => &RURAL_LOCAL,
-                (RoadClass::Local, Area::Urban) => &URBAN_LOCAL,
-                (RoadClass::Collector, Area::Rural) => &RURAL_COLLECTOR,
-                (RoadClass::Collector, Area::Urban) => &URBAN_COLLECTOR,
-                (RoadClass::Arterial, Area::Rural) => &RURAL_ARTERIAL,
-                (RoadClass::Arterial, Area::Urban) => &URBAN_ARTERIAL,
-                (RoadClass::Freeway, _) => &FREEWAY,
-            };
-            match u {
-                Units::UsCustomary => (table, speed, "mph"),
-                Units::Metric => (table, speed / KM_PER_MILE, "mph"),
-            }
-        }
-    };
+    let table = table(class, area, units);
+    let unit = units.speed_symbol();
     let speeds = table.speeds;
     let grades = table.grades.get(terrain.row()).copied().unwrap_or(&[]);
     let column =
-        speeds.iter().position(|&s| crate::tolerance::meets(s, crate::tolerance::Bound::AtLeast(lookup)));
+        speeds.iter().position(|&s| crate::tolerance::meets(s, crate::tolerance::Bound::AtLeast(speed)));
     let (lowest, highest) = (speeds.first().copied().unwrap_or(0.0), speeds.last().copied().unwrap_or(0.0));
     let mut note = String::new();
-    if units == Units::Metric && unit == "mph" {
-        note.push_str(&format!("; {speed} km/h looked up as {lookup:.1} mph (derived)"));
-    }
     if speeds.len() > 1 {
         match column {
-            Some(0) if crate::tolerance::below(lookup, lowest) => {
+            Some(0) if crate::tolerance::below(speed, lowest) => {
                 note.push_str(&format!("; table starts at {lowest} {unit}, its value used"));
             }
             None => note.push_str(&format!("; table ends at {highest} {unit}, its value used")),
-            Some(i) if speeds.get(i).is_some_and(|s| crate::tolerance::above(*s, lookup)) => {
+            Some(i) if speeds.get(i).is_some_and(|s| crate::tolerance::above(*s, speed)) => {
                 note.push_str(&format!(
                     "; between columns, the stricter {} {unit} used",
                     speeds.get(i).copied().unwrap_or(0.0)
@@ -256,13 +320,19 @@ mod tests {
     fn every_table_is_rectangular() {
         for t in [
             &RURAL_LOCAL,
+            &RURAL_LOCAL_METRIC,
             &URBAN_LOCAL,
+            &URBAN_LOCAL_METRIC,
             &RURAL_COLLECTOR,
+            &RURAL_COLLECTOR_METRIC,
             &URBAN_COLLECTOR,
+            &URBAN_COLLECTOR_METRIC,
             &RURAL_ARTERIAL,
             &RURAL_ARTERIAL_METRIC,
             &URBAN_ARTERIAL,
+            &URBAN_ARTERIAL_METRIC,
             &FREEWAY,
+            &FREEWAY_METRIC,
         ] {
             for row in t.grades {
                 assert_eq!(row.len(), t.speeds.len(), "{}", t.name);

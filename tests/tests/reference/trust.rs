@@ -310,8 +310,8 @@ fn lengthen_to_clear_refuses_a_step_it_cannot_afford() {
 }
 
 /// Maximum grade by class and area (Green Book 2018 Tables 5-2, 6-2, 6-8,
-/// 7-2, 7-10, 8-1; values from memory), with metric speeds looked up at the
-/// equivalent mph.
+/// 7-2, 7-10, 8-1, each in its metric and its US customary edition; values
+/// from memory).
 #[test]
 fn max_grade_follows_class_area_and_terrain() {
     let us = Units::UsCustomary;
@@ -329,10 +329,28 @@ fn max_grade_follows_class_area_and_terrain() {
         assert_close(grade, expected, 0.0, &format!("{class:?} {area:?} {terrain:?} {v} mph: {rule}"));
         assert!(rule.contains("Green Book 2018 Table"), "{rule}");
     }
-    // 50 km/h = 31.1 mph: the stricter 35 mph column of the urban collector table.
-    let (grade, rule) = max_grade(Units::Metric, 50.0, RoadClass::Collector, Area::Urban, Terrain::Level);
-    assert_close(grade, 9.0, 0.0, "urban collector, 35 mph column");
-    assert!(rule.contains("31.1 mph") && rule.contains("stricter"), "{rule}");
+    // Metric projects read the metric edition's own rows in km/h, never a
+    // US row at the equivalent mph: a mountainous freeway at 100 km/h is 6 %
+    // (Table 8-1 metric), where 62.1 mph would read the stricter 65 mph
+    // column's 5 %; 95 km/h takes the stricter 100 km/h column.
+    let metric = [
+        (RoadClass::Freeway, Area::Rural, Terrain::Mountainous, 100.0, 6.0),
+        (RoadClass::Freeway, Area::Rural, Terrain::Mountainous, 95.0, 6.0),
+        (RoadClass::Freeway, Area::Rural, Terrain::Mountainous, 110.0, 5.0),
+        (RoadClass::Freeway, Area::Urban, Terrain::Rolling, 100.0, 4.0),
+        (RoadClass::Local, Area::Rural, Terrain::Rolling, 50.0, 10.0),
+        (RoadClass::Collector, Area::Rural, Terrain::Level, 80.0, 6.0),
+        (RoadClass::Collector, Area::Urban, Terrain::Level, 50.0, 9.0),
+        (RoadClass::Arterial, Area::Urban, Terrain::Mountainous, 60.0, 10.0),
+        (RoadClass::Arterial, Area::Rural, Terrain::Rolling, 100.0, 4.0),
+    ];
+    for (class, area, terrain, v, expected) in metric {
+        let (grade, rule) = max_grade(Units::Metric, v, class, area, terrain);
+        assert_close(grade, expected, 0.0, &format!("{class:?} {area:?} {terrain:?} {v} km/h: {rule}"));
+        assert!(rule.contains("metric") && !rule.contains("mph"), "{rule}");
+    }
+    let (_, rule) = max_grade(Units::Metric, 95.0, RoadClass::Freeway, Area::Rural, Terrain::Mountainous);
+    assert!(rule.contains("the stricter 100 km/h used"), "{rule}");
     let criteria = resolve(
         &Criteria {
             design_speed: Some(30.0),
