@@ -44,7 +44,7 @@ fn ground(c: &mut Criterion) {
     let ground = Ground::new(table.points);
     let section = Section { width: 10.0, cut_slope: 2.0, fill_slope: 3.0, shrinkage_percent: 10.0 };
     c.bench_function("earthwork over 200k ground points, 20 m interval", |b| {
-        b.iter(|| black_box(earthwork(&alignment, &ground, &section, 20.0).map(|e| e.rows.len())));
+        b.iter(|| black_box(earthwork(&alignment, &ground, &section, 20.0).map(|e| e.len())));
     });
 }
 

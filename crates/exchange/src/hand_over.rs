@@ -308,7 +308,7 @@ pub fn write_earthwork_csv(
     use Quantity::{Quantity as Q, Station};
     let mut csv = csv::Writer::from_writer(out);
     csv.write_record(earthwork_header(earthwork.units))?;
-    for r in &earthwork.rows {
+    for r in earthwork.rows() {
         let values = [
             (r.station, Station),
             (r.cut_area, Q),

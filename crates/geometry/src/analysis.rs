@@ -9,8 +9,8 @@ use crate::visibility::{Shortfall, SightProfile};
 use crate::{
     Alignment, CheckReport, ControlPoint, ControlStatus, CriteriaError, CurveCheck, CurveGeometry,
     CutFillSummary, Design, Earthwork, EarthworkError, Finding, FindingCode, Ground, Profile, ProfileProblem,
-    Pvi, ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, earthwork_at,
-    interior_curves, structural_findings,
+    Pvi, ResolvedCriteria, Severity, check_controls, compute_sight, control_findings, interior_curves,
+    structural_findings,
 };
 
 /// Everything computed from a project: the validated alignment (when the
@@ -55,8 +55,6 @@ pub struct Analysis {
     /// What looks wrong in the survey, and the ground it was read from
     /// (kept while the ground is the same).
     ground_review: Option<(Ground, Arc<Vec<crate::GroundWarning>>)>,
-    /// Ground elevations at the earthwork's stations (kept for the next edit).
-    ground_samples: Option<crate::ground::GroundSamples>,
     /// The indices of the findings that name each PVI.
     by_pvi: Vec<Vec<usize>>,
     /// Each sight shortfall with the finding made of it (for the next edit).
@@ -85,7 +83,6 @@ impl Default for Analysis {
             source: None,
             site: None,
             ground_review: None,
-            ground_samples: None,
             by_pvi: Vec::new(),
             sight_notes: Arc::default(),
             curve_notes: Arc::default(),
@@ -131,8 +128,8 @@ impl Analysis {
         let criteria = design.criteria.resolve(design.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
+        let previous_earthwork = previous.as_mut().and_then(|p| p.earthwork.take());
         let previous_review = previous.as_ref().and_then(|p| p.ground_review.clone());
-        let samples = previous.as_mut().and_then(|p| p.ground_samples.take());
         let notes = previous.as_ref().map(|p| p.sight_notes.clone());
         // Curve checks depend on the curve's geometry and the criteria only.
         let curve_notes = previous
@@ -185,7 +182,7 @@ impl Analysis {
             curve_lookup.as_ref().map(|f| f as crate::checks::CurveReuse<'_>);
         let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn };
         let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse);
-        analysis.add_site(design, previous_site.as_deref(), samples);
+        analysis.add_site(design, previous_site.as_deref(), previous_earthwork.as_ref());
         analysis.review_ground(design, previous_review);
         analysis.source = Some(design.clone());
         analysis
@@ -272,7 +269,7 @@ impl Analysis {
         &mut self,
         design: &Design,
         previous: Option<&crate::ground::SiteScan>,
-        samples: Option<crate::ground::GroundSamples>,
+        previous_earthwork: Option<&Result<Earthwork, EarthworkError>>,
     ) {
         self.ground = design.ground.clone();
         self.controls.clone_from(&design.controls);
@@ -306,10 +303,15 @@ impl Analysis {
             self.cut_fill = scan.summary;
             if let Some(section) = &design.section {
                 let interval = design.interval();
-                let mut samples = crate::ground::GroundSamples::new(&self.ground, samples);
-                self.earthwork =
-                    Some(earthwork_at(&alignment, &mut samples, section, interval, &scan.grade_points));
-                self.ground_samples = Some(samples);
+                let before = previous_earthwork.and_then(|e| e.as_ref().ok());
+                self.earthwork = Some(crate::Earthwork::after(
+                    before,
+                    &alignment,
+                    &self.ground,
+                    section,
+                    interval,
+                    &scan.grade_points,
+                ));
             }
             self.site = Some(Arc::new(scan));
         }

@@ -19,6 +19,7 @@ mod checks;
 mod controls;
 mod criteria;
 mod curve;
+pub mod decimate;
 mod design;
 mod earthwork;
 mod finding;

@@ -11,6 +11,7 @@ mod review;
 mod scan;
 
 pub use review::GroundWarning;
+pub(crate) use scan::BLOCK;
 pub use scan::{CutFillSummary, Depth, SiteScan, cut_fill_summary, depth_at, grade_points};
 
 use std::ops::Deref;
@@ -85,49 +86,7 @@ impl Ground {
     /// point beyond each end of the range is kept so the line reaches the
     /// edges. For drawing only: never compute with the result.
     pub fn decimated(&self, range: (f64, f64), columns: usize) -> Vec<[f64; 2]> {
-        let lo = self.partition_point(|p| p.station < range.0).saturating_sub(1);
-        let hi = (self.partition_point(|p| p.station <= range.1) + 1).min(self.len());
-        let Some(points) = self.get(lo..hi) else { return Vec::new() };
-        let columns = columns.max(1);
-        if points.len() <= 2 * columns {
-            return points.iter().map(|p| [p.station, p.elevation]).collect();
-        }
-        let width = (range.1 - range.0) / columns as f64;
-        #[allow(clippy::cast_possible_truncation)]
-        let column_of = |s: f64| -> i64 {
-            if width > 0.0 && width.is_finite() { ((s - range.0) / width).floor() as i64 } else { 0 }
-        };
-        let mut out = Vec::with_capacity(2 * columns + 8);
-        let mut start = 0;
-        while let Some(first) = points.get(start) {
-            let column = column_of(first.station);
-            let mut end = start + 1;
-            while points.get(end).is_some_and(|p| column_of(p.station) == column) {
-                end += 1;
-            }
-            let run = points.get(start..end).unwrap_or(&[]);
-            let (mut low, mut high) = (0, 0);
-            for (k, p) in run.iter().enumerate() {
-                if run.get(low).is_some_and(|q| p.elevation < q.elevation) {
-                    low = k;
-                }
-                if run.get(high).is_some_and(|q| p.elevation > q.elevation) {
-                    high = k;
-                }
-            }
-            let picks = [low.min(high), low.max(high)];
-            let mut last_pick = usize::MAX;
-            for k in picks {
-                if k != last_pick
-                    && let Some(p) = run.get(k)
-                {
-                    out.push([p.station, p.elevation]);
-                }
-                last_pick = k;
-            }
-            start = end;
-        }
-        out
+        crate::decimate::lowest_and_highest(&self.0, |p| p.station, |p| p.elevation, range, columns)
     }
 }
 
@@ -176,51 +135,6 @@ impl Ground {
     /// A walker for elevations at increasing stations.
     pub fn walker(&self) -> GroundWalker<'_> {
         GroundWalker { ground: self, index: 0 }
-    }
-}
-
-/// Ground elevations at stations, remembered from one analysis to the
-/// next: a drag moves a few stations of the earthwork, and the ground under
-/// the others need not be read again (it is the same ground). Stations are
-/// asked for in increasing order, so the last run's list is walked alongside
-/// (no hashing). Each value is [`Ground::elevation_at`] of its station, so
-/// the results are the same as without it.
-#[derive(Clone, Debug, Default)]
-pub struct GroundSamples {
-    ground: Ground,
-    old: Vec<(f64, Option<f64>)>,
-    at: usize,
-    new: Vec<(f64, Option<f64>)>,
-}
-
-impl GroundSamples {
-    /// Samples of `ground`, keeping what `previous` knew when it sampled
-    /// the very same ground.
-    pub fn new(ground: &Ground, previous: Option<Self>) -> Self {
-        let old = previous.filter(|p| p.ground.shares(ground)).map(|p| p.new).unwrap_or_default();
-        Self { ground: ground.clone(), new: Vec::with_capacity(old.len()), old, at: 0 }
-    }
-
-    /// The ground sampled.
-    pub fn ground(&self) -> &Ground {
-        &self.ground
-    }
-
-    /// The ground elevation at `station` (as [`Ground::elevation_at`]).
-    pub fn elevation_at(&mut self, station: f64) -> Option<f64> {
-        if self.new.last().is_some_and(|&(s, _)| s > station) {
-            // Out of order: nothing to walk alongside.
-            return self.ground.elevation_at(station);
-        }
-        while self.old.get(self.at).is_some_and(|&(s, _)| s < station) {
-            self.at += 1;
-        }
-        let v = match self.old.get(self.at) {
-            Some(&(s, v)) if s.to_bits() == station.to_bits() => v,
-            _ => self.ground.elevation_at(station),
-        };
-        self.new.push((station, v));
-        v
     }
 }
 

@@ -175,8 +175,9 @@ fn scan(alignment: &Alignment, ground: &Ground, range: (f64, f64)) -> (Vec<f64>,
     (points, summary)
 }
 
-/// Ground points per block of a [`SiteScan`].
-const BLOCK: usize = 2048;
+/// Ground points per block of a [`SiteScan`] (and of the earthwork's
+/// sections, which are reused by the same blocks).
+pub(crate) const BLOCK: usize = 2048;
 
 /// What one block of ground points gave, and the profile pieces it was
 /// computed from (to tell whether an edit touched it).

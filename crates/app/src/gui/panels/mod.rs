@@ -131,7 +131,7 @@ impl Panels {
                 ui.allocate_ui(egui::vec2(ui.available_width(), sight_h), |ui| self.sight.ui(ui, doc, range));
             }
             if mass {
-                site::mass_strip_ui(ui, doc);
+                site::mass_strip_ui(ui, doc, range);
             }
         });
         moved

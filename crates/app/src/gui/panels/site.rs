@@ -364,8 +364,8 @@ impl SitePanel {
                     .strong(),
                 )
                 .on_hover_text(format!(
-                    "{} stations (interval, grade points, PVC, PVI, PVT); areas in {}",
-                    e.rows.len(),
+                    "{} sections (interval, every ground point, grade points, PVC, PVI, PVT); areas in {}",
+                    e.len(),
                     area_symbol(units)
                 ));
             }
@@ -378,8 +378,10 @@ impl SitePanel {
 }
 
 /// The mass-haul strip under the profile: the mass ordinate on the
-/// profile's station axis.
-pub fn mass_strip_ui(ui: &mut egui::Ui, doc: &Document) {
+/// profile's station axis, over the stations `x_range` the plot shows
+/// (thinned to the strip's width: a section at every ground point of a
+/// dense survey is far more than a screen shows).
+pub fn mass_strip_ui(ui: &mut egui::Ui, doc: &Document, x_range: (f64, f64)) {
     let palette = Palette::of(ui);
     let units = doc.project().units;
     let vol = volume_symbol(units);
@@ -391,8 +393,10 @@ pub fn mass_strip_ui(ui: &mut egui::Ui, doc: &Document) {
         }
         return;
     };
-    let points: Vec<[f64; 2]> = estimate.rows.iter().map(|r| [r.station, r.mass]).collect();
-    let (first, last) = (points.first().map_or(0.0, |p| p[0]), points.last().map_or(0.0, |p| p[0]));
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let columns = ui.available_width().max(100.0) as usize;
+    let points = estimate.mass_line(x_range, columns);
+    let (first, last) = estimate.range;
     // The totals beside the strip, not in a legend name: a name that
     // changes every frame is a new legend entry every frame.
     ui.label(

@@ -21,11 +21,13 @@
 //! away. The mass ordinate is the running sum Σ(cut · (1 − shrinkage) −
 //! fill) (the mass diagram of the same text, ch. 26).
 
+mod blocks;
+
 use serde::{Deserialize, Serialize};
 
-use crate::ground::{Ground, grade_points};
-use crate::tolerance::STATION_HAIR;
-use crate::{Alignment, KeyPoint, Units};
+pub use blocks::{earthwork, earthwork_at};
+
+use crate::{KeyPoint, Units};
 
 /// The level typical section of the estimate.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
@@ -195,15 +197,16 @@ pub struct EarthworkRow {
     pub mass: f64,
 }
 
-/// The estimate: every station and the totals.
+/// The estimate: every station and the totals. Its sections are kept in
+/// blocks of the ground's points, so that after an edit only the blocks the
+/// edit touched are computed again ([`Earthwork::after`]); the rows are the
+/// same, to the bit, as an estimate from scratch.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Earthwork {
     /// Unit system (areas in m² or ft², volumes in m³ or yd³).
     pub units: Units,
     /// The section used.
     pub section: Section,
-    /// Stations in order.
-    pub rows: Vec<EarthworkRow>,
     /// Total cut (bank volume, before shrinkage).
     pub cut: f64,
     /// Total fill.
@@ -211,12 +214,138 @@ pub struct Earthwork {
     /// The stations the estimate covers: where the ground and the profile
     /// overlap.
     pub range: (f64, f64),
+    /// What the blocks were computed for (to tell whether they can be kept).
+    basis: blocks::Basis,
+    /// The sections, block by block.
+    blocks: Vec<std::sync::Arc<blocks::Sections>>,
+    /// The volumes (cut, fill) from the last row of the block before to the
+    /// first row of each block ((0, 0) for the first).
+    joins: Vec<(f64, f64)>,
+    /// The mass ordinate at the first row of each block.
+    offsets: Vec<f64>,
 }
 
 impl Earthwork {
+    /// How many stations the estimate has.
+    pub fn len(&self) -> usize {
+        self.blocks.iter().map(|b| b.stations.len()).sum()
+    }
+
+    /// Whether the estimate has no station.
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+
+    /// Every station of the estimate, in order, with its areas, the volumes
+    /// of the interval ending at it and the mass ordinate.
+    pub fn rows(&self) -> impl Iterator<Item = EarthworkRow> + '_ {
+        let section = self.section;
+        let factor = volume_factor(self.units);
+        let mut previous: Option<(f64, f64, f64)> = None; // station, cut area, fill area
+        self.blocks
+            .iter()
+            .zip(self.joins.iter().zip(&self.offsets))
+            .flat_map(move |(block, (join, offset))| {
+                (0..block.stations.len()).map(move |i| (block, *join, *offset, i))
+            })
+            .map(move |(block, join, offset, i)| {
+                let station = block.stations.get(i).copied().unwrap_or(f64::NAN);
+                let d = block.depths.get(i).copied().unwrap_or(0.0);
+                // `+ 0.0` turns a negative zero into zero (never "-0.000").
+                let (cut_depth, fill_depth) = (d.max(0.0) + 0.0, (-d).max(0.0) + 0.0);
+                let (cut_area, fill_area) = (section.cut_area(cut_depth), section.fill_area(fill_depth));
+                let (cut_volume, fill_volume) = match previous {
+                    _ if i == 0 => join,
+                    Some((s, ca, fa)) => {
+                        let length = station - s;
+                        (length * (ca + cut_area) / 2.0 * factor, length * (fa + fill_area) / 2.0 * factor)
+                    }
+                    None => (0.0, 0.0),
+                };
+                previous = Some((station, cut_area, fill_area));
+                EarthworkRow {
+                    station,
+                    kind: block.kinds.get(i).copied().unwrap_or(RowKind::Interval),
+                    cut_depth,
+                    fill_depth,
+                    cut_area,
+                    fill_area,
+                    cut_volume,
+                    fill_volume,
+                    mass: offset + block.mass.get(i).copied().unwrap_or(0.0),
+                }
+            })
+    }
+
+    /// The mass ordinate for drawing between stations `range`, thinned to
+    /// about two points per column (the lowest and highest of each, so no
+    /// peak of the mass haul is lost), with the last point before the range
+    /// and the first past it. For drawing only.
+    pub fn mass_line(&self, range: (f64, f64), columns: usize) -> Vec<[f64; 2]> {
+        let range = (
+            if range.0.is_finite() { range.0 } else { self.range.0 },
+            if range.1.is_finite() { range.1 } else { self.range.1 },
+        );
+        let columns = columns.max(1);
+        #[allow(clippy::cast_precision_loss)]
+        let width = (range.1 - range.0) / columns as f64;
+        let mut out: Vec<[f64; 2]> = Vec::with_capacity(2 * columns + 8);
+        let mut before: Option<[f64; 2]> = None;
+        let mut after: Option<[f64; 2]> = None;
+        for (block, &offset) in self.blocks.iter().zip(&self.offsets) {
+            let (stations, mass) = (&block.stations[..], &block.mass[..]);
+            let Some(&last) = stations.last() else { continue };
+            if last < range.0 {
+                before = Some([last, offset + mass.last().copied().unwrap_or(0.0)]);
+                continue;
+            }
+            let start = stations.partition_point(|&s| s < range.0);
+            if start > 0 {
+                before = Some([stations[start - 1], offset + mass[start - 1]]);
+            }
+            let end = stations.partition_point(|&s| s <= range.1);
+            // Column by column over this block's stations in the range: the
+            // lowest and the highest of each, by a tight walk of its slice.
+            let mut i = start;
+            while i < end {
+                #[allow(clippy::cast_possible_truncation, clippy::cast_precision_loss)]
+                let column = if width > 0.0 { ((stations[i] - range.0) / width).floor() } else { 0.0 };
+                let edge = if width > 0.0 { range.0 + (column + 1.0) * width } else { f64::INFINITY };
+                let j = i + stations.get(i..end).map_or(0, |rest| rest.partition_point(|&s| s < edge)).max(1);
+                let run = &mass[i..j];
+                let (mut low, mut high) = (0, 0);
+                for (k, &m) in run.iter().enumerate() {
+                    if m < run[low] {
+                        low = k;
+                    }
+                    if m > run[high] {
+                        high = k;
+                    }
+                }
+                out.push([stations[i + low.min(high)], offset + run[low.min(high)]]);
+                if low != high {
+                    out.push([stations[i + low.max(high)], offset + run[low.max(high)]]);
+                }
+                i = j;
+            }
+            if end < stations.len() {
+                after = Some([stations[end], offset + mass[end]]);
+                break;
+            }
+        }
+        if let Some(b) = before {
+            out.insert(0, b);
+        }
+        out.extend(after);
+        out
+    }
+
     /// Net: cut · (1 − shrinkage) − fill (positive: waste; negative: borrow).
     pub fn net(&self) -> f64 {
-        self.rows.last().map_or(0.0, |r| r.mass)
+        match (self.blocks.last(), self.offsets.last()) {
+            (Some(b), Some(offset)) => offset + b.mass.last().copied().unwrap_or(0.0),
+            _ => 0.0,
+        }
     }
 }
 
@@ -244,149 +373,10 @@ fn volume_factor(units: Units) -> f64 {
     }
 }
 
-/// Most stations an estimate holds.
-const MAX_ROWS: f64 = 1.0e7;
-
-/// The estimate over the stretch where `ground` and the profile overlap,
-/// at every whole multiple of `interval` plus the range ends, the grade
-/// points, every point of the ground, and the PVCs, PVIs and PVTs.
-///
-/// # Errors
-/// [`EarthworkError`] for an unusable section or interval, or no overlap.
-pub fn earthwork(
-    alignment: &Alignment,
-    ground: &Ground,
-    section: &Section,
-    interval: f64,
-) -> Result<Earthwork, EarthworkError> {
-    section.validate()?;
-    let mut samples = crate::ground::GroundSamples::new(ground, None);
-    earthwork_at(alignment, &mut samples, section, interval, &grade_points(alignment, ground))
-}
-
-/// [`earthwork`] with the grade points already found (by a
-/// [`crate::ground::SiteScan`]).
-///
-/// # Errors
-/// As [`earthwork`].
-pub fn earthwork_at(
-    alignment: &Alignment,
-    ground: &mut crate::ground::GroundSamples,
-    section: &Section,
-    interval: f64,
-    grade_points: &[f64],
-) -> Result<Earthwork, EarthworkError> {
-    section.validate()?;
-    let (g0, g1) = ground.ground().range().ok_or(EarthworkError::NoOverlap)?;
-    let start = alignment.start().0;
-    let (lo, hi) = (g0.max(start), g1.min(alignment.end().0));
-    if lo >= hi || lo.is_nan() || hi.is_nan() {
-        return Err(EarthworkError::NoOverlap);
-    }
-    if !(interval.is_finite() && interval > 0.0) || (hi - lo) / interval > MAX_ROWS {
-        return Err(EarthworkError::Interval(interval));
-    }
-    // Four lists already in station order — the even stations with both
-    // ends, the grade points, the ground's own points (so no break of the
-    // ground is averaged away; common practice), the PVCs, PVIs and PVTs —
-    // merged, the first list first on a tie.
-    let mut regular: Vec<f64> = vec![lo];
-    regular.extend(crate::even_stations(lo, hi, interval).filter(|&s| s > lo && s < hi));
-    regular.push(hi);
-    let breaks: Vec<f64> = {
-        let points = ground.ground();
-        let from = points.partition_point(|p| p.station <= lo);
-        let to = points.partition_point(|p| p.station < hi);
-        points.get(from..to).unwrap_or(&[]).iter().map(|p| p.station).collect()
-    };
-    let mut keys: Vec<(f64, KeyPoint)> = Vec::with_capacity(3 * alignment.pvis().len());
-    let mut curves = alignment.curves().iter().peekable();
-    for (i, p) in alignment.pvis().iter().enumerate() {
-        match curves.next_if(|c| c.index == i) {
-            Some(c) if c.length() > 0.0 => {
-                keys.extend([
-                    (c.pvc.0, KeyPoint::Pvc),
-                    (p.station.0, KeyPoint::Pvi),
-                    (c.pvt.0, KeyPoint::Pvt),
-                ]);
-            }
-            _ => keys.push((p.station.0, KeyPoint::Pvi)),
-        }
-    }
-    keys.retain(|(s, _)| *s > lo && *s < hi);
-    let mut stations: Vec<(f64, RowKind)> =
-        Vec::with_capacity(regular.len() + grade_points.len() + breaks.len() + keys.len());
-    let (mut a, mut b, mut c, mut d) = (0, 0, 0, 0);
-    loop {
-        let next = [
-            regular.get(a).map(|&s| (s, RowKind::Interval)),
-            grade_points.get(b).map(|&s| (s, RowKind::GradePoint)),
-            breaks.get(d).map(|&s| (s, RowKind::GroundPoint)),
-            keys.get(c).map(|&(s, k)| (s, RowKind::Key(k))),
-        ];
-        let Some((pick, item)) = next
-            .iter()
-            .enumerate()
-            .filter_map(|(k, x)| x.map(|x| (k, x)))
-            .min_by(|x, y| x.1.0.total_cmp(&y.1.0).then(x.0.cmp(&y.0)))
-        else {
-            break;
-        };
-        match pick {
-            0 => a += 1,
-            1 => b += 1,
-            2 => d += 1,
-            _ => c += 1,
-        }
-        if stations.last().is_none_or(|last| item.0 - last.0 > STATION_HAIR) {
-            stations.push(item);
-        }
-    }
-
-    let shrink = 1.0 - section.shrinkage_percent / 100.0;
-    let factor = volume_factor(alignment.units());
-    let mut rows: Vec<EarthworkRow> = Vec::with_capacity(stations.len());
-    let (mut cut, mut fill, mut mass) = (0.0, 0.0, 0.0);
-    // Stations in order: walk the profile; the ground under most stations
-    // is remembered from the last estimate.
-    let mut cursor = alignment.cursor();
-    for (s, kind) in stations {
-        let (Some(g), Ok(sample)) = (ground.elevation_at(s), cursor.sample(crate::Station(s))) else {
-            continue;
-        };
-        let depth = crate::Depth::new(s, g, sample.elevation);
-        // A grade point is on the ground: its depth is zero by definition.
-        let (cd, fd) = if kind == RowKind::GradePoint { (0.0, 0.0) } else { (depth.cut, depth.fill) };
-        let (ca, fa) = (section.cut_area(cd), section.fill_area(fd));
-        let (cv, fv) = match rows.last() {
-            Some(prev) => {
-                let length = s - prev.station;
-                (length * (prev.cut_area + ca) / 2.0 * factor, length * (prev.fill_area + fa) / 2.0 * factor)
-            }
-            None => (0.0, 0.0),
-        };
-        cut += cv;
-        fill += fv;
-        mass += cv * shrink - fv;
-        rows.push(EarthworkRow {
-            station: s,
-            kind,
-            cut_depth: cd,
-            fill_depth: fd,
-            cut_area: ca,
-            fill_area: fa,
-            cut_volume: cv,
-            fill_volume: fv,
-            mass,
-        });
-    }
-    Ok(Earthwork { units: alignment.units(), section: *section, rows, cut, fill, range: (lo, hi) })
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::{GroundPoint, Profile, Pvi};
+    use crate::{Alignment, Ground, GroundPoint, Profile, Pvi};
 
     fn ground(points: &[(f64, f64)]) -> Ground {
         Ground::new(points.iter().map(|&(station, elevation)| GroundPoint { station, elevation }).collect())
@@ -418,13 +408,13 @@ mod tests {
         let e =
             earthwork(&level(Units::Metric, 20.0), &ground(&[(0.0, 101.0), (20.0, 99.0)]), &SECTION, 20.0)
                 .expect("estimate");
-        let stations: Vec<f64> = e.rows.iter().map(|r| r.station).collect();
+        let stations: Vec<f64> = e.rows().map(|r| r.station).collect();
         assert_eq!(stations, vec![0.0, 10.0, 20.0]);
-        assert_eq!(e.rows.get(1).map(|r| r.kind), Some(RowKind::GradePoint));
+        assert_eq!(e.rows().nth(1).map(|r| r.kind), Some(RowKind::GradePoint));
         assert!((e.cut - 60.0).abs() < 1e-9 && (e.fill - 65.0).abs() < 1e-9, "{} {}", e.cut, e.fill);
         // Mass with 10 % shrinkage: 60 × 0.9 − 65 = −11 (borrow).
         assert!((e.net() - (-11.0)).abs() < 1e-9, "{}", e.net());
-        let row = e.rows.get(1).expect("row");
+        let row = e.rows().nth(1).expect("row");
         assert!((row.cut_volume - 60.0).abs() < 1e-9 && row.fill_volume == 0.0);
         assert!((row.mass - 54.0).abs() < 1e-9);
     }
@@ -442,15 +432,15 @@ mod tests {
         )
         .expect("estimate");
         assert!((e.cut - 100.0 * 144.0 / 54.0).abs() < 1e-9, "{}", e.cut);
-        assert_eq!(e.rows.len(), 3);
+        assert_eq!(e.len(), 3);
     }
 
     #[test]
     fn only_where_there_is_ground() {
         let road = level(Units::Metric, 100.0);
         let e = earthwork(&road, &ground(&[(40.0, 101.0), (60.0, 101.0)]), &SECTION, 20.0).expect("estimate");
-        assert_eq!(e.rows.first().map(|r| r.station), Some(40.0));
-        assert_eq!(e.rows.last().map(|r| r.station), Some(60.0));
+        assert_eq!(e.rows().next().map(|r| r.station), Some(40.0));
+        assert_eq!(e.rows().last().map(|r| r.station), Some(60.0));
         assert_eq!(
             earthwork(&road, &ground(&[(200.0, 1.0), (300.0, 1.0)]), &SECTION, 20.0),
             Err(EarthworkError::NoOverlap)
@@ -479,7 +469,7 @@ mod tests {
         let g = ground(&[(0.0, 100.0), (10.0, 100.0), (15.0, 102.0), (20.0, 100.0), (40.0, 100.0)]);
         let e = earthwork(&road, &g, &SECTION, 20.0).expect("estimate");
         assert!((e.cut - 140.0).abs() < 1e-9, "{}", e.cut);
-        let spike = e.rows.iter().find(|r| (r.station - 15.0).abs() < 1e-12).expect("a section at the spike");
+        let spike = e.rows().find(|r| (r.station - 15.0).abs() < 1e-12).expect("a section at the spike");
         assert_eq!(spike.kind, RowKind::GroundPoint);
         assert!((spike.cut_area - 28.0).abs() < 1e-12);
         assert_eq!(e.range, (0.0, 40.0));
@@ -496,7 +486,75 @@ mod tests {
         ))
         .expect("valid");
         let e = earthwork(&road, &ground(&[(0.0, 101.0), (120.0, 101.0)]), &SECTION, 20.0).expect("estimate");
-        let stations: Vec<f64> = e.rows.iter().map(|r| r.station).collect();
+        let stations: Vec<f64> = e.rows().map(|r| r.station).collect();
         assert_eq!(stations, vec![12.34, 20.0, 40.0, 60.0, 80.0, 100.0]);
+    }
+
+    /// A dense survey (12 001 points, several blocks): after a PVI is
+    /// moved, the blocks away from it are kept (the very same sections) and
+    /// the estimate equals one from scratch, row for row; its totals are
+    /// the sums of its rows' volumes, and its mass ordinate the running sum
+    /// Σ(cut · (1 − shrinkage) − fill) (each recomputed here independently).
+    #[test]
+    fn an_estimate_after_an_edit_keeps_the_blocks_it_did_not_touch() {
+        let pvis = vec![
+            Pvi::new(0.0, 100.0),
+            Pvi::with_curve(300.0, 103.0, 120.0),
+            Pvi::with_curve(700.0, 99.0, 160.0),
+            Pvi::new(1200.0, 101.0),
+        ];
+        let road = Alignment::new(&Profile::new(Units::Metric, pvis.clone())).expect("valid");
+        let g: Ground = (0..=12_000)
+            .map(|i| {
+                let s = f64::from(i) * 0.1;
+                let y = road.sample(crate::Station(s)).map_or(0.0, |x| x.elevation) + 0.8 * (s / 37.0).sin();
+                GroundPoint { station: s, elevation: y }
+            })
+            .collect::<Vec<_>>()
+            .into();
+        let points = crate::grade_points(&road, &g);
+        let before = earthwork_at(&road, &g, &SECTION, 20.0, &points).expect("estimate");
+        assert_eq!(before.blocks.len(), 6);
+        let mut moved = pvis;
+        moved[2].elevation += 0.4;
+        let road2 = Alignment::new(&Profile::new(Units::Metric, moved)).expect("valid");
+        let points2 = crate::grade_points(&road2, &g);
+        let after = Earthwork::after(Some(&before), &road2, &g, &SECTION, 20.0, &points2).expect("estimate");
+        let fresh = earthwork_at(&road2, &g, &SECTION, 20.0, &points2).expect("estimate");
+        assert_eq!(after, fresh);
+        let kept =
+            after.blocks.iter().zip(&before.blocks).filter(|(a, b)| std::sync::Arc::ptr_eq(a, b)).count();
+        // Raising PVI 3 (0+700) changes the road from the PVC of the curve
+        // at PVI 2 (0+240) to the end: the block over 0–204.8 is kept.
+        assert!(kept >= 1 && kept < after.blocks.len(), "{kept} of {} kept", after.blocks.len());
+        let rows: Vec<EarthworkRow> = after.rows().collect();
+        assert_eq!(rows.len(), after.len());
+        assert!(rows.len() > 12_000, "a section at every ground point: {}", rows.len());
+        assert!(rows.windows(2).all(|w| w[1].station - w[0].station > crate::tolerance::STATION_HAIR));
+        let (mut cut, mut fill, mut mass) = (0.0, 0.0, 0.0);
+        for w in rows.windows(2) {
+            let length = w[1].station - w[0].station;
+            let cv = length * (SECTION.cut_area(w[0].cut_depth) + SECTION.cut_area(w[1].cut_depth)) / 2.0;
+            let fv = length * (SECTION.fill_area(w[0].fill_depth) + SECTION.fill_area(w[1].fill_depth)) / 2.0;
+            assert!((cv - w[1].cut_volume).abs() < 1e-12 && (fv - w[1].fill_volume).abs() < 1e-12);
+            cut += cv;
+            fill += fv;
+            mass += cv * 0.9 - fv;
+            assert!((mass - w[1].mass).abs() < 1e-8, "mass at {}", w[1].station);
+        }
+        assert!((cut - after.cut).abs() < 1e-8 && (fill - after.fill).abs() < 1e-8);
+        assert!((after.net() - mass).abs() < 1e-8);
+        // Drawn: about two points per column (a column split by a block's
+        // end gives two more), the highest and lowest mass among them, in
+        // station order.
+        let line = after.mass_line((f64::NEG_INFINITY, f64::INFINITY), 300);
+        assert!(line.len() <= 2 * 300 + 2 + 2 * after.blocks.len(), "{}", line.len());
+        assert!(line.windows(2).all(|w| w[0][0] < w[1][0]));
+        let top = rows.iter().map(|r| r.mass).fold(f64::NEG_INFINITY, f64::max);
+        let bottom = rows.iter().map(|r| r.mass).fold(f64::INFINITY, f64::min);
+        assert!(line.iter().any(|p| p[1].to_bits() == top.to_bits()));
+        assert!(line.iter().any(|p| p[1].to_bits() == bottom.to_bits()));
+        let part = after.mass_line((500.0, 600.0), 50);
+        assert!(part.first().is_some_and(|p| p[0] < 500.0) && part.last().is_some_and(|p| p[0] > 600.0));
     }
 }
