@@ -7,7 +7,7 @@
 
 use std::path::{Path, PathBuf};
 
-use gradewright_document::{Project, TableDecimals, write_atomic};
+use gradewright_document::{Project, TableDecimals};
 use gradewright_draw::{SheetOptions, SheetSize, TitleBlock};
 use gradewright_geometry::Analysis;
 
@@ -100,6 +100,12 @@ pub enum PathProblem {
     /// The system could not tell.
     #[error("{0}")]
     System(String),
+    /// The file the project was read from.
+    #[error("is the input; the export would replace it")]
+    Input,
+    /// Another output of the same export.
+    #[error("is also the {0} output; each output needs a file of its own")]
+    Also(&'static str),
 }
 
 /// Why an export (or another output) cannot go ahead, named by its field.
@@ -207,7 +213,13 @@ pub fn plan(request: &Request) -> Result<Plan, PlanError> {
     if let Some(v) = request.interval
         && !(v.is_finite() && v > 0.0)
     {
-        return value(Field::Interval, format!("the station interval must be a positive number (got {v})"));
+        return value(
+            Field::Interval,
+            format!(
+                "the station interval must be a positive number (got {})",
+                gradewright_geometry::shown(v)
+            ),
+        );
     }
     if let TableDecimals::Fixed(n) = request.decimals
         && n > TableDecimals::MAX
@@ -290,7 +302,18 @@ pub enum RenderError {
     Io(#[from] std::io::Error),
 }
 
-/// Every file of the request, rendered in memory: (path, bytes).
+/// One file of an export, rendered in memory.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Output {
+    /// The choice it answers.
+    pub field: Field,
+    /// Where it goes.
+    pub path: PathBuf,
+    /// Its content.
+    pub bytes: Vec<u8>,
+}
+
+/// Every file of the request, rendered in memory.
 ///
 /// # Errors
 /// A sheet that cannot be laid out or rendered (e.g. too many pixels).
@@ -299,31 +322,32 @@ pub fn render(
     request: &Request,
     analysis: &Analysis,
     project: &Project,
-) -> Result<Vec<(PathBuf, Vec<u8>)>, RenderError> {
+) -> Result<Vec<Output>, RenderError> {
     let mut files = Vec::new();
+    let mut push = |field: Field, path: PathBuf, bytes: Vec<u8>| files.push(Output { field, path, bytes });
     if request.png.is_some() || request.svg.is_some() || request.pdf.is_some() {
         let options = sheet_options(plan, request, project);
         let svgs = gradewright_draw::sheet_svgs(analysis, &options)?;
         let count = svgs.len();
         if let Some(path) = &request.svg {
             for (i, svg) in svgs.iter().enumerate() {
-                files.push((numbered(path, i + 1, count), svg.clone().into_bytes()));
+                push(Field::Svg, numbered(path, i + 1, count), svg.clone().into_bytes());
             }
         }
         if let Some(path) = &request.png {
             for (i, svg) in svgs.iter().enumerate() {
                 let bytes = gradewright_draw::png(svg, request.dpi).map_err(RenderError::Png)?;
-                files.push((numbered(path, i + 1, count), bytes));
+                push(Field::Png, numbered(path, i + 1, count), bytes);
             }
         }
         if let Some(path) = &request.pdf {
-            files.push((path.clone(), gradewright_draw::pdf(&svgs).map_err(RenderError::Pdf)?));
+            push(Field::Pdf, path.clone(), gradewright_draw::pdf(&svgs).map_err(RenderError::Pdf)?);
         }
     }
     if let Some(path) = &request.landxml {
         let mut buffer = Vec::new();
         gradewright_exchange::write_landxml(&mut buffer, project, &gradewright_exchange::Stamp::now())?;
-        files.push((path.clone(), buffer));
+        push(Field::LandXml, path.clone(), buffer);
     }
     if let Some(dir) = &request.csv_dir {
         let Some(alignment) = analysis.alignment.as_ref() else { return Err(RenderError::Unusable) };
@@ -338,13 +362,13 @@ pub fn render(
             &stations,
             rounding,
         )?;
-        files.push((dir.join("stations.csv"), buffer));
+        push(Field::Tables, dir.join("stations.csv"), buffer);
         let mut buffer = Vec::new();
         gradewright_exchange::write_curves_csv(&mut buffer, analysis, rounding)?;
-        files.push((dir.join("curves.csv"), buffer));
+        push(Field::Tables, dir.join("curves.csv"), buffer);
         let mut buffer = Vec::new();
         gradewright_exchange::write_findings_csv(&mut buffer, analysis, rounding)?;
-        files.push((dir.join("findings.csv"), buffer));
+        push(Field::Tables, dir.join("findings.csv"), buffer);
         // The level-section earthwork, when the project sets a section.
         if let Some(section) = &project.section
             && analysis.ground.range().is_some()
@@ -352,22 +376,76 @@ pub fn render(
             let estimate = gradewright_geometry::earthwork(alignment, &analysis.ground, section, interval)?;
             let mut buffer = Vec::new();
             gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate, rounding)?;
-            files.push((dir.join("earthwork.csv"), buffer));
+            push(Field::Tables, dir.join("earthwork.csv"), buffer);
         }
     }
     Ok(files)
 }
 
-/// Writes every file atomically (creating the CSV folder if needed).
+/// Checks every file an export will write, before any is written: each a
+/// regular file or a new name in an existing folder (a numbered sheet and
+/// every table included), none of them one of `inputs` (the files the
+/// project was read from, through links too), no two of them the same file.
+///
+/// # Errors
+/// The first output at fault, named by its field.
+pub fn check_outputs(files: &[Output], inputs: &[&Path]) -> Result<(), PlanError> {
+    for (i, out) in files.iter().enumerate() {
+        let fail = |problem| Err(PlanError::Path { field: out.field, path: out.path.clone(), problem });
+        if inputs.iter().any(|input| gradewright_document::same_file(&out.path, input)) {
+            return fail(PathProblem::Input);
+        }
+        if let Some(other) =
+            files.iter().take(i).find(|o| gradewright_document::same_file(&o.path, &out.path))
+        {
+            return fail(PathProblem::Also(field_word(other.field)));
+        }
+        // A tables folder that does not exist yet is made when writing.
+        let new_folder = out.field == Field::Tables && out.path.parent().is_some_and(|d| !d.exists());
+        if !new_folder {
+            check_file(out.field, &out.path)?;
+        }
+    }
+    Ok(())
+}
+
+/// A field's output as a word for a message (what it is, not how a front
+/// end names the option).
+fn field_word(field: Field) -> &'static str {
+    match field {
+        Field::Png => "PNG",
+        Field::Svg => "SVG",
+        Field::Pdf => "PDF",
+        Field::LandXml => "LandXML",
+        Field::Tables => "tables",
+        _ => "other",
+    }
+}
+
+/// Writes every file together and atomically (creating the tables folder if
+/// needed): all of them, or, when one cannot be written, none (and no new
+/// folder left behind).
 ///
 /// # Errors
 /// The first write that fails, naming the file.
-pub fn write_all(files: &[(PathBuf, Vec<u8>)]) -> Result<(), gradewright_document::FileError> {
-    for (path, bytes) in files {
-        if let Some(dir) = path.parent().filter(|d| !d.as_os_str().is_empty() && !d.exists()) {
-            std::fs::create_dir_all(dir).map_err(|e| gradewright_document::FileError::io(dir, e))?;
+pub fn write_all(files: &[Output]) -> Result<(), gradewright_document::FileError> {
+    let mut made: Vec<PathBuf> = Vec::new();
+    for out in files {
+        if let Some(dir) = out.path.parent().filter(|d| !d.as_os_str().is_empty() && !d.exists()) {
+            if let Err(e) = std::fs::create_dir_all(dir) {
+                remove_made(&made);
+                return Err(gradewright_document::FileError::io(dir, e));
+            }
+            made.push(dir.to_owned());
         }
-        write_atomic(path, bytes, false)?;
     }
-    Ok(())
+    let list: Vec<(&Path, &[u8])> = files.iter().map(|o| (o.path.as_path(), o.bytes.as_slice())).collect();
+    gradewright_document::write_all_atomic(&list, false).inspect_err(|_| remove_made(&made))
+}
+
+/// Removes the folders an export made, when they are still empty.
+fn remove_made(made: &[PathBuf]) {
+    for dir in made.iter().rev() {
+        let _ = std::fs::remove_dir(dir);
+    }
 }

@@ -116,12 +116,6 @@ pub enum LoadError {
         /// The project's.
         project: Units,
     },
-    /// The path is not a regular file.
-    #[error("{}: not a regular file", .path.display())]
-    NotAFile {
-        /// The path.
-        path: PathBuf,
-    },
     /// A project file that cannot be read.
     #[error(transparent)]
     Project(#[from] FileError),
@@ -178,11 +172,7 @@ pub fn load_input(path: &Path, units: Option<Units>, selection: &Selection) -> R
             })
         }
         FileKind::Project => {
-            let meta = std::fs::metadata(path).map_err(|e| FileError::io(path, e))?;
-            if !meta.is_file() {
-                return Err(LoadError::NotAFile { path: path.to_owned() });
-            }
-            let text = std::fs::read_to_string(path).map_err(|e| FileError::io(path, e))?;
+            let text = gradewright_document::read_text(path)?;
             let project = Project::from_ron(&text, path)?;
             if let Some(units) = units
                 && units != project.units
@@ -217,7 +207,11 @@ pub fn encode(project: &Project, kind: FileKind) -> anyhow::Result<Vec<u8>> {
         FileKind::LandXml => {
             gradewright_exchange::write_landxml(&mut buffer, project, &gradewright_exchange::Stamp::now())?;
         }
-        FileKind::Project => buffer = project.to_ron()?.into_bytes(),
+        FileKind::Project => {
+            // Nothing is written that cannot be read back.
+            project.check().map_err(|invalid| anyhow::anyhow!("not written: {invalid}"))?;
+            buffer = project.to_ron()?.into_bytes();
+        }
     }
     Ok(buffer)
 }

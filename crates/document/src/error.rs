@@ -25,6 +25,14 @@ pub enum FileError {
         /// Why not: a folder, a device, a loop of links.
         why: Unwritable,
     },
+    /// Not a file that can be read: a folder, a pipe or a device.
+    #[error("{}: {why}", .path.display())]
+    NotReadable {
+        /// The path.
+        path: PathBuf,
+        /// What it is instead.
+        why: Unreadable,
+    },
     /// The text is not a valid project.
     #[error("{}:{line}:{column}: {message}", .path.display())]
     Syntax {
@@ -50,6 +58,14 @@ pub enum FileError {
         /// Newest version this build reads.
         supported: u32,
     },
+    /// The project holds what no project file may; nothing was written.
+    #[error("{}: not saved: {invalid}", .path.display())]
+    Unsavable {
+        /// The file.
+        path: PathBuf,
+        /// What is wrong.
+        invalid: crate::project::Invalid,
+    },
     /// The project could not be encoded.
     #[error("could not encode the project: {0}")]
     Encode(String),
@@ -70,6 +86,44 @@ pub enum Unwritable {
     /// No file name at all.
     #[error("not a file name")]
     NoName,
+    /// A file without write permission (it is not replaced behind its
+    /// owner's back).
+    #[error("is read-only; make it writable or choose another name")]
+    ReadOnly,
+    /// Two of the files of one save are the same file.
+    #[error("is asked for twice (the same file)")]
+    Twice,
+}
+
+/// Why a path cannot be read as a file.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, thiserror::Error)]
+pub enum Unreadable {
+    /// A folder.
+    #[error("is a folder, not a file")]
+    Folder,
+    /// A device, pipe or socket (opening a pipe would wait for a writer).
+    #[error("is not a regular file (a device, pipe or socket); Gradewright reads only regular files")]
+    NotRegular,
+}
+
+/// Reads `path` as text when it is a regular file.
+///
+/// # Errors
+/// [`FileError::NotReadable`] for a folder, pipe or device (refused before
+/// it is opened); [`FileError::Io`] when reading fails.
+pub fn read_text(path: &std::path::Path) -> Result<String, FileError> {
+    let meta = std::fs::metadata(path).map_err(|e| FileError::io(path, e))?;
+    let why = if meta.is_dir() {
+        Some(Unreadable::Folder)
+    } else if meta.is_file() {
+        None
+    } else {
+        Some(Unreadable::NotRegular)
+    };
+    if let Some(why) = why {
+        return Err(FileError::NotReadable { path: path.to_owned(), why });
+    }
+    std::fs::read_to_string(path).map_err(|e| FileError::io(path, e))
 }
 
 /// What a file that is not a project looks like.

@@ -9,7 +9,7 @@ mod project;
 mod settings;
 mod write;
 
-pub use error::{FileError, LooksLike, Unwritable};
-pub use project::{FORMAT_VERSION, Project, pvi_position};
+pub use error::{FileError, LooksLike, Unreadable, Unwritable, read_text};
+pub use project::{FORMAT_VERSION, Invalid, Part, Project, pvi_position};
 pub use settings::{ExportSettings, Snap, TableDecimals};
-pub use write::write_atomic;
+pub use write::{same_file, write_all_atomic, write_atomic};

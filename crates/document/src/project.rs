@@ -3,7 +3,6 @@
 //! Saved as RON with a `format_version`. Loading names the line and column of
 //! any error; saving is atomic and keeps the previous file as `*.bak`.
 
-use std::fs;
 use std::path::Path;
 
 use serde::{Deserialize, Serialize};
@@ -122,13 +121,17 @@ impl Project {
                 looks_like,
             }
         })?;
-        if let Some((index, why)) = project.ground.problem() {
-            let (line, column) = ground_position(text, index);
+        if let Err(invalid) = project.check() {
+            let (line, column) = match invalid.part {
+                Part::Ground => entry_position(text, "ground", invalid.index),
+                Part::Control => entry_position(text, "controls", invalid.index),
+            }
+            .unwrap_or((1, 1));
             return Err(FileError::Syntax {
                 path: origin.to_owned(),
                 line,
                 column,
-                message: format!("ground point {}: {why}", index + 1),
+                message: invalid.to_string(),
                 looks_like: None,
             });
         }
@@ -142,6 +145,24 @@ impl Project {
             });
         }
         Ok(project)
+    }
+
+    /// What the project holds that no project file may (so that nothing is
+    /// written that cannot be read back): a ground point or a control point
+    /// that is not usable.
+    ///
+    /// # Errors
+    /// The first such point, and why.
+    pub fn check(&self) -> Result<(), Invalid> {
+        if let Some((index, why)) = self.ground.problem() {
+            return Err(Invalid { part: Part::Ground, index, why });
+        }
+        if let Some((index, why)) =
+            self.controls.iter().enumerate().find_map(|(i, c)| c.problem().map(|w| (i, w)))
+        {
+            return Err(Invalid { part: Part::Control, index, why });
+        }
+        Ok(())
     }
 
     /// The project as pretty RON text.
@@ -161,7 +182,7 @@ impl Project {
     /// # Errors
     /// [`FileError`] naming the file, and line and column for syntax errors.
     pub fn load(path: &Path) -> Result<Self, FileError> {
-        let text = fs::read_to_string(path).map_err(|e| FileError::io(path, e))?;
+        let text = crate::read_text(path)?;
         Self::from_ron(&text, path)
     }
 
@@ -172,6 +193,7 @@ impl Project {
     /// # Errors
     /// [`FileError::Io`] naming the file.
     pub fn save(&self, path: &Path) -> Result<(), FileError> {
+        self.check().map_err(|invalid| FileError::Unsavable { path: path.to_owned(), invalid })?;
         let text = self.to_ron()?;
         crate::write_atomic(path, text.as_bytes(), true)
     }
@@ -199,8 +221,14 @@ fn looks_like(text: &str) -> Option<LooksLike> {
 /// in project text, for naming where a PVI's problem is: found when a
 /// problem is reported, in one pass over the text up to it.
 pub fn pvi_position(text: &str, index: usize) -> Option<(usize, usize)> {
-    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
-    let start = text.find("pvis")?;
+    entry_position(text.strip_prefix('\u{feff}').unwrap_or(text), "pvis", index)
+}
+
+/// The line and column of entry `index` (0-based) of the list in field
+/// `key` of a project's text: its `index`-th `station` key after the
+/// field's name.
+fn entry_position(text: &str, key: &str, index: usize) -> Option<(usize, usize)> {
+    let start = field_start(text, key)?;
     let mut rest = start;
     let mut seen = 0;
     while let Some(found) = text.get(rest..).and_then(|t| t.find("station")) {
@@ -218,6 +246,24 @@ pub fn pvi_position(text: &str, index: usize) -> Option<(usize, usize)> {
     None
 }
 
+/// Where field `key` of the project starts: `key` followed by `:` and not
+/// part of a longer name or of a string.
+fn field_start(text: &str, key: &str) -> Option<usize> {
+    let mut from = 0;
+    while let Some(found) = text.get(from..).and_then(|t| t.find(key)) {
+        let at = from + found;
+        let before = text.get(..at).and_then(|b| b.chars().next_back());
+        let after = text.get(at + key.len()..).unwrap_or("");
+        if after.trim_start().starts_with(':')
+            && before.is_none_or(|c| c.is_whitespace() || c == ',' || c == '(')
+        {
+            return Some(at);
+        }
+        from = at + key.len();
+    }
+    None
+}
+
 /// The 1-based line and column of byte offset `at` in `text`.
 fn line_column(text: &str, at: usize) -> (usize, usize) {
     let head = text.get(..at).unwrap_or("");
@@ -228,19 +274,25 @@ fn line_column(text: &str, at: usize) -> (usize, usize) {
     (line, column)
 }
 
-/// The 1-based line and column of ground point `index` in project text
-/// (the start of the ground list when the point is not found).
-fn ground_position(text: &str, index: usize) -> (usize, usize) {
-    let position = |at: usize| line_column(text, at);
-    let Some(start) = text.find("ground:").or_else(|| text.find("ground")) else { return (1, 1) };
-    let mut at = start;
-    for _ in 0..=index {
-        match text.get(at + 1..).and_then(|t| t.find("GroundPoint").or_else(|| t.find("station"))) {
-            Some(found) => at += 1 + found,
-            None => return position(start),
-        }
-    }
-    position(at)
+/// Which list of a project an unusable entry is in.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Part {
+    /// The ground line.
+    Ground,
+    /// The control points.
+    Control,
+}
+
+/// An entry no project file may hold.
+#[derive(Clone, Debug, PartialEq, Eq, thiserror::Error)]
+#[error("{} {}: {why}", match .part { Part::Ground => "ground point", Part::Control => "control point" }, .index + 1)]
+pub struct Invalid {
+    /// Which list.
+    pub part: Part,
+    /// Which entry (0-based).
+    pub index: usize,
+    /// What is wrong.
+    pub why: &'static str,
 }
 
 #[derive(Deserialize)]

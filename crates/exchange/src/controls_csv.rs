@@ -87,10 +87,16 @@ pub fn read_controls_csv(
         let number = |field: &str, text: &str| -> Result<f64, ReadError> {
             let v: f64 =
                 text.parse().map_err(|_| err(line, field, format!("'{}' is not a number", excerpt(text))))?;
-            if v.is_finite() {
-                Ok(v)
-            } else {
+            if !v.is_finite() {
                 Err(err(line, field, format!("'{}' is not a finite number", excerpt(text))))
+            } else if !gradewright_geometry::tolerance::within_limit(v) {
+                Err(err(
+                    line,
+                    field,
+                    format!("'{}' is outside ±1e7, the range Gradewright accepts", excerpt(text)),
+                ))
+            } else {
+                Ok(v + 0.0)
             }
         };
         let elevation = number("elevation", cell(Some(e)))?;

@@ -90,6 +90,9 @@ impl std::fmt::Display for ReadError {
         if self.source.is_some() && self.message.is_empty() {
             return write!(f, "{}", self.path.display());
         }
+        if self.line == 0 && self.field == "file" {
+            return write!(f, "{}: {}", self.path.display(), self.message);
+        }
         write!(f, "{}:{}: {}: {}", self.path.display(), self.line, self.field, self.message)
     }
 }
@@ -106,6 +109,21 @@ impl std::error::Error for ReadError {
 /// # Errors
 /// [`ReadError::io`] when the file cannot be opened.
 pub fn open_file(path: &Path) -> Result<std::io::BufReader<std::fs::File>, ReadError> {
+    // Only a regular file is read: a folder is said so, and a pipe or a
+    // device is refused before it is opened (opening a pipe waits for a
+    // writer that may never come).
+    let meta = std::fs::metadata(path).map_err(|e| ReadError::io(path, e))?;
+    if meta.is_dir() {
+        return Err(ReadError::new(path, 0, "file", "is a folder, not a file"));
+    }
+    if !meta.is_file() {
+        return Err(ReadError::new(
+            path,
+            0,
+            "file",
+            "is not a regular file (a device, pipe or socket); Gradewright reads only regular files",
+        ));
+    }
     std::fs::File::open(path).map(std::io::BufReader::new).map_err(|e| ReadError::io(path, e))
 }
 

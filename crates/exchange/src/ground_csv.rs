@@ -114,7 +114,7 @@ pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result
         }
         rows.push((GroundPoint { station, elevation }, line));
     }
-    order_ground(rows, origin, &names.0)
+    order_ground(rows, origin, (&names.0, &names.1))
 }
 
 /// Puts ground points read from `origin` (each with its file line) in
@@ -125,9 +125,23 @@ pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result
 pub(crate) fn order_ground(
     mut rows: Vec<(GroundPoint, u64)>,
     origin: &Path,
-    field: &str,
+    (field, elevation_field): (&str, &str),
 ) -> Result<GroundTable, ReadError> {
     let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
+    // What a project can hold, checked here so nothing is imported that
+    // cannot be read back: numbers within ±1e7, and -0 the station 0.
+    for (point, line) in &mut rows {
+        for (value, name) in [(point.station, field), (point.elevation, elevation_field)] {
+            if !gradewright_geometry::tolerance::within_limit(value) {
+                return Err(err(
+                    *line,
+                    name,
+                    format!("{value:e} is outside ±1e7, the range Gradewright accepts"),
+                ));
+            }
+        }
+        point.station += 0.0;
+    }
     let mut table = GroundTable::default();
     if rows.windows(2).any(|w| w[1].0.station < w[0].0.station) {
         rows.sort_by(|a, b| a.0.station.total_cmp(&b.0.station));

@@ -108,6 +108,14 @@ pub enum NoteKind {
         /// The elements' names, each once.
         elements: Vec<String>,
     },
+    /// Elements of another vocabulary (namespace) in an alignment's
+    /// profiles, not read.
+    Foreign {
+        /// The alignment.
+        alignment: String,
+        /// The elements, as `{namespace}name`, each once.
+        elements: Vec<String>,
+    },
     /// A ground line in several point lists, joined.
     PointListsJoined {
         /// The ground line.
@@ -119,6 +127,14 @@ pub enum NoteKind {
     StationEquations {
         /// The alignment.
         alignment: String,
+    },
+    /// Elements whose character data a comment or processing instruction
+    /// split: their data was read whole, the pieces joined.
+    DataAroundComments {
+        /// Which element.
+        element: &'static str,
+        /// How many.
+        count: usize,
     },
     /// The design speed the file gives the alignment.
     DesignSpeed {
@@ -183,6 +199,11 @@ impl std::fmt::Display for Note {
             NoteKind::Skipped { profile, elements } => {
                 write!(f, "skipped in ProfAlign '{profile}': {}", elements.join(", "))
             }
+            NoteKind::Foreign { alignment, elements } => write!(
+                f,
+                "skipped in alignment '{alignment}': {} (not LandXML's namespace)",
+                elements.join(", ")
+            ),
             NoteKind::PointListsJoined { surface, lists } => write!(
                 f,
                 "ground line '{surface}' has {lists} point lists; the gaps between them are bridged by straight lines"
@@ -190,6 +211,11 @@ impl std::fmt::Display for Note {
             NoteKind::StationEquations { alignment } => write!(
                 f,
                 "alignment '{alignment}' has station equations; stations are read as internal stations (none applied)"
+            ),
+            NoteKind::DataAroundComments { element, count } => write!(
+                f,
+                "{count} {element} element(s) hold a comment or processing instruction inside their numbers; \
+                 their text was read whole, the pieces joined as XML reads them (check those values)"
             ),
             NoteKind::DesignSpeed { speed, file_units, converted, units } => {
                 write!(

@@ -83,6 +83,23 @@ fn is_zero(v: &f64) -> bool {
 }
 
 impl ControlPoint {
+    /// What makes this point unusable, if anything: a station, elevation,
+    /// tolerance or clearance that is not a finite number within ±1e7 (the
+    /// range Gradewright accepts), or a negative tolerance or clearance.
+    pub fn problem(&self) -> Option<&'static str> {
+        let within = crate::tolerance::within_limit;
+        if !(within(self.station) && within(self.elevation)) {
+            return Some("station and elevation must be finite numbers within ±1e7");
+        }
+        if !(within(self.tolerance) && self.tolerance >= 0.0) {
+            return Some("the tolerance must be a finite number of 0 or more");
+        }
+        if !(within(self.clearance) && self.clearance >= 0.0) {
+            return Some("the clearance must be a finite number of 0 or more");
+        }
+        None
+    }
+
     /// The name, or `control N` (1-based) when it has none.
     pub fn title(&self, index: usize) -> String {
         if self.name.trim().is_empty() { format!("control {}", index + 1) } else { self.name.clone() }
@@ -134,7 +151,7 @@ pub fn check_controls(alignment: &Alignment, controls: &[ControlPoint]) -> Vec<C
     controls
         .iter()
         .map(|c| {
-            if !(c.station.is_finite() && c.elevation.is_finite() && c.tolerance.is_finite()) {
+            if c.problem().is_some() {
                 return ControlStatus::Invalid;
             }
             match alignment.sample(Station(c.station)) {
@@ -168,7 +185,7 @@ pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[Contr
             )),
             ControlStatus::Invalid => findings.push(finding(
                 FindingCode::ControlInvalid,
-                format!("{name}: station, elevation and tolerance must be finite numbers"),
+                format!("{name}: {}", c.problem().unwrap_or("not a usable control point")),
             )),
             ControlStatus::Missed(y, miss) => {
                 let (code, message) = match c.kind {

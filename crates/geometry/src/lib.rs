@@ -68,4 +68,4 @@ pub use limits::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
 pub use station::{Station, StationError, even_stations, excerpt, format_station, parse_station};
 pub use stretch::Stretch;
-pub use units::{Foot, KM_PER_MILE, Units, length_factor, speed_factor, trimmed};
+pub use units::{Foot, KM_PER_MILE, Units, length_factor, shown, speed_factor, trimmed};

@@ -300,7 +300,7 @@ impl Profile {
     /// The largest magnitude accepted for a station, an elevation or a curve
     /// length, in the project's unit (10 000 km or 10 million ft): anything
     /// beyond is a mistake, and would lose every digit that matters.
-    pub const LIMIT: f64 = 1.0e7;
+    pub const LIMIT: f64 = crate::tolerance::COORDINATE_LIMIT;
 
     /// A profile from PVIs.
     pub fn new(units: Units, pvis: Vec<Pvi>) -> Self {

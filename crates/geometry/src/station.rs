@@ -73,6 +73,9 @@ pub enum StationError {
     /// The number is infinite or not a number.
     #[error("'{0}' is not a finite station")]
     NotFinite(String),
+    /// The number is finite but beyond any road.
+    #[error("station '{0}' is outside ±1e7, the range Gradewright accepts")]
+    OutOfRange(String),
 }
 
 /// An example of the notation, for messages.
@@ -159,10 +162,7 @@ pub fn parse_station(text: &str, units: Units) -> Result<f64, StationError> {
     let malformed = || StationError::Malformed(excerpt(trimmed), example(units));
     let Some((head, tail)) = trimmed.split_once('+') else {
         let value: f64 = trimmed.parse().map_err(|_| malformed())?;
-        if !value.is_finite() {
-            return Err(StationError::NotFinite(excerpt(trimmed)));
-        }
-        return Ok(value);
+        return checked(value, trimmed);
     };
     let (negative, digits) = match head.strip_prefix('-') {
         Some(rest) => (true, rest),
@@ -183,10 +183,19 @@ pub fn parse_station(text: &str, units: Units) -> Result<f64, StationError> {
         return Err(StationError::OffsetTooLarge { text: excerpt(trimmed), limit: units.station_length() });
     }
     let magnitude = whole * units.station_length() + offset;
-    if !magnitude.is_finite() {
-        return Err(StationError::NotFinite(excerpt(trimmed)));
+    checked(if negative { -magnitude } else { magnitude }, trimmed)
+}
+
+/// `value` read from `text` as a station: finite, within the range
+/// Gradewright accepts, and `-0` read as 0 (one station, not two).
+fn checked(value: f64, text: &str) -> Result<f64, StationError> {
+    if !value.is_finite() {
+        return Err(StationError::NotFinite(excerpt(text)));
     }
-    Ok(if negative { -magnitude } else { magnitude })
+    if !crate::tolerance::within_limit(value) {
+        return Err(StationError::OutOfRange(excerpt(text)));
+    }
+    Ok(value + 0.0)
 }
 
 #[cfg(test)]

@@ -16,6 +16,16 @@
 //! * An iteration has settled ([`settled`]) when a step changes its value by
 //!   less than [`PASS_RELATIVE`] of it.
 
+/// The largest magnitude accepted for a station, an elevation or a length,
+/// in the project's unit (10 000 km, or 10 million ft): anything beyond is a
+/// mistake, and would lose every digit that matters.
+pub const COORDINATE_LIMIT: f64 = 1.0e7;
+
+/// Whether `value` is a finite number within ±[`COORDINATE_LIMIT`].
+pub fn within_limit(value: f64) -> bool {
+    value.is_finite() && value.abs() <= COORDINATE_LIMIT
+}
+
 /// An algebraic difference of grades at or below this (percent) is no grade
 /// change: no crest, no sag, no curve needed.
 pub const GRADE_CHANGE_PERCENT: f64 = 1e-6;

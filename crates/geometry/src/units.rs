@@ -65,6 +65,17 @@ pub fn trimmed(value: f64, decimals: usize) -> String {
     if text == "-0" { "0".to_owned() } else { text.to_owned() }
 }
 
+/// `value` as a message shows it: plainly with up to six decimals, or in
+/// exponent form when it is huge or tiny (never 309 digits for 1e308).
+pub fn shown(value: f64) -> String {
+    let magnitude = value.abs();
+    if value.is_finite() && (magnitude >= 1.0e9 || (magnitude > 0.0 && magnitude < 1.0e-6)) {
+        format!("{value:e}")
+    } else {
+        trimmed(value, 6)
+    }
+}
+
 /// Kilometres in a mile: exactly 1.609344 (the international mile, 5280
 /// international feet).
 pub const KM_PER_MILE: f64 = 1.609_344;
@@ -127,6 +138,27 @@ impl Units {
         match self {
             Self::Metric => "m",
             Self::UsCustomary => "ft",
+        }
+    }
+
+    /// The design speeds the published SSD and K tables cover (Green Book
+    /// 2018 Tables 3-1, 3-34, 3-36: 20–130 km/h, 15–80 mph, from memory),
+    /// and their row spacing (10 km/h, 5 mph). Gradewright checks only
+    /// design speeds within them.
+    pub fn design_speed_table(self) -> (f64, f64, f64) {
+        match self {
+            Self::Metric => (20.0, 130.0, 10.0),
+            Self::UsCustomary => (15.0, 80.0, 5.0),
+        }
+    }
+
+    /// The coarsest sight-distance step: 10 m or 30 ft (a stretch that falls
+    /// short can be a few metres long, and a coarser step could miss it;
+    /// common practice).
+    pub fn max_sight_step(self) -> f64 {
+        match self {
+            Self::Metric => 10.0,
+            Self::UsCustomary => 30.0,
         }
     }
 
@@ -201,6 +233,14 @@ impl std::fmt::Display for Units {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn messages_show_huge_and_tiny_numbers_short() {
+        assert_eq!(shown(1e308), "1e308");
+        assert_eq!(shown(1e-9), "1e-9");
+        assert_eq!(shown(-12.5), "-12.5");
+        assert_eq!(shown(0.0), "0");
+    }
 
     #[test]
     fn trimmed_numbers_drop_trailing_zeros_only() {

@@ -363,14 +363,33 @@ fn max_grade_follows_class_area_and_terrain() {
     assert_close(criteria.get(CriterionId::MaxGrade), 7.0, 0.0, "criteria follow the class");
 }
 
-/// A design speed off the published tables' rows, or outside their range,
-/// gets a warning saying the values are computed by formula (Green Book 2018
-/// Tables 3-1, 3-34, 3-36: every 10 km/h from 20 to 130, every 5 mph from 15
-/// to 80; from memory).
+/// A design speed off the published tables' rows gets a warning saying the
+/// values are computed by formula; one outside their range (Green Book 2018
+/// Tables 3-1, 3-34, 3-36: every 10 km/h from 20 to 130, every 5 mph from
+/// 15 to 80; from memory) is refused, at both ends, in both units.
 #[test]
 fn design_speeds_off_the_tables_are_warned() {
     let profile = Profile::new(Units::Metric, vec![Pvi::new(0.0, 100.0), Pvi::new(500.0, 102.0)]);
-    for (speed, warned) in [(60.0, false), (57.0, true), (140.0, true), (10.0, true)] {
+    for (units, speed) in [
+        (Units::Metric, 140.0),
+        (Units::Metric, 10.0),
+        (Units::Metric, 1e-9),
+        (Units::UsCustomary, 85.0),
+        (Units::UsCustomary, 14.9),
+    ] {
+        let refused = Criteria { design_speed: Some(speed), ..Criteria::default() }.resolve(units);
+        assert!(
+            matches!(refused, Err(gradewright_geometry::CriteriaError::BadDesignSpeed { .. })),
+            "{speed} {units:?}: {refused:?}"
+        );
+    }
+    for units in [Units::Metric, Units::UsCustomary] {
+        let (low, high, _) = units.design_speed_table();
+        for speed in [low, high] {
+            assert!(Criteria { design_speed: Some(speed), ..Criteria::default() }.resolve(units).is_ok());
+        }
+    }
+    for (speed, warned) in [(60.0, false), (57.0, true), (130.0, false), (20.0, false)] {
         let report = check_profile(&profile, &metric(speed));
         let found = report
             .findings

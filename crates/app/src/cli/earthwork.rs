@@ -31,7 +31,7 @@ pub fn run(run: &mut Run, args: &EarthworkArgs) -> anyhow::Result<ExitCode> {
         shrinkage_percent: args.shrinkage.unwrap_or(0.0),
     };
     if let Err(EarthworkError::Field { field, value, why }) = section.validate() {
-        bail!("{}: {why} (got {value})", option_of(field));
+        bail!("{}: {why} (got {})", option_of(field), gradewright_geometry::shown(value));
     }
     if let Some(v) = args.interval {
         positive("--interval", "the station interval", v)?;

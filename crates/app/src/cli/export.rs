@@ -55,10 +55,13 @@ pub fn run(run: &mut Run, args: &ExportArgs) -> anyhow::Result<ExitCode> {
         RenderError::Png(e) => anyhow!("{}: --dpi: {e}", input.display()),
         other => anyhow!("{}: {other}", input.display()),
     })?;
+    // Every file checked before any is written: none is the input, no two
+    // are the same, each can be written (the numbered sheets and every table).
+    crate::export::check_outputs(&files, &[input.as_path()]).map_err(plan_error)?;
     crate::export::write_all(&files)?;
     let mut text = String::new();
-    for (path, _) in &files {
-        text.push_str(&format!("Wrote {}\n", path.display()));
+    for out in &files {
+        text.push_str(&format!("Wrote {}\n", out.path.display()));
     }
     let fails = analysis.report.findings.iter().filter(|f| f.fails()).count();
     if fails > 0 {

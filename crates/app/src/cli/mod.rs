@@ -216,7 +216,7 @@ fn positive(option: &str, what: &str, value: f64) -> anyhow::Result<f64> {
     if value.is_finite() && value > 0.0 {
         Ok(value)
     } else {
-        bail!("{option}: {what} must be a positive number (got {value})")
+        bail!("{option}: {what} must be a positive number (got {})", gradewright_geometry::shown(value))
     }
 }
 
@@ -284,6 +284,15 @@ impl std::io::Write for Spill {
 fn override_step(loaded: &mut Input, step: Option<f64>) -> anyhow::Result<()> {
     if let Some(step) = step {
         positive("--step", "the station step", step)?;
+        let units = loaded.project.units;
+        if step > units.max_sight_step() {
+            bail!(
+                "--step: a step of {} {len} is coarser than {} {len}; a stretch that falls short could be missed",
+                gradewright_geometry::shown(step),
+                units.max_sight_step(),
+                len = units.length_symbol()
+            );
+        }
         loaded.project.criteria.sight_step = gradewright_geometry::Setting::Override(step);
     }
     Ok(())
@@ -335,6 +344,9 @@ fn resolve(
             "{}: no design speed: give --design-speed or set criteria.design_speed in the project",
             input.display()
         ),
+        e @ gradewright_geometry::CriteriaError::BadDesignSpeed { .. } if design_speed.is_some() => {
+            anyhow!("--design-speed: {e}")
+        }
         other => anyhow!("{}: criteria: {other}", input.display()),
     })
 }

@@ -495,6 +495,9 @@ impl GradewrightApp {
             }
             let files = crate::export::render(&plan, request, analysis, self.project())
                 .map_err(|e| crate::load::one_line(&e))?;
+            let inputs: Vec<&Path> = self.path().into_iter().collect();
+            crate::export::check_outputs(&files, &inputs)
+                .map_err(|e| super::panels::export::plan_words(&e))?;
             crate::export::write_all(&files).map_err(|e| crate::load::one_line(&e))?;
             Ok(files.len())
         });

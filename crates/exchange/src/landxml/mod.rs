@@ -11,6 +11,7 @@
 mod parse;
 mod pick;
 mod read;
+mod text;
 mod write;
 
 pub use read::{

@@ -10,6 +10,7 @@ use gradewright_geometry::{
 use roxmltree::{Document, Node};
 
 use super::NAMESPACE;
+use super::text::{ElementText, Lines, MAX_DEPTH, too_deep};
 use crate::ReadError;
 use crate::ground_csv::order_ground;
 use crate::note::{FileLengths, Note, NoteKind};
@@ -42,6 +43,8 @@ const LINEAR_UNITS: [(&str, Units, Foot, f64); 8] = [
 pub(super) struct Parsed<'a> {
     pub(super) origin: &'a Path,
     pub(super) doc: Document<'a>,
+    /// Lines of positions in the file's text.
+    pub(super) lines: Lines<'a>,
     pub(super) units: FileUnits,
     pub(super) notes: Vec<Note>,
 }
@@ -54,12 +57,23 @@ pub(super) struct AlignmentNodes<'a, 'i> {
     pub(super) surfaces: Vec<(String, Node<'a, 'i>)>,
 }
 
+/// Whether `node` is LandXML's element `name` (in the LandXML namespace, an
+/// older LandXML one, or none; never another vocabulary's element of the
+/// same name).
 pub(super) fn is(node: Node<'_, '_>, name: &str) -> bool {
-    node.is_element() && node.tag_name().name() == name
+    node.is_element() && node.tag_name().name() == name && is_landxml_namespace(node.tag_name().namespace())
 }
 
-pub(super) fn line_of(doc: &Document<'_>, node: Node<'_, '_>) -> u64 {
-    u64::from(doc.text_pos_at(node.range().start).row)
+/// Whether an element in namespace `ns` is LandXML's.
+pub(super) fn is_landxml_namespace(ns: Option<&str>) -> bool {
+    ns.is_none_or(|ns| ns == NAMESPACE || ns.starts_with("http://www.landxml.org/schema/LandXML-"))
+}
+
+/// An element of another vocabulary, as `{namespace}name` for a note.
+pub(super) fn foreign(node: Node<'_, '_>) -> Option<String> {
+    let ns = node.tag_name().namespace();
+    (node.is_element() && !is_landxml_namespace(ns))
+        .then(|| format!("{{{}}}{}", excerpt(ns.unwrap_or("")), excerpt(node.tag_name().name())))
 }
 
 /// A note about `origin`.
@@ -69,6 +83,17 @@ pub(super) fn note(origin: &Path, kind: NoteKind) -> Note {
 
 impl<'a> Parsed<'a> {
     pub(super) fn parse(text: &'a str, origin: &'a Path) -> Result<Self, ReadError> {
+        // The parser recurses once per level: a file nested deeper than any
+        // LandXML is refused before it could run out of stack.
+        if let Some(line) = too_deep(text) {
+            return Err(ReadError::new(
+                origin,
+                line,
+                "xml",
+                format!("elements nest more than {MAX_DEPTH} deep; a LandXML profile is a few levels deep"),
+            ));
+        }
+        let lines = Lines::new(text);
         let doc = Document::parse(text).map_err(|e| {
             // The end of a cut-off file is its last line, not where the
             // parser started.
@@ -84,7 +109,7 @@ impl<'a> Parsed<'a> {
         if root.tag_name().name() != "LandXML" {
             return Err(ReadError::new(
                 origin,
-                line_of(&doc, root),
+                lines.of(root),
                 "LandXML",
                 format!("the root element is <{}>, not <LandXML>", excerpt(root.tag_name().name())),
             ));
@@ -97,19 +122,19 @@ impl<'a> Parsed<'a> {
             Some(ns) => {
                 return Err(ReadError::new(
                     origin,
-                    line_of(&doc, root),
+                    lines.of(root),
                     "LandXML",
                     format!("namespace '{}' is not LandXML's ({NAMESPACE})", excerpt(ns)),
                 ));
             }
             None => notes.push(note(origin, NoteKind::NoNamespace)),
         }
-        let units = file_units(&doc, root, origin, &mut notes)?;
-        Ok(Self { origin, doc, units, notes })
+        let units = file_units(&lines, root, origin, &mut notes)?;
+        Ok(Self { origin, doc, lines, units, notes })
     }
 
     pub(super) fn err(&self, node: Node<'_, '_>, field: &str, message: impl Into<String>) -> ReadError {
-        ReadError::new(self.origin, line_of(&self.doc, node), field, message)
+        ReadError::new(self.origin, self.lines.of(node), field, message)
     }
 
     /// The design speed the file gives `alignment`: a `Roadway` referring to
@@ -234,10 +259,19 @@ impl<'a> Parsed<'a> {
         Ok(value * scale)
     }
 
-    /// The "station elevation" text of a PVI-like element, scaled.
-    pub(super) fn station_elevation(&self, node: Node<'_, '_>, scale: f64) -> Result<(f64, f64), ReadError> {
+    /// The "station elevation" text of a PVI-like element, scaled: its whole
+    /// character data (`interrupted` counts the elements whose data a comment
+    /// or processing instruction split).
+    pub(super) fn station_elevation(
+        &self,
+        node: Node<'_, '_>,
+        scale: f64,
+        interrupted: &mut usize,
+    ) -> Result<(f64, f64), ReadError> {
         let field = node.tag_name().name();
-        let text = node.text().unwrap_or("");
+        let data = ElementText::of(node);
+        *interrupted += usize::from(data.interrupted);
+        let text = data.text.as_str();
         let mut values = Vec::with_capacity(2);
         for token in text.split_whitespace() {
             match token.parse::<f64>() {
@@ -272,8 +306,15 @@ impl<'a> Parsed<'a> {
         let mut pvis = Vec::new();
         let mut lines = Vec::new();
         let mut circular = 0;
+        let mut interrupted = 0;
         let mut skipped: Vec<String> = Vec::new();
         for child in prof_align.children().filter(Node::is_element) {
+            if let Some(name) = foreign(child) {
+                if !skipped.contains(&name) {
+                    skipped.push(name);
+                }
+                continue;
+            }
             let curve = match child.tag_name().name() {
                 "PVI" => VerticalCurve::None,
                 "ParaCurve" => {
@@ -297,9 +338,13 @@ impl<'a> Parsed<'a> {
                     continue;
                 }
             };
-            let (station, elevation) = self.station_elevation(child, scale)?;
+            let (station, elevation) = self.station_elevation(child, scale, &mut interrupted)?;
             pvis.push(Pvi { station: Station(station), elevation, curve });
-            lines.push(line_of(&self.doc, child));
+            lines.push(self.lines.of(child));
+        }
+        if interrupted > 0 {
+            notes
+                .push(note(self.origin, NoteKind::DataAroundComments { element: "PVI", count: interrupted }));
         }
         if pvis.is_empty() {
             return Err(self.err(prof_align, "ProfAlign", format!("design profile '{name}' has no PVI")));
@@ -323,20 +368,24 @@ impl<'a> Parsed<'a> {
     ) -> Result<Vec<GroundPoint>, ReadError> {
         let mut rows = Vec::new();
         let lists: Vec<_> = surface.children().filter(|n| is(*n, "PntList2D")).collect();
+        let mut interrupted = 0;
         for list in &lists {
-            let Some(text_node) = list.children().find(Node::is_text) else {
+            let data = ElementText::of(*list);
+            if data.text.trim().is_empty() {
                 return Err(self.err(*list, "PntList2D", "the point list is empty"));
-            };
-            let text = text_node.text().unwrap_or("");
-            let start = self.doc.text_pos_at(text_node.range().start);
+            }
+            interrupted += usize::from(data.interrupted);
+            let text = data.text.as_str();
             let mut pending: Option<(f64, u64)> = None;
-            let mut line = u64::from(start.row);
-            let mut rest = text;
-            while let Some(begin) = rest.find(|c: char| !c.is_whitespace()) {
-                line += rest.get(..begin).map_or(0, |s| s.matches('\n').count()) as u64;
-                let after = rest.get(begin..).unwrap_or("");
+            let mut offset = 0;
+            while let Some(begin) =
+                text.get(offset..).and_then(|rest| rest.find(|c: char| !c.is_whitespace()))
+            {
+                let begin = offset + begin;
+                let after = text.get(begin..).unwrap_or("");
                 let end = after.find(char::is_whitespace).unwrap_or(after.len());
                 let token = after.get(..end).unwrap_or("");
+                let line = data.line(&self.lines, begin);
                 let value = match token.parse::<f64>() {
                     Ok(v) if v.is_finite() => v * scale,
                     _ => {
@@ -354,7 +403,7 @@ impl<'a> Parsed<'a> {
                         rows.push((GroundPoint { station, elevation: value }, first_line));
                     }
                 }
-                rest = after.get(end..).unwrap_or("");
+                offset = begin + end;
             }
             if let Some((_, l)) = pending {
                 return Err(ReadError::new(
@@ -365,6 +414,12 @@ impl<'a> Parsed<'a> {
                 ));
             }
         }
+        if interrupted > 0 {
+            notes.push(note(
+                self.origin,
+                NoteKind::DataAroundComments { element: "PntList2D", count: interrupted },
+            ));
+        }
         if lists.is_empty() {
             return Err(self.err(surface, "ProfSurf", format!("ground line '{name}' has no PntList2D")));
         }
@@ -374,7 +429,7 @@ impl<'a> Parsed<'a> {
                 NoteKind::PointListsJoined { surface: name.to_owned(), lists: lists.len() },
             ));
         }
-        let table = order_ground(rows, self.origin, "PntList2D")?;
+        let table = order_ground(rows, self.origin, ("PntList2D", "PntList2D"))?;
         notes.extend(table.warnings);
         Ok(table.points)
     }
@@ -383,6 +438,19 @@ impl<'a> Parsed<'a> {
     pub(super) fn alignment_notes(&self, alignment: &AlignmentNodes<'_, '_>, notes: &mut Vec<Note>) {
         if alignment.node.children().any(|n| is(n, "StaEquation")) {
             notes.push(note(self.origin, NoteKind::StationEquations { alignment: alignment.name.clone() }));
+        }
+        // Another vocabulary's elements in the alignment's profiles (a
+        // ProfAlign of another namespace is not LandXML's): named, not read.
+        let mut elements: Vec<String> = Vec::new();
+        for child in alignment.node.children().filter(|n| is(*n, "Profile")).flat_map(|p| p.children()) {
+            if let Some(name) = foreign(child)
+                && !elements.contains(&name)
+            {
+                elements.push(name);
+            }
+        }
+        if !elements.is_empty() {
+            notes.push(note(self.origin, NoteKind::Foreign { alignment: alignment.name.clone(), elements }));
         }
     }
 
@@ -419,20 +487,44 @@ pub(super) fn list<S: AsRef<str>>(names: impl Iterator<Item = S>) -> String {
 }
 
 pub(super) fn file_units(
-    doc: &Document<'_>,
+    lines: &Lines<'_>,
     root: Node<'_, '_>,
     origin: &Path,
     notes: &mut Vec<Note>,
 ) -> Result<FileUnits, ReadError> {
     let err = |node: Node<'_, '_>, field: &str, message: String| {
-        ReadError::new(origin, line_of(doc, node), field, message)
+        ReadError::new(origin, lines.of(node), field, message)
     };
-    let Some(units) = root.children().find(|n| is(*n, "Units")) else {
+    let mut all = root.children().filter(|n| is(*n, "Units"));
+    let Some(units) = all.next() else {
         return Err(err(root, "Units", "the file has no Units element (LandXML requires one)".to_owned()));
     };
-    let Some(system) = units.children().find(|n| is(*n, "Metric") || is(*n, "Imperial")) else {
+    if let Some(second) = all.next() {
+        return Err(err(
+            second,
+            "Units",
+            format!(
+                "a second Units element (the first is on line {}); a file states its units once",
+                lines.of(units)
+            ),
+        ));
+    }
+    let systems: Vec<Node<'_, '_>> =
+        units.children().filter(|n| is(*n, "Metric") || is(*n, "Imperial")).collect();
+    let Some(&system) = systems.first() else {
         return Err(err(units, "Units", "Units has neither Metric nor Imperial".to_owned()));
     };
+    if let Some(&other) = systems.get(1) {
+        return Err(err(
+            other,
+            "Units",
+            format!(
+                "Units has both {} and {}; a file states one system of units",
+                system.tag_name().name(),
+                other.tag_name().name()
+            ),
+        ));
+    }
     let kind = system.tag_name().name();
     let field = format!("{kind}@linearUnit");
     let Some(linear) = system.attribute("linearUnit") else {

@@ -287,8 +287,15 @@ impl Criteria {
     /// minimum length).
     pub fn resolve(&self, units: Units) -> Result<ResolvedCriteria, CriteriaError> {
         let speed = self.design_speed.ok_or(CriteriaError::NoDesignSpeed)?;
-        if !speed.is_finite() || speed <= 0.0 || speed > 400.0 {
-            return Err(CriteriaError::BadDesignSpeed(speed));
+        // Only speeds the published tables cover are checked: beyond them
+        // the method is not published (between rows it is, by formula, and
+        // a warning says so).
+        let (low, high, _) = units.design_speed_table();
+        let inside = speed.is_finite()
+            && !crate::tolerance::below(speed, low)
+            && !crate::tolerance::above(speed, high);
+        if !inside {
+            return Err(CriteriaError::BadDesignSpeed { speed, low, high, unit: units.speed_symbol() });
         }
         let mut out = ResolvedCriteria {
             units,
@@ -313,6 +320,14 @@ impl Criteria {
                     if !value.is_finite() || value < 0.0 || (value == 0.0 && !zero_ok) {
                         return Err(CriteriaError::BadOverride { criterion: id.label(), value });
                     }
+                    if id == CriterionId::SightStep && crate::tolerance::above(value, units.max_sight_step())
+                    {
+                        return Err(CriteriaError::CoarseStep {
+                            step: value,
+                            max: units.max_sight_step(),
+                            unit: units.length_symbol(),
+                        });
+                    }
                     Resolved { value, overridden: true, rule: "entered by the user".to_owned() }
                 }
             };
@@ -328,11 +343,30 @@ pub enum CriteriaError {
     /// No design speed was set.
     #[error("no design speed is set")]
     NoDesignSpeed,
-    /// The design speed is not usable.
-    #[error("design speed {0} is not a positive speed")]
-    BadDesignSpeed(f64),
+    /// The design speed is not one the published tables cover.
+    #[error("design speed {} {unit} is outside {low}–{high} {unit}, the speeds of the published SSD and K tables (Green Book 2018 Tables 3-1, 3-34, 3-36)", crate::shown(*.speed))]
+    BadDesignSpeed {
+        /// The speed given.
+        speed: f64,
+        /// The tables' lowest speed.
+        low: f64,
+        /// Their highest.
+        high: f64,
+        /// `km/h` or `mph`.
+        unit: &'static str,
+    },
+    /// The sight-distance step is coarser than a shortfall may be long.
+    #[error("sight-distance step {} {unit} is coarser than {max} {unit}; a stretch that falls short could be missed", crate::shown(*.step))]
+    CoarseStep {
+        /// The step given.
+        step: f64,
+        /// The coarsest step.
+        max: f64,
+        /// `m` or `ft`.
+        unit: &'static str,
+    },
     /// An override is not usable.
-    #[error("{criterion}: {value} is not a usable value")]
+    #[error("{criterion}: {} is not a usable value", crate::shown(*.value))]
     BadOverride {
         /// Which criterion.
         criterion: &'static str,

@@ -103,30 +103,22 @@ impl ResolvedCriteria {
         }
     }
 
-    /// Warnings about the design speed: outside the published SSD and K
-    /// tables, or between their rows (the values are then computed by
-    /// formula).
+    /// Warnings about the design speed: between the rows of the published
+    /// SSD and K tables (the values are then computed by formula).
     pub fn speed_notes(&self) -> Vec<String> {
         let unit = self.units.speed_symbol();
-        let (low, high, step) = match self.units {
-            Units::UsCustomary => (15.0, 80.0, 5.0),
-            Units::Metric => (20.0, 130.0, 10.0),
-        };
+        let (low, high, step) = self.units.design_speed_table();
         let v = self.design_speed;
         let mut notes = Vec::new();
-        if crate::tolerance::below(v, low) || crate::tolerance::above(v, high) {
+        // Speeds outside the tables are refused when the criteria are
+        // resolved; between two rows the values are the formula's.
+        let row = (v / step).round() * step;
+        if !crate::tolerance::nearly_equal(v, row) {
             notes.push(format!(
-                "Design speed {v} {unit} is outside the published SSD and K tables ({low}–{high} {unit}, \
-                 Green Book 2018 Tables 3-1, 3-34, 3-36); SSD and K are computed by formula beyond them"
+                "Design speed {} {unit} lies between the rows of the published SSD and K tables \
+                 ({low}–{high} {unit}, every {step} {unit}); SSD and K are computed by formula, not read from a row",
+                crate::trimmed(v, 2)
             ));
-        } else {
-            let row = (v / step).round() * step;
-            if !crate::tolerance::nearly_equal(v, row) {
-                notes.push(format!(
-                    "Design speed {v} {unit} lies between the rows of the published SSD and K tables \
-                     (every {step} {unit}); SSD and K are computed by formula, not read from a row"
-                ));
-            }
         }
         notes
     }

@@ -29,6 +29,12 @@ pub use blocks::{earthwork, earthwork_at};
 
 use crate::{KeyPoint, Units};
 
+/// The widest roadway a section may have (in the project's unit).
+const MAX_WIDTH: f64 = 1.0e4;
+
+/// The flattest side slope a section may have (horizontal per unit rise).
+const MAX_SLOPE: f64 = 1.0e3;
+
 /// The level typical section of the estimate.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -63,16 +69,21 @@ impl Section {
         let field = |field: SectionField, why: &'static str| {
             Err(EarthworkError::Field { field, value: self.value(field), why })
         };
-        if !(self.width.is_finite() && self.width > 0.0) {
-            return field(SectionField::Width, "must be a number greater than 0");
+        // A section beyond any road (wider than 10 km, slopes flatter than
+        // 1000:1) is a mistake, and its areas would overflow.
+        if !(self.width.is_finite() && self.width > 0.0 && self.width <= MAX_WIDTH) {
+            return field(SectionField::Width, "must be a number greater than 0 and at most 10000");
         }
-        if !(self.cut_slope.is_finite() && self.cut_slope >= 0.0) {
-            return field(SectionField::CutSlope, "must be a number of 0 or more (horizontal per unit rise)");
+        if !(self.cut_slope.is_finite() && (0.0..=MAX_SLOPE).contains(&self.cut_slope)) {
+            return field(
+                SectionField::CutSlope,
+                "must be a number from 0 to 1000 (horizontal per unit rise)",
+            );
         }
-        if !(self.fill_slope.is_finite() && self.fill_slope >= 0.0) {
+        if !(self.fill_slope.is_finite() && (0.0..=MAX_SLOPE).contains(&self.fill_slope)) {
             return field(
                 SectionField::FillSlope,
-                "must be a number of 0 or more (horizontal per unit rise)",
+                "must be a number from 0 to 1000 (horizontal per unit rise)",
             );
         }
         if !(self.shrinkage_percent.is_finite() && (0.0..100.0).contains(&self.shrinkage_percent)) {

@@ -59,6 +59,12 @@ impl Ground {
             if !p.station.is_finite() || !p.elevation.is_finite() {
                 return Some((i, "station and elevation must be finite numbers"));
             }
+            if !crate::tolerance::within_limit(p.station) || !crate::tolerance::within_limit(p.elevation) {
+                return Some((
+                    i,
+                    "station and elevation must lie within ±1e7, the range Gradewright accepts",
+                ));
+            }
             if i > 0 && self.get(i - 1).is_some_and(|q| q.station >= p.station) {
                 return Some((i, "stations must increase"));
             }

@@ -54,8 +54,17 @@ impl CriteriaPanel {
             let current = criteria.design_speed.map_or_else(String::new, |v| trimmed(v, 4));
             let id = Cell::DesignSpeed;
             if let Some(text) = self.cells.edit(ui, id, &current, 60.0, "Design speed value") {
+                let (low, high, _) = units.design_speed_table();
                 let parsed = parse_number(&text).and_then(|v| {
-                    if v > 0.0 && v <= 400.0 { Ok(v) } else { Err(format!("{v} is not a design speed")) }
+                    if (low..=high).contains(&v) {
+                        Ok(v)
+                    } else {
+                        Err(format!(
+                            "{} is outside {low}–{high} {}, the speeds of the published tables",
+                            gradewright_geometry::shown(v),
+                            units.speed_symbol()
+                        ))
+                    }
                 });
                 if let Some(v) = self.cells.settle(id, &text, parsed) {
                     let mut c = criteria.clone();

@@ -64,7 +64,8 @@ pub fn status_text(worst: Option<Severity>, palette: Palette) -> RichText {
 pub fn unchecked_words(why: &CriteriaError) -> &'static str {
     match why {
         CriteriaError::NoDesignSpeed => "no design speed",
-        CriteriaError::BadDesignSpeed(_) => "design speed unusable",
+        CriteriaError::BadDesignSpeed { .. } => "design speed off the tables",
+        CriteriaError::CoarseStep { .. } => "sight step too coarse",
         CriteriaError::BadOverride { .. } => "a criterion unusable",
     }
 }
