@@ -4,7 +4,7 @@
 
 use std::path::PathBuf;
 
-use gradewright_geometry::{Units, trimmed};
+use gradewright_geometry::{Units, excerpt, trimmed};
 
 /// One thing to know about a file that was read.
 #[derive(Clone, Debug, PartialEq)]
@@ -197,20 +197,23 @@ impl std::fmt::Display for Note {
                 "{count} circular vertical curve(s) (CircCurve) read as parabolic curves of the same length; check them"
             ),
             NoteKind::Skipped { profile, elements } => {
-                write!(f, "skipped in ProfAlign '{profile}': {}", elements.join(", "))
+                write!(f, "skipped in ProfAlign '{}': {}", excerpt(profile), elements.join(", "))
             }
             NoteKind::Foreign { alignment, elements } => write!(
                 f,
-                "skipped in alignment '{alignment}': {} (not LandXML's namespace)",
+                "skipped in alignment '{}': {} (not LandXML's namespace)",
+                excerpt(alignment),
                 elements.join(", ")
             ),
             NoteKind::PointListsJoined { surface, lists } => write!(
                 f,
-                "ground line '{surface}' has {lists} point lists; the gaps between them are bridged by straight lines"
+                "ground line '{}' has {lists} point lists; the gaps between them are bridged by straight lines",
+                excerpt(surface)
             ),
             NoteKind::StationEquations { alignment } => write!(
                 f,
-                "alignment '{alignment}' has station equations; stations are read as internal stations (none applied)"
+                "alignment '{}' has station equations; stations are read as internal stations (none applied)",
+                excerpt(alignment)
             ),
             NoteKind::DataAroundComments { element, count } => write!(
                 f,
@@ -231,7 +234,8 @@ impl std::fmt::Display for Note {
             }
             NoteKind::OutsideAlignment { count, alignment, start, end } => write!(
                 f,
-                "{count} PVI(s) lie outside alignment '{alignment}' (stations {start} to {end}); read as given"
+                "{count} PVI(s) lie outside alignment '{}' (stations {start} to {end}); read as given",
+                excerpt(alignment)
             ),
         }
     }

@@ -66,6 +66,6 @@ pub use ground::{
 pub use increment::Increment;
 pub use limits::InsertError;
 pub use profile::{Profile, ProfileProblem, Pvi, VerticalCurve};
-pub use station::{Station, StationError, even_stations, excerpt, format_station, parse_station};
+pub use station::{Station, StationError, even_stations, excerpt, format_station, parse_station, visible};
 pub use stretch::Stretch;
 pub use units::{Foot, KM_PER_MILE, Units, length_factor, shown, speed_factor, trimmed};

@@ -364,12 +364,22 @@ impl Profile {
         }
         let mut finite = vec![true; n];
         for (index, pvi) in self.pvis.iter().enumerate() {
-            let values = [
-                ("station", pvi.station.0),
-                ("elevation", pvi.elevation),
-                ("curve length in", pvi.curve.length_in()),
-                ("curve length out", pvi.curve.length_out()),
-            ];
+            // A symmetric curve is given (and named) by its whole length; an
+            // unequal-tangent one by its two.
+            let values = match pvi.curve {
+                VerticalCurve::Unequal { length_in, length_out } => [
+                    ("station", pvi.station.0),
+                    ("elevation", pvi.elevation),
+                    ("curve length in", length_in),
+                    ("curve length out", length_out),
+                ],
+                _ => [
+                    ("station", pvi.station.0),
+                    ("elevation", pvi.elevation),
+                    ("curve length", pvi.curve.length()),
+                    ("curve length", 0.0),
+                ],
+            };
             for (field, value) in values {
                 if !value.is_finite() {
                     problems.push(ProfileProblem::NotFinite { index, field });

@@ -137,15 +137,50 @@ pub fn format_station(value: f64, units: Units, decimals: usize) -> String {
 const EXCERPT_CHARS: usize = 40;
 
 /// `text` as quoted in an error message: whole when short, else its first
-/// characters and how long it was (a 10 MB cell is never echoed whole).
+/// characters and how long it was (a 10 MB cell is never echoed whole), with
+/// every control or invisible formatting character written out (`\n`,
+/// `\u{1b}`), so a quoted value can neither hide a character nor start a
+/// line of its own.
 pub fn excerpt(text: &str) -> String {
     let count = text.chars().count();
-    if count <= EXCERPT_CHARS {
-        text.to_owned()
-    } else {
-        let head: String = text.chars().take(EXCERPT_CHARS).collect();
-        format!("{head}… ({count} characters)")
+    let mut out = String::new();
+    for c in text.chars().take(EXCERPT_CHARS) {
+        match c {
+            '\n' => out.push_str("\\n"),
+            '\r' => out.push_str("\\r"),
+            '\t' => out.push_str("\\t"),
+            c if unprintable(c) => out.push_str(&format!("\\u{{{:x}}}", u32::from(c))),
+            c => out.push(c),
+        }
     }
+    if count > EXCERPT_CHARS {
+        out.push_str(&format!("… ({count} characters)"));
+    }
+    out
+}
+
+/// Whether `c` shows nothing of itself: a control character, a
+/// non-character (U+FFFE, U+FFFF), or an invisible format character (zero
+/// widths, direction marks, the byte-order mark).
+fn unprintable(c: char) -> bool {
+    c.is_control()
+        || matches!(c, '\u{fffe}' | '\u{ffff}' | '\u{200b}'..='\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2060}'..='\u{2064}' | '\u{feff}')
+}
+
+/// `text` with every character a drawing or an XML file cannot hold (control
+/// characters, U+FFFE, U+FFFF) replaced visibly by U+FFFD, and cut to at most
+/// `max` characters with "…" (a name is never drawn a megabyte long).
+pub fn visible(text: &str, max: usize) -> String {
+    let count = text.chars().count();
+    let mut out: String = text
+        .chars()
+        .take(if count > max { max.saturating_sub(1) } else { max })
+        .map(|c| if c.is_control() || matches!(c, '\u{fffe}' | '\u{ffff}') { '\u{fffd}' } else { c })
+        .collect();
+    if count > max {
+        out.push('…');
+    }
+    out
 }
 
 /// Parses station notation (`12+34.56`, `1+234.567`, `-0+50`) or a plain number

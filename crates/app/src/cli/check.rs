@@ -25,7 +25,7 @@ pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
         bail!("{}: {problem}{more}", loaded.locate(problem));
     }
     if let Ok(alignment) = Alignment::new(&loaded.project.profile()) {
-        refuse_unchecked_sight(&alignment, &criteria, input)?;
+        refuse_unchecked_sight(&alignment, &criteria, input, true)?;
     }
     let project = loaded.project;
     let analysis = Analysis::of(&project.design());

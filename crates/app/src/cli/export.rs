@@ -7,6 +7,8 @@ use gradewright_geometry::Analysis;
 
 use super::args::ExportArgs;
 use super::{Run, build, check_speed, plan_error, print, refuse_unchecked_sight, resolve};
+use gradewright_draw::SheetError;
+
 use crate::export::{RenderError, Request};
 
 /// Runs `export`.
@@ -49,10 +51,14 @@ pub fn run(run: &mut Run, args: &ExportArgs) -> anyhow::Result<ExitCode> {
         bail!("{}: {problem}", loaded.locate(&problem));
     }
     let alignment = build(&loaded)?;
-    refuse_unchecked_sight(&alignment, &criteria, input)?;
+    refuse_unchecked_sight(&alignment, &criteria, input, false)?;
     let analysis = Analysis::of(&loaded.project.design());
     let files = crate::export::render(&plan, &request, &analysis, &loaded.project).map_err(|e| match e {
         RenderError::Png(e) => anyhow!("{}: --dpi: {e}", input.display()),
+        RenderError::Sheet(e @ (SheetError::TooShort(_) | SheetError::TooManySheets(_))) => {
+            anyhow!("{}: --h-scale: {e}", input.display())
+        }
+        RenderError::Sheet(e @ SheetError::NoHeight { .. }) => anyhow!("{}: --v-scale: {e}", input.display()),
         other => anyhow!("{}: {other}", input.display()),
     })?;
     // Every file checked before any is written: none is the input, no two

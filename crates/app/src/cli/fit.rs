@@ -22,7 +22,7 @@ pub fn run(run: &mut Run, args: &FitArgs) -> anyhow::Result<ExitCode> {
     let input = &args.source.input;
     let (loaded, criteria) = run.load_checked(&args.source, &args.checking)?;
     let alignment = build(&loaded)?;
-    refuse_unchecked_sight(&alignment, &criteria, input)?;
+    refuse_unchecked_sight(&alignment, &criteria, input, true)?;
     let project = &loaded.project;
     let increment = args.increment.unwrap_or(project.units.curve_length_increment());
     let before = Analysis::of(&project.design());

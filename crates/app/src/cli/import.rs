@@ -46,8 +46,8 @@ pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
             text.push_str(&format!(
                 "note: {}: ground line '{}' of alignment '{}'\n",
                 ground.display(),
-                read.surface,
-                read.alignment
+                gradewright_geometry::excerpt(&read.surface),
+                gradewright_geometry::excerpt(&read.alignment)
             ));
             for n in &read.notes {
                 text.push_str(&format!("note: {n}\n"));

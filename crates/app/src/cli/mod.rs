@@ -23,7 +23,7 @@ use anyhow::{Context as _, anyhow, bail};
 use clap::Parser as _;
 use gradewright_document::{FileError, LooksLike};
 use gradewright_exchange::{Choosing, ReadError};
-use gradewright_geometry::{Alignment, ProfileProblem, ResolvedCriteria};
+use gradewright_geometry::{Alignment, ProfileProblem, ResolvedCriteria, excerpt};
 
 use crate::export::{Field, PlanError};
 use crate::load::{Input, LoadError, load_input};
@@ -100,9 +100,9 @@ impl Run {
             self.notes.push(format!(
                 "{}: alignment '{}', profile '{}'{}",
                 loaded.path.display(),
-                p.alignment,
-                p.profile,
-                p.surface.as_ref().map(|s| format!(", ground '{s}'")).unwrap_or_default()
+                excerpt(&p.alignment),
+                excerpt(&p.profile),
+                p.surface.as_ref().map(|s| format!(", ground '{}'", excerpt(s))).unwrap_or_default()
             ));
         }
         self.notes.extend(loaded.notes.iter().map(ToString::to_string));
@@ -312,6 +312,7 @@ fn refuse_unchecked_sight(
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
     input: &Path,
+    step_option: bool,
 ) -> anyhow::Result<()> {
     let step = criteria.get(gradewright_geometry::CriterionId::SightStep);
     let span = alignment.end() - alignment.start();
@@ -319,11 +320,16 @@ fn refuse_unchecked_sight(
     if count.is_nan() || count > gradewright_geometry::MAX_SIGHT_STATIONS {
         bail!(
             "{}: criteria.sight_step: a step of {step} {} over {span} {} would need more than {} stations; \
-             the sight distance could not be checked (use a larger step: --step)",
+             the sight distance could not be checked ({})",
             input.display(),
             alignment.units().length_symbol(),
             alignment.units().length_symbol(),
-            gradewright_geometry::MAX_SIGHT_STATIONS
+            gradewright_geometry::MAX_SIGHT_STATIONS,
+            if step_option {
+                "use a larger step: --step"
+            } else {
+                "set a larger criteria.sight_step in the project"
+            }
         );
     }
     Ok(())

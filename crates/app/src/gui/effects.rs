@@ -7,7 +7,7 @@ use std::path::{Path, PathBuf};
 
 use gradewright_document::{FileError, LooksLike};
 use gradewright_exchange::{Choosing, ReadError, Selection};
-use gradewright_geometry::{Foot, Ground, Units};
+use gradewright_geometry::{Foot, Ground, Units, excerpt};
 
 use super::app::GradewrightApp;
 use super::command::{Action, Edit};
@@ -266,7 +266,11 @@ impl GradewrightApp {
                     input.notes.iter().filter(|n| !n.kind.is_units_read()).map(ToString::to_string).collect();
                 let more = if told.is_empty() { String::new() } else { format!(" · {}", told.join(" · ")) };
                 let (name, alignment, ground) = match input.picked {
-                    Some(p) => (p.profile, p.alignment, p.surface.map(|s| format!(" and ground '{s}'"))),
+                    Some(p) => (
+                        excerpt(&p.profile),
+                        excerpt(&p.alignment),
+                        p.surface.map(|s| format!(" and ground '{}'", excerpt(&s))),
+                    ),
                     None => (String::new(), String::new(), None),
                 };
                 self.say(

@@ -294,7 +294,11 @@ pub(super) fn title_block(
     let mut out = vec![frame_rect(mm(title_x), mm(block_y), title_w, tb_h, 0.5)];
     #[allow(clippy::cast_precision_loss)]
     let row_h = tb_h / rows.len() as f64;
+    // Each value fits its box: cut with "…" where it would run out of it.
+    #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+    let room = ((title_w - 31.0) / (TEXT * 0.55)).max(8.0) as usize;
     for (k, (name, value)) in rows.into_iter().enumerate() {
+        let value = gradewright_geometry::visible(&value, room);
         #[allow(clippy::cast_precision_loss)]
         let y = block_y + k as f64 * row_h;
         if k > 0 {

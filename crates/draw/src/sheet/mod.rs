@@ -134,12 +134,34 @@ pub enum SheetError {
     #[error("overlap {0} is not usable (at least 0 and less than the length one sheet shows)")]
     Overlap(f64),
     /// Too many sheets.
-    #[error("the profile would need {0} sheets at this scale (at most 200); choose a smaller scale")]
-    TooManySheets(usize),
+    #[error(
+        "the profile would need {0} sheets at this horizontal scale (at most {MAX_SHEETS}); choose a larger scale number N"
+    )]
+    TooManySheets(u64),
+    /// A horizontal scale at which the profile would be a speck.
+    #[error("at this horizontal scale the profile would be {} mm long on the sheet (at least {MIN_PROFILE_MM} mm); choose a smaller scale number N", gradewright_geometry::shown(*.0))]
+    TooShort(f64),
+    /// A vertical scale at which the frame would show next to no elevation.
+    #[error("at this vertical scale the frame would show {} {unit} of elevation (at least {MIN_FRAME_HEIGHT} {unit}); choose a larger scale number N", gradewright_geometry::shown(*.height))]
+    NoHeight {
+        /// The elevation the frame would show.
+        height: f64,
+        /// `m` or `ft`.
+        unit: &'static str,
+    },
     /// The profile cannot be evaluated.
     #[error("the profile has problems to fix first: {0}")]
     Unusable(String),
 }
+
+/// The most sheets one export makes.
+pub const MAX_SHEETS: u64 = 200;
+
+/// The shortest the profile may be on paper, mm.
+const MIN_PROFILE_MM: f64 = 10.0;
+
+/// The least elevation (in the project's unit) a sheet's frame may show.
+const MIN_FRAME_HEIGHT: f64 = 0.1;
 
 /// Margins and bands, mm.
 pub(super) const MARGIN: f64 = 10.0;
@@ -248,9 +270,19 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
         }
     };
     let h_units_per_mm = 1.0 / paper_mm_per_unit(units, h_scale);
+    let on_paper = span / h_units_per_mm;
+    if on_paper.is_nan() || on_paper < MIN_PROFILE_MM {
+        return Err(SheetError::TooShort(on_paper));
+    }
     let sheet_length = frame_w * h_units_per_mm;
     if !(options.overlap.is_finite() && options.overlap >= 0.0 && options.overlap < sheet_length) {
         return Err(SheetError::Overlap(options.overlap));
+    }
+    // The count the scale asks for, before any sheet is laid out.
+    let needed = ((end - start - options.overlap) / (sheet_length - options.overlap)).ceil().max(1.0);
+    if needed > MAX_SHEETS as f64 {
+        #[allow(clippy::cast_possible_truncation, clippy::cast_sign_loss)]
+        return Err(SheetError::TooManySheets(if needed < 1e18 { needed as u64 } else { u64::MAX }));
     }
     let mut pages = Vec::new();
     let mut from = start;
@@ -260,8 +292,8 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
             break;
         }
         from += sheet_length - options.overlap;
-        if pages.len() > 200 {
-            return Err(SheetError::TooManySheets(pages.len()));
+        if pages.len() as u64 > MAX_SHEETS {
+            return Err(SheetError::TooManySheets(pages.len() as u64));
         }
     }
     // The largest elevation range any sheet shows sets the vertical scale.
@@ -300,6 +332,9 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
     let v_units_per_mm = 1.0 / paper_mm_per_unit(units, v_scale);
     let v_step = grid_step(v_units_per_mm, 8.0);
     let height_units = frame_h * v_units_per_mm;
+    if height_units.is_nan() || height_units < MIN_FRAME_HEIGHT {
+        return Err(SheetError::NoHeight { height: height_units, unit: units.length_symbol() });
+    }
     let bottoms = pages
         .iter()
         .map(|&range| {
@@ -322,13 +357,23 @@ pub fn layout(analysis: &Analysis, options: &SheetOptions) -> Result<Layout, She
     })
 }
 
-/// A round grid interval with at least `min_mm` of paper between lines.
+/// A round grid interval with at least `min_mm` of paper between lines, at
+/// any scale (beyond the usual intervals, 1, 2 or 5 times a power of ten):
+/// a sheet never carries more lines than its frame has room for.
 pub(super) fn grid_step(units_per_mm: f64, min_mm: f64) -> f64 {
     let steps = [
         0.1, 0.2, 0.5, 1.0, 2.0, 5.0, 10.0, 20.0, 25.0, 50.0, 100.0, 200.0, 250.0, 500.0, 1000.0, 2000.0,
         5000.0, 10000.0,
     ];
-    steps.iter().copied().find(|s| s / units_per_mm >= min_mm).unwrap_or(10000.0)
+    let wanted = units_per_mm * min_mm;
+    if let Some(step) = steps.iter().copied().find(|&s| s >= wanted) {
+        return step;
+    }
+    if !wanted.is_finite() {
+        return f64::MAX;
+    }
+    let decade = 10f64.powf(wanted.log10().floor());
+    [1.0, 2.0, 5.0, 10.0].iter().map(|m| m * decade).find(|&s| s >= wanted).unwrap_or(10.0 * decade)
 }
 
 /// Every sheet of the profile laid out into its tree.

@@ -86,9 +86,18 @@ pub fn mm(value: f64) -> String {
     format!("{value:.3}")
 }
 
-/// Text made safe inside an element.
+/// The most characters of any one text on a sheet.
+const MAX_TEXT: usize = 2000;
+
+/// Text made safe inside an element: what XML cannot hold (control
+/// characters) replaced visibly, the markup characters escaped, and no
+/// text longer than [`MAX_TEXT`].
 fn escape(text: &str) -> String {
-    text.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
+    gradewright_geometry::visible(text, MAX_TEXT)
+        .replace('&', "&amp;")
+        .replace('<', "&lt;")
+        .replace('>', "&gt;")
+        .replace('"', "&quot;")
 }
 
 /// What a part of the sheet is.

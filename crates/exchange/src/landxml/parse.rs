@@ -347,7 +347,11 @@ impl<'a> Parsed<'a> {
                 .push(note(self.origin, NoteKind::DataAroundComments { element: "PVI", count: interrupted }));
         }
         if pvis.is_empty() {
-            return Err(self.err(prof_align, "ProfAlign", format!("design profile '{name}' has no PVI")));
+            return Err(self.err(
+                prof_align,
+                "ProfAlign",
+                format!("design profile '{}' has no PVI", excerpt(name)),
+            ));
         }
         if circular > 0 {
             notes.push(note(self.origin, NoteKind::CircularCurves { count: circular }));
@@ -421,7 +425,11 @@ impl<'a> Parsed<'a> {
             ));
         }
         if lists.is_empty() {
-            return Err(self.err(surface, "ProfSurf", format!("ground line '{name}' has no PntList2D")));
+            return Err(self.err(
+                surface,
+                "ProfSurf",
+                format!("ground line '{}' has no PntList2D", excerpt(name)),
+            ));
         }
         if lists.len() > 1 {
             notes.push(note(

@@ -68,7 +68,8 @@ fn escape(text: &str) -> String {
             '>' => out.push_str("&gt;"),
             '"' => out.push_str("&quot;"),
             '\'' => out.push_str("&apos;"),
-            c if c.is_control() => out.push(' '),
+            // What XML cannot hold is replaced visibly, never dropped silently.
+            c if c.is_control() || matches!(c, '\u{fffe}' | '\u{ffff}') => out.push('\u{fffd}'),
             c => out.push(c),
         }
     }
