@@ -100,6 +100,9 @@ pub enum PathProblem {
     /// The system could not tell.
     #[error("{0}")]
     System(String),
+    /// A file without write permission (not replaced behind its owner's back).
+    #[error("is read-only; make it writable or choose another name")]
+    ReadOnly,
     /// The file the project was read from.
     #[error("is the input; the export would replace it")]
     Input,
@@ -151,14 +154,20 @@ impl PlanError {
 /// [`PlanError::Path`] with the reason.
 pub fn check_file(field: Field, path: &Path) -> Result<(), PlanError> {
     let fail = |problem| Err(PlanError::Path { field, path: path.to_owned(), problem });
-    match std::fs::metadata(path) {
+    // Through links to the file a save would write (a dangling link's too).
+    let target = match gradewright_document::written_file(path) {
+        Ok(target) => target,
+        Err(e) => return fail(PathProblem::System(e.to_string())),
+    };
+    match std::fs::metadata(&target) {
+        Ok(meta) if meta.is_file() && meta.permissions().readonly() => return fail(PathProblem::ReadOnly),
         Ok(meta) if meta.is_file() => {}
         Ok(meta) if meta.is_dir() => return fail(PathProblem::Folder),
         Ok(_) => return fail(PathProblem::NotRegular),
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => {}
         Err(e) => return fail(PathProblem::System(e.to_string())),
     }
-    let dir = path.parent().filter(|d| !d.as_os_str().is_empty()).unwrap_or(Path::new("."));
+    let dir = target.parent().filter(|d| !d.as_os_str().is_empty()).unwrap_or(Path::new("."));
     if !dir.is_dir() {
         return fail(PathProblem::NoFolder(dir.to_owned()));
     }

@@ -12,4 +12,4 @@ mod write;
 pub use error::{FileError, LooksLike, Unreadable, Unwritable, read_text};
 pub use project::{FORMAT_VERSION, Invalid, Part, Project, pvi_position};
 pub use settings::{ExportSettings, Snap, TableDecimals};
-pub use write::{same_file, write_all_atomic, write_atomic};
+pub use write::{same_file, write_all_atomic, write_atomic, written_file};

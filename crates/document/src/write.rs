@@ -40,7 +40,16 @@ fn refused(path: &Path, why: Unwritable) -> FileError {
 }
 
 /// The file a save to `path` really writes: `path` itself, or the target of
-/// the chain of symbolic links it names.
+/// the chain of symbolic links it names (a dangling link gives the file it
+/// names, which a save would create).
+///
+/// # Errors
+/// [`FileError::NotWritable`] for a loop of links, [`FileError::Io`] when a
+/// link cannot be read.
+pub fn written_file(path: &Path) -> Result<PathBuf, FileError> {
+    follow_links(path)
+}
+
 fn follow_links(path: &Path) -> Result<PathBuf, FileError> {
     let mut current = path.to_owned();
     for _ in 0..MAX_LINKS {
@@ -129,7 +138,7 @@ fn stage(
     bytes: &[u8],
     like: Option<&fs::Metadata>,
 ) -> Result<tempfile::TempPath, FileError> {
-    let fail = |e: std::io::Error| FileError::io(path, e);
+    let fail = |e: std::io::Error| FileError::io(path, unnamed(&e));
     let mut builder = tempfile::Builder::new();
     let prefix = format!("{TEMP_PREFIX}{}-", std::process::id());
     builder.prefix(&prefix).suffix(TEMP_SUFFIX);
@@ -147,6 +156,17 @@ fn stage(
     temp.write_all(bytes).map_err(fail)?;
     temp.as_file().sync_all().map_err(fail)?;
     Ok(temp.into_temp_path())
+}
+
+/// The system's error without the temporary's name that the temporary-file
+/// maker adds (a message names the file the user asked for, never ours).
+fn unnamed(e: &std::io::Error) -> std::io::Error {
+    let inner =
+        e.get_ref().and_then(std::error::Error::source).and_then(|s| s.downcast_ref::<std::io::Error>());
+    match inner.and_then(std::io::Error::raw_os_error).or_else(|| e.raw_os_error()) {
+        Some(code) => std::io::Error::from_raw_os_error(code),
+        None => std::io::Error::from(e.kind()),
+    }
 }
 
 /// One file of a save, written to its temporary and waiting to be renamed.

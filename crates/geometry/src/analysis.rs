@@ -123,7 +123,20 @@ impl Analysis {
     /// Analyses `design`, reusing the sight distance of `previous` (the
     /// analysis of the design before an edit) outside the stretch the edit
     /// can affect. The result equals [`Analysis::of`] (see the tests).
-    pub fn after(design: &Design, mut previous: Option<Self>) -> Self {
+    pub fn after(design: &Design, previous: Option<Self>) -> Self {
+        Self::after_keeping(design, previous, true)
+    }
+
+    /// Analyses `design` once, for a front end that will not edit it (the
+    /// command line): the same analysis as [`Analysis::of`], without what
+    /// is kept to speed up the next edit (the findings are not copied; a
+    /// long failing profile needs a third of the memory). A later
+    /// [`Analysis::refresh`] is correct, only not faster.
+    pub fn once(design: &Design) -> Self {
+        Self::after_keeping(design, None, false)
+    }
+
+    fn after_keeping(design: &Design, mut previous: Option<Self>, keep: bool) -> Self {
         let profile = design.profile();
         let criteria = design.criteria.resolve(design.units);
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
@@ -180,7 +193,7 @@ impl Analysis {
         });
         let curve_fn: Option<crate::checks::CurveReuse<'_>> =
             curve_lookup.as_ref().map(|f| f as crate::checks::CurveReuse<'_>);
-        let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn };
+        let reuse = crate::checks::Reuse { curve: curve_fn, sight: sight_fn, forget: !keep };
         let mut analysis = Self::assemble_reusing(profile, criteria, alignment, sight, reuse);
         analysis.add_site(design, previous_site.as_deref(), previous_earthwork.as_ref());
         analysis.review_ground(design, previous_review);
@@ -224,13 +237,14 @@ impl Analysis {
         let problems = profile.problems();
         let usable = problems.iter().all(is_design_problem);
         let curves = if usable { interior_curves(&profile.pvis) } else { Vec::new() };
+        let reuse_forget = reuse.forget;
         let (mut report, made) = match &criteria {
             Ok(c) => crate::checks::check_profile_reusing(&profile, c, sight, reuse),
             Err(e) => (unchecked_report(&profile, e), crate::checks::Made::default()),
         };
         let spans = made.curves;
         // The checks' curves are one per interior PVI, in order (index k + 1).
-        let curve_notes = Arc::new(if spans.len() == report.curves.len() {
+        let curve_notes = Arc::new(if !reuse_forget && spans.len() == report.curves.len() {
             report
                 .curves
                 .iter()
@@ -476,6 +490,14 @@ mod tests {
         let after = Analysis::after(&moved, Some(analysis));
         let fresh = crate::check_profile(&moved.profile(), &criteria);
         assert_eq!(after.report.findings, fresh.findings);
+        // Analysed once (nothing kept for an edit), the same report; and an
+        // edit after it is still right.
+        let once = Analysis::once(&moved);
+        assert_eq!(once.report.curves, after.report.curves);
+        assert_eq!(once.report.findings, after.report.findings);
+        assert_eq!(once.sight(), after.sight());
+        let again = Analysis::after(&project, Some(once));
+        assert_eq!(again.report.findings, alone.findings);
     }
 
     /// Dragging one PVI of a long profile whose curves all fall short: the

@@ -6,7 +6,7 @@ use anyhow::bail;
 use gradewright_geometry::{Alignment, Analysis};
 
 use super::args::{CheckArgs, Format};
-use super::{Run, print, refuse_unchecked_sight, report};
+use super::{Run, Spill, print, refuse_unchecked_sight, report};
 
 /// Runs `check`.
 ///
@@ -28,12 +28,16 @@ pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
         refuse_unchecked_sight(&alignment, &criteria, input, true)?;
     }
     let project = loaded.project;
-    let analysis = Analysis::of(&project.design());
+    let analysis = Analysis::once(&project.design());
     let checks = &analysis.report;
-    let text = match args.format {
-        Format::Text => report::text(&project, &criteria, &analysis),
-        Format::Json => report::json(&project, &criteria, &analysis)?,
-    };
-    print(text.as_bytes())?;
+    match args.format {
+        // The text report streams (memory stays flat however many findings).
+        Format::Text => {
+            let mut out = Spill::new();
+            let written = report::text(&mut out, &project, &criteria, &analysis);
+            out.finish(written.map_err(anyhow::Error::from))?;
+        }
+        Format::Json => print(report::json(&project, &criteria, &analysis)?.as_bytes())?,
+    }
     Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
 }

@@ -52,7 +52,7 @@ pub fn run(run: &mut Run, args: &ExportArgs) -> anyhow::Result<ExitCode> {
     }
     let alignment = build(&loaded)?;
     refuse_unchecked_sight(&alignment, &criteria, input, false)?;
-    let analysis = Analysis::of(&loaded.project.design());
+    let analysis = Analysis::once(&loaded.project.design());
     let files = crate::export::render(&plan, &request, &analysis, &loaded.project).map_err(|e| match e {
         RenderError::Png(e) => anyhow!("{}: --dpi: {e}", input.display()),
         RenderError::Sheet(e @ (SheetError::TooShort(_) | SheetError::TooManySheets(_))) => {

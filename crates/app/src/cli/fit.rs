@@ -25,7 +25,7 @@ pub fn run(run: &mut Run, args: &FitArgs) -> anyhow::Result<ExitCode> {
     refuse_unchecked_sight(&alignment, &criteria, input, true)?;
     let project = &loaded.project;
     let increment = args.increment.unwrap_or(project.units.curve_length_increment());
-    let before = Analysis::of(&project.design());
+    let before = Analysis::once(&project.design());
     let targets = before.report.failing_curves();
     let (fitted, outcomes) = gradewright_geometry::lengthen_to_clear(
         &before.profile,
@@ -34,9 +34,10 @@ pub fn run(run: &mut Run, args: &FitArgs) -> anyhow::Result<ExitCode> {
         &targets,
         increment,
     );
+    drop(before);
     let mut out = project.clone();
     out.pvis = fitted.pvis;
-    let after = Analysis::of(&out.design()).report;
+    let after = Analysis::once(&out.design()).report;
     write_like_input(&out, input, &args.output)?;
     let mut text = String::new();
     if outcomes.is_empty() {

@@ -43,15 +43,14 @@ pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
                 loaded.project.foot,
             )
             .map_err(read_error)?;
-            text.push_str(&format!(
-                "note: {}: ground line '{}' of alignment '{}'\n",
+            // What the reader noted goes where every command's notes go.
+            run.notes.push(format!(
+                "{}: ground line '{}' of alignment '{}'",
                 ground.display(),
                 gradewright_geometry::excerpt(&read.surface),
                 gradewright_geometry::excerpt(&read.alignment)
             ));
-            for n in &read.notes {
-                text.push_str(&format!("note: {n}\n"));
-            }
+            run.notes.extend(read.notes.iter().map(ToString::to_string));
             gradewright_exchange::GroundTable { points: read.points, warnings: Vec::new() }
         } else {
             gradewright_exchange::read_ground_csv(open("--ground", ground)?, ground, units)?

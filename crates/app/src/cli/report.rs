@@ -1,7 +1,5 @@
 //! Printing check results as text or JSON.
 
-use std::fmt::Write as _;
-
 use gradewright_document::Project;
 use gradewright_geometry::{
     Analysis, ControlKind, ControlStatus, CriterionId, ResolvedCriteria, area_symbol, volume_symbol,
@@ -243,45 +241,48 @@ pub fn json(project: &Project, criteria: &ResolvedCriteria, analysis: &Analysis)
 }
 
 /// The check report as text for a terminal.
+///
+/// # Errors
+/// When writing to `out` fails.
 pub fn text(
+    out: &mut impl std::io::Write,
     project: &Project,
     criteria: &ResolvedCriteria,
     analysis: &gradewright_geometry::Analysis,
-) -> String {
+) -> std::io::Result<()> {
     let checks = &analysis.report;
     let units = project.units;
     let len = units.length_symbol();
-    let mut out = String::new();
-    let _ = writeln!(
+    writeln!(
         out,
         "{}: {} PVIs, {units}, design speed {} {}",
         if project.name.is_empty() { "profile" } else { &project.name },
         project.pvis.len(),
         gradewright_geometry::trimmed(criteria.design_speed, 2),
         units.speed_symbol()
-    );
+    )?;
     for id in CriterionId::ALL {
         if let Some(entry) = criteria.entry(id) {
-            let _ = writeln!(
+            writeln!(
                 out,
                 "  {:<30} {:>9.2} {:<5} {}",
                 id.label(),
                 entry.value,
                 id.quantity().symbol(units),
                 entry.rule
-            );
+            )?;
         }
     }
-    let _ = writeln!(out, "\nCurves:");
-    let _ = writeln!(
+    writeln!(out, "\nCurves:")?;
+    writeln!(
         out,
         "  {:>4} {:>12} {:<5} {:>8} {:>8} {:>7} {:>9} {:>8} {:>8} {:>8} {:>9}  status",
         "PVI", "station", "kind", "g1 %", "g2 %", "A %", "L", "K L/A", "K gov", "K min", "L req"
-    );
+    )?;
     for c in &checks.curves {
         let g = &c.curve;
         let opt = |v: Option<f64>| v.map_or("-".to_owned(), |v| format!("{v:.1}"));
-        let _ = writeln!(
+        writeln!(
             out,
             "  {:>4} {:>12} {:<5} {:>+8.3} {:>+8.3} {:>7.3} {:>9.2} {:>8} {:>8} {:>8} {:>9.2}  {}",
             g.index + 1,
@@ -296,37 +297,40 @@ pub fn text(
             opt(c.k_required),
             c.length_required,
             if c.ok { "ok" } else { "FAIL" }
-        );
+        )?;
     }
-    site_text(&mut out, analysis);
-    let _ = writeln!(out, "\nFindings ({}):", checks.findings.len());
+    site_text(out, analysis)?;
+    writeln!(out, "\nFindings ({}):", checks.findings.len())?;
     if checks.findings.is_empty() {
-        let _ = writeln!(out, "  none");
+        writeln!(out, "  none")?;
     }
     for f in &checks.findings {
-        let _ = writeln!(out, "  [{}] {}: {}", f.severity().key().to_uppercase(), f.code, f.message);
+        writeln!(out, "  [{}] {}: {}", f.severity().key().to_uppercase(), f.code, f.message)?;
     }
-    let _ = writeln!(
+    writeln!(
         out,
         "\nK L/A = length over A; K gov = K of the sharper branch (equal to L/A on an equal-tangent curve), \
          which the checks use. L req = the total length the criteria ask for at the curve's back:ahead ratio."
-    );
-    let _ = writeln!(
+    )?;
+    writeln!(
         out,
         "\nLengths in {len}. Results need checking by a licensed engineer; local codes and agency standards govern."
-    );
-    out
+    )?;
+    Ok(())
 }
 
 /// The control points, the ground and the earthwork estimate, when the
 /// project has them.
-fn site_text(out: &mut String, analysis: &gradewright_geometry::Analysis) {
+fn site_text(
+    out: &mut impl std::io::Write,
+    analysis: &gradewright_geometry::Analysis,
+) -> std::io::Result<()> {
     use gradewright_geometry::{ControlKind, ControlStatus, format_station, volume_symbol};
     let units = analysis.profile.units;
     let len = units.length_symbol();
     let label = |s: f64| format_station(s, units, units.station_decimals());
     if !analysis.controls.is_empty() {
-        let _ = writeln!(out, "\nControl points ({}):", analysis.controls.len());
+        writeln!(out, "\nControl points ({}):", analysis.controls.len())?;
         for (i, c) in analysis.controls.iter().enumerate() {
             let limit = match c.kind {
                 ControlKind::Fixed => format!("fixed {:.3} ± {:.3}", c.elevation, c.tolerance),
@@ -340,21 +344,21 @@ fn site_text(out: &mut String, analysis: &gradewright_geometry::Analysis) {
                 Some(ControlStatus::Invalid) => "not a usable number".to_owned(),
                 None => "not checked (the profile has problems)".to_owned(),
             };
-            let _ = writeln!(out, "  {:<28} {:>12} {:<24} {status}", c.title(i), label(c.station), limit);
+            writeln!(out, "  {:<28} {:>12} {:<24} {status}", c.title(i), label(c.station), limit)?;
         }
     }
     if let Some((a, b)) = analysis.ground.range() {
-        let _ = writeln!(out, "\nGround: {} points, {} to {}", analysis.ground.len(), label(a), label(b));
+        writeln!(out, "\nGround: {} points, {} to {}", analysis.ground.len(), label(a), label(b))?;
         if let Some((s, d)) = analysis.cut_fill.cut {
-            let _ = writeln!(out, "  largest cut  {d:.3} {len} at {}", label(s));
+            writeln!(out, "  largest cut  {d:.3} {len} at {}", label(s))?;
         }
         if let Some((s, d)) = analysis.cut_fill.fill {
-            let _ = writeln!(out, "  largest fill {d:.3} {len} at {}", label(s));
+            writeln!(out, "  largest fill {d:.3} {len} at {}", label(s))?;
         }
         match &analysis.earthwork {
             Some(Ok(e)) => {
                 let vol = volume_symbol(units);
-                let _ = writeln!(
+                writeln!(
                     out,
                     "  earthwork from {} to {} (where the ground covers the profile), level section W {} {len}, cut slope {}:1, fill slope {}:1, shrinkage {} %: cut {:.1} {vol}, fill {:.1} {vol}, net {:+.1} {vol}",
                     label(e.range.0),
@@ -366,12 +370,13 @@ fn site_text(out: &mut String, analysis: &gradewright_geometry::Analysis) {
                     e.cut,
                     e.fill,
                     e.net()
-                );
+                )?;
             }
             Some(Err(e)) => {
-                let _ = writeln!(out, "  earthwork: {e}");
+                writeln!(out, "  earthwork: {e}")?;
             }
             None => {}
         }
     }
+    Ok(())
 }

@@ -167,6 +167,9 @@ pub(crate) struct Reuse<'a> {
     pub curve: Option<CurveReuse<'a>>,
     /// By shortfall.
     pub sight: Option<SightReuse<'a>>,
+    /// Keep nothing for a later check (a one-shot analysis): [`Made`] comes
+    /// back empty, and no finding is copied for it.
+    pub forget: bool,
 }
 
 /// The check and findings an earlier check made of a curve with exactly
@@ -218,7 +221,8 @@ pub(crate) fn check_profile_reusing(
     {
         match &sight {
             Some(sight) => {
-                made.shortfalls = sight::check_sight(&alignment, criteria, sight, reuse.sight, &mut report.findings);
+                made.shortfalls =
+                    sight::check_sight(&alignment, criteria, sight, reuse, &mut report.findings);
             }
             // A check that did not run must not pass.
             None => report.findings.push(Finding::new(

@@ -2,7 +2,7 @@
 //! time, and each stretch where it falls short made a finding.
 
 use super::blame::{Limit, blocking_pvi};
-use super::{SightReuse, label};
+use super::label;
 use crate::visibility::{Direction, Road, SightProfile, sight_profile, stations_every};
 use crate::{Alignment, CriterionId, CurveKind, Finding, FindingCode, Profile, ResolvedCriteria, Station};
 
@@ -93,9 +93,10 @@ pub(super) fn check_sight(
     alignment: &Alignment,
     criteria: &ResolvedCriteria,
     sight: &SightProfile,
-    reuse: Option<SightReuse<'_>>,
+    reuse: super::Reuse<'_>,
     findings: &mut Vec<Finding>,
 ) -> Vec<(crate::visibility::Shortfall, Finding)> {
+    let (forget, reuse) = (reuse.forget, reuse.sight);
     let units = criteria.units;
     let len = units.length_symbol();
     let setup = criteria.sight_setup();
@@ -179,6 +180,10 @@ pub(super) fn check_sight(
             })
         }
     };
+    if forget {
+        findings.extend(made.into_iter().map(|(_, f)| f));
+        return Vec::new();
+    }
     findings.extend(made.iter().map(|(_, f)| f.clone()));
     made
 }
@@ -199,11 +204,17 @@ mod tests {
         let alignment = Alignment::new(&profile).unwrap_or_else(|e| panic!("{e:?}"));
         let sight = compute_sight(&alignment, &criteria).unwrap_or_else(|| panic!("stations"));
         let (mut together, mut alone) = (Vec::new(), Vec::new());
-        let made = check_sight(&alignment, &criteria, &sight, None, &mut together);
+        let made = check_sight(&alignment, &criteria, &sight, crate::checks::Reuse::default(), &mut together);
         let nothing = |_: &crate::visibility::Shortfall| None;
-        let one_by_one = check_sight(&alignment, &criteria, &sight, Some(&nothing), &mut alone);
+        let reuse = crate::checks::Reuse { sight: Some(&nothing), ..crate::checks::Reuse::default() };
+        let one_by_one = check_sight(&alignment, &criteria, &sight, reuse, &mut alone);
         assert!(made.len() > PARALLEL_SHORTFALLS, "{}", made.len());
         assert_eq!(made, one_by_one);
         assert_eq!(together, alone);
+        // Kept for nothing, the findings are the same.
+        let mut once = Vec::new();
+        let forget = crate::checks::Reuse { forget: true, ..crate::checks::Reuse::default() };
+        assert!(check_sight(&alignment, &criteria, &sight, forget, &mut once).is_empty());
+        assert_eq!(once, together);
     }
 }
