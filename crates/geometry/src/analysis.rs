@@ -288,45 +288,26 @@ impl Analysis {
         self.ground = design.ground.clone();
         self.controls.clone_from(&design.controls);
         let Some(alignment) = self.alignment.clone() else { return };
-        self.control_status = check_controls(&alignment, &self.controls);
-        let findings = control_findings(design.units, &self.controls, &self.control_status);
-        self.report.findings.extend(findings);
-        if let Ok(criteria) = &self.criteria {
-            // Sight under a structure is a criterion of the curve: its length
-            // is part of what the curve needs.
-            for u in crate::controls::undercrossings(&alignment, &self.controls, criteria) {
-                if let Some(check) = self.report.curves.iter_mut().find(|c| c.curve.index == u.pvi)
-                    && u.needed.is_finite()
-                {
-                    check.length_required = check.length_required.max(u.needed);
-                }
-            }
-            let under = crate::controls::undercrossing_findings(&alignment, &self.controls, criteria);
-            for f in under {
-                if let Some(list) = f.pvi.and_then(|i| self.by_pvi.get_mut(i)) {
-                    list.push(self.report.findings.len());
-                }
-                if let Some(check) = self.report.curves.iter_mut().find(|c| Some(c.curve.index) == f.pvi) {
-                    check.ok = false;
-                }
-                self.report.findings.push(f);
+        let parts = site_parts(design, &alignment, self.criteria.as_ref().ok(), previous, previous_earthwork);
+        self.control_status = parts.control_status;
+        self.report.findings.extend(parts.control_findings);
+        for (pvi, needed) in parts.needed {
+            if let Some(check) = self.report.curves.iter_mut().find(|c| c.curve.index == pvi) {
+                check.length_required = check.length_required.max(needed);
             }
         }
-        if self.ground.range().is_some() {
-            let scan = crate::ground::SiteScan::new(&alignment, &self.ground, previous);
-            self.cut_fill = scan.summary;
-            if let Some(section) = &design.section {
-                let interval = design.interval();
-                let before = previous_earthwork.and_then(|e| e.as_ref().ok());
-                self.earthwork = Some(crate::Earthwork::after(
-                    before,
-                    &alignment,
-                    &self.ground,
-                    section,
-                    interval,
-                    &scan.grade_points,
-                ));
+        for f in parts.under_findings {
+            if let Some(list) = f.pvi.and_then(|i| self.by_pvi.get_mut(i)) {
+                list.push(self.report.findings.len());
             }
+            if let Some(check) = self.report.curves.iter_mut().find(|c| Some(c.curve.index) == f.pvi) {
+                check.ok = false;
+            }
+            self.report.findings.push(f);
+        }
+        if let Some(scan) = parts.scan {
+            self.cut_fill = scan.summary;
+            self.earthwork = parts.earthwork;
             self.site = Some(Arc::new(scan));
         }
     }
@@ -339,14 +320,7 @@ impl Analysis {
             Some((ground, review)) if ground.shares(&self.ground) => review,
             _ => Arc::new(self.ground.review(design.units)),
         };
-        for w in review.iter() {
-            self.report.findings.push(Finding::new(
-                FindingCode::GroundSuspicious,
-                w.stations(),
-                None,
-                w.describe(design.units),
-            ));
-        }
+        self.report.findings.extend(ground_findings(&review, design.units));
         self.ground_review = Some((self.ground.clone(), review));
     }
 
@@ -462,6 +436,77 @@ fn shortfall_key(s: &Shortfall) -> [u64; 6] {
         s.available.to_bits(),
         s.required.to_bits(),
     ]
+}
+
+/// What the site (control points, ground and section) adds to an analysis
+/// of a profile without problems.
+pub(crate) struct SiteParts {
+    /// How the profile meets each control point.
+    pub control_status: Vec<ControlStatus>,
+    /// The control points' findings.
+    pub control_findings: Vec<Finding>,
+    /// The length each curve needs to see under a structure: (PVI, length).
+    pub needed: Vec<(usize, f64)>,
+    /// The findings of sight under structures (each fails its curve).
+    pub under_findings: Vec<Finding>,
+    /// The scan of the profile over the ground, when there is ground.
+    pub scan: Option<crate::ground::SiteScan>,
+    /// The earthwork estimate, when there is ground and a section.
+    pub earthwork: Option<Result<Earthwork, EarthworkError>>,
+}
+
+/// The site's part of the analysis of `design` on `alignment` (reusing
+/// what `previous` scanned and estimated).
+pub(crate) fn site_parts(
+    design: &Design,
+    alignment: &Alignment,
+    criteria: Option<&ResolvedCriteria>,
+    previous: Option<&crate::ground::SiteScan>,
+    previous_earthwork: Option<&Result<Earthwork, EarthworkError>>,
+) -> SiteParts {
+    let control_status = check_controls(alignment, &design.controls);
+    let control_findings = control_findings(design.units, &design.controls, &control_status);
+    let (needed, under_findings) = match criteria {
+        // Sight under a structure is a criterion of the curve: its length
+        // is part of what the curve needs.
+        Some(criteria) => (
+            crate::controls::undercrossings(alignment, &design.controls, criteria)
+                .into_iter()
+                .filter(|u| u.needed.is_finite())
+                .map(|u| (u.pvi, u.needed))
+                .collect(),
+            crate::controls::undercrossing_findings(alignment, &design.controls, criteria),
+        ),
+        None => (Vec::new(), Vec::new()),
+    };
+    let (scan, earthwork) = if design.ground.range().is_some() {
+        let scan = crate::ground::SiteScan::new(alignment, &design.ground, previous);
+        let earthwork = design.section.as_ref().map(|section| {
+            let before = previous_earthwork.and_then(|e| e.as_ref().ok());
+            crate::Earthwork::after(
+                before,
+                alignment,
+                &design.ground,
+                section,
+                design.interval(),
+                &scan.grade_points,
+            )
+        });
+        (Some(scan), earthwork)
+    } else {
+        (None, None)
+    };
+    SiteParts { control_status, control_findings, needed, under_findings, scan, earthwork }
+}
+
+/// A warning finding for each point of the survey that looks wrong.
+pub(crate) fn ground_findings(
+    review: &[crate::GroundWarning],
+    units: crate::Units,
+) -> impl Iterator<Item = Finding> + '_ {
+    review
+        .iter()
+        .map(move |w| Finding::new(FindingCode::GroundSuspicious, w.stations(), None, w.describe(units)))
 }
 
 #[cfg(test)]

@@ -266,6 +266,11 @@ fn undercrossing_conflict(
     increment: Increment,
     (asked, from, fits): (f64, f64, f64),
 ) -> Option<String> {
+    // Only a structure over this curve can conflict (and the profile is
+    // copied only then: a copy per curve made a long fit quadratic).
+    if controls_near(profile, run.controls, index).is_empty() {
+        return None;
+    }
     let mut probe = profile.clone();
     set_length(&mut probe, index, asked.min(fits));
     let unmet = unmet_undercrossing(&probe, run, index)?;

@@ -14,6 +14,12 @@ impl Profile {
     /// lose their curves (a profile's end carries none), which changes the
     /// road only beyond them.
     pub fn part(&self, lo: f64, hi: f64, inner: std::ops::RangeInclusive<usize>) -> Profile {
+        self.part_at(lo, hi, inner).1
+    }
+
+    /// [`Profile::part`] and the index in this profile of the part's first
+    /// PVI (PVI `k` of the part is PVI `offset + k` here).
+    pub fn part_at(&self, lo: f64, hi: f64, inner: std::ops::RangeInclusive<usize>) -> (usize, Profile) {
         let pvis = &self.pvis;
         let last = pvis.len().saturating_sub(1);
         let pvc = |i: usize| pvis.get(i).map_or(f64::NEG_INFINITY, Pvi::pvc);
@@ -32,7 +38,7 @@ impl Profile {
                 p.curve = VerticalCurve::None;
             }
         }
-        Profile::new(self.units, list)
+        (first, Profile::new(self.units, list))
     }
 
     /// The profile cut into stretches of `pvis_each` PVIs: for each, the

@@ -98,6 +98,13 @@ def main():
         )
         print(f"1,000,000 PVIs (9 m apart): table {t_table:.1f} s, peak {m_table:.0f} MB; "
               f"sight at a 5 m step {t_sight:.1f} s, peak {m_sight:.0f} MB")
+        fitted = os.path.join(tmp, "fitted.xml")
+        (t_check, m_check), (t_fit, m_fit) = timed(
+            [[BIN, "check", million, *speed, "--step", "10"], [BIN, "fit", million, *speed, "--step", "10", "-o", fitted]],
+            1,
+        )
+        print(f"1,000,000 PVIs, every curve failing: check at a 10 m step {t_check:.1f} s, peak {m_check:.0f} MB; "
+              f"fit to LandXML {t_fit:.1f} s, peak {m_fit:.0f} MB")
 
 
 if __name__ == "__main__":

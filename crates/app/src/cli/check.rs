@@ -3,10 +3,17 @@
 use std::process::ExitCode;
 
 use anyhow::bail;
-use gradewright_geometry::{Alignment, Analysis};
+use gradewright_geometry::{Alignment, Analysis, PVIS_PER_STRETCH, StreamedCheck};
 
 use super::args::{CheckArgs, Format};
 use super::{Run, Spill, print, refuse_unchecked_sight, report};
+
+/// PVIs from which `check` and `fit` check a stretch at a time. Streaming
+/// computes the sight distance twice (a pass to count, a pass to write) on
+/// one core's worth of curves, so below this the whole analysis is faster
+/// (100k dense PVIs: 1.85 s whole, 3.31 s streamed) and its memory, about
+/// 5 kB a PVI when every curve fails, is still moderate.
+pub const STREAM_FROM: usize = 200_000;
 
 /// Runs `check`.
 ///
@@ -28,10 +35,20 @@ pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
         refuse_unchecked_sight(&alignment, &criteria, input, true)?;
     }
     let project = loaded.project;
-    let analysis = Analysis::once(&project.design());
-    let checks = &analysis.report;
+    let design = project.design();
+    // A long profile's text report is checked and written an item at a
+    // time (the same report: memory stays flat however many findings).
+    if args.format == Format::Text
+        && design.pvis.len() >= STREAM_FROM
+        && let Some(streamed) = StreamedCheck::new(&design, PVIS_PER_STRETCH)
+    {
+        let mut out = Spill::new();
+        let written = report::text(&mut out, &project, &criteria, &streamed);
+        out.finish(written.map_err(anyhow::Error::from))?;
+        return Ok(if streamed.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS });
+    }
+    let analysis = Analysis::once(&design);
     match args.format {
-        // The text report streams (memory stays flat however many findings).
         Format::Text => {
             let mut out = Spill::new();
             let written = report::text(&mut out, &project, &criteria, &analysis);
@@ -39,5 +56,5 @@ pub fn run(run: &mut Run, args: &CheckArgs) -> anyhow::Result<ExitCode> {
         }
         Format::Json => print(report::json(&project, &criteria, &analysis)?.as_bytes())?,
     }
-    Ok(if checks.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
+    Ok(if analysis.has_failures() { ExitCode::from(1) } else { ExitCode::SUCCESS })
 }

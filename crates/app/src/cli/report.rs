@@ -2,7 +2,8 @@
 
 use gradewright_document::Project;
 use gradewright_geometry::{
-    Analysis, ControlKind, ControlStatus, CriterionId, ResolvedCriteria, area_symbol, volume_symbol,
+    Analysis, ControlKind, ControlStatus, CriterionId, CurveCheck, CutFillSummary, Earthwork, EarthworkError,
+    Finding, ResolvedCriteria, StreamedCheck, area_symbol, volume_symbol,
 };
 use serde::Serialize;
 
@@ -240,6 +241,71 @@ pub fn json(project: &Project, criteria: &ResolvedCriteria, analysis: &Analysis)
     Ok(text)
 }
 
+/// What the text report needs of a check: the whole analysis, or a long
+/// profile's check handed over one item at a time.
+pub trait Checked {
+    /// Every curve's check, in order.
+    ///
+    /// # Errors
+    /// The first error `each` returns.
+    fn curves(&self, each: &mut dyn FnMut(&CurveCheck) -> std::io::Result<()>) -> std::io::Result<()>;
+    /// How many findings there are.
+    fn count(&self) -> usize;
+    /// Every finding, in order.
+    ///
+    /// # Errors
+    /// The first error `each` returns.
+    fn findings(&self, each: &mut dyn FnMut(&Finding) -> std::io::Result<()>) -> std::io::Result<()>;
+    /// How the profile meets each control point.
+    fn control_status(&self) -> &[ControlStatus];
+    /// The largest cut and fill.
+    fn cut_fill(&self) -> CutFillSummary;
+    /// The earthwork estimate.
+    fn earthwork(&self) -> Option<&Result<Earthwork, EarthworkError>>;
+}
+
+impl Checked for Analysis {
+    fn curves(&self, each: &mut dyn FnMut(&CurveCheck) -> std::io::Result<()>) -> std::io::Result<()> {
+        self.report.curves.iter().try_for_each(each)
+    }
+    fn count(&self) -> usize {
+        self.report.findings.len()
+    }
+    fn findings(&self, each: &mut dyn FnMut(&Finding) -> std::io::Result<()>) -> std::io::Result<()> {
+        self.report.findings.iter().try_for_each(each)
+    }
+    fn control_status(&self) -> &[ControlStatus] {
+        &self.control_status
+    }
+    fn cut_fill(&self) -> CutFillSummary {
+        self.cut_fill
+    }
+    fn earthwork(&self) -> Option<&Result<Earthwork, EarthworkError>> {
+        self.earthwork.as_ref()
+    }
+}
+
+impl Checked for StreamedCheck<'_> {
+    fn curves(&self, each: &mut dyn FnMut(&CurveCheck) -> std::io::Result<()>) -> std::io::Result<()> {
+        StreamedCheck::curves(self, each)
+    }
+    fn count(&self) -> usize {
+        self.len()
+    }
+    fn findings(&self, each: &mut dyn FnMut(&Finding) -> std::io::Result<()>) -> std::io::Result<()> {
+        StreamedCheck::findings(self, each)
+    }
+    fn control_status(&self) -> &[ControlStatus] {
+        StreamedCheck::control_status(self)
+    }
+    fn cut_fill(&self) -> CutFillSummary {
+        StreamedCheck::cut_fill(self)
+    }
+    fn earthwork(&self) -> Option<&Result<Earthwork, EarthworkError>> {
+        StreamedCheck::earthwork(self)
+    }
+}
+
 /// The check report as text for a terminal.
 ///
 /// # Errors
@@ -248,9 +314,8 @@ pub fn text(
     out: &mut impl std::io::Write,
     project: &Project,
     criteria: &ResolvedCriteria,
-    analysis: &gradewright_geometry::Analysis,
+    checked: &dyn Checked,
 ) -> std::io::Result<()> {
-    let checks = &analysis.report;
     let units = project.units;
     let len = units.length_symbol();
     writeln!(
@@ -279,7 +344,7 @@ pub fn text(
         "  {:>4} {:>12} {:<5} {:>8} {:>8} {:>7} {:>9} {:>8} {:>8} {:>8} {:>9}  status",
         "PVI", "station", "kind", "g1 %", "g2 %", "A %", "L", "K L/A", "K gov", "K min", "L req"
     )?;
-    for c in &checks.curves {
+    checked.curves(&mut |c| {
         let g = &c.curve;
         let opt = |v: Option<f64>| v.map_or("-".to_owned(), |v| format!("{v:.1}"));
         writeln!(
@@ -297,16 +362,16 @@ pub fn text(
             opt(c.k_required),
             c.length_required,
             if c.ok { "ok" } else { "FAIL" }
-        )?;
-    }
-    site_text(out, analysis)?;
-    writeln!(out, "\nFindings ({}):", checks.findings.len())?;
-    if checks.findings.is_empty() {
+        )
+    })?;
+    site_text(out, project, checked)?;
+    writeln!(out, "\nFindings ({}):", checked.count())?;
+    if checked.count() == 0 {
         writeln!(out, "  none")?;
     }
-    for f in &checks.findings {
-        writeln!(out, "  [{}] {}: {}", f.severity().key().to_uppercase(), f.code, f.message)?;
-    }
+    checked.findings(&mut |f| {
+        writeln!(out, "  [{}] {}: {}", f.severity().key().to_uppercase(), f.code, f.message)
+    })?;
     writeln!(
         out,
         "\nK L/A = length over A; K gov = K of the sharper branch (equal to L/A on an equal-tangent curve), \
@@ -321,23 +386,20 @@ pub fn text(
 
 /// The control points, the ground and the earthwork estimate, when the
 /// project has them.
-fn site_text(
-    out: &mut impl std::io::Write,
-    analysis: &gradewright_geometry::Analysis,
-) -> std::io::Result<()> {
-    use gradewright_geometry::{ControlKind, ControlStatus, format_station, volume_symbol};
-    let units = analysis.profile.units;
+fn site_text(out: &mut impl std::io::Write, project: &Project, checked: &dyn Checked) -> std::io::Result<()> {
+    use gradewright_geometry::format_station;
+    let units = project.units;
     let len = units.length_symbol();
     let label = |s: f64| format_station(s, units, units.station_decimals());
-    if !analysis.controls.is_empty() {
-        writeln!(out, "\nControl points ({}):", analysis.controls.len())?;
-        for (i, c) in analysis.controls.iter().enumerate() {
+    if !project.controls.is_empty() {
+        writeln!(out, "\nControl points ({}):", project.controls.len())?;
+        for (i, c) in project.controls.iter().enumerate() {
             let limit = match c.kind {
                 ControlKind::Fixed => format!("fixed {:.3} ± {:.3}", c.elevation, c.tolerance),
                 ControlKind::Minimum => format!("min {:.3}", c.elevation),
                 ControlKind::Maximum => format!("max {:.3}", c.elevation),
             };
-            let status = match analysis.control_status.get(i) {
+            let status = match checked.control_status().get(i) {
                 Some(ControlStatus::Met(y)) => format!("profile {y:.3}  met"),
                 Some(ControlStatus::Missed(y, miss)) => format!("profile {y:.3}  MISSED by {miss:.3} {len}"),
                 Some(ControlStatus::Outside) => "outside the profile: not checked".to_owned(),
@@ -347,15 +409,15 @@ fn site_text(
             writeln!(out, "  {:<28} {:>12} {:<24} {status}", c.title(i), label(c.station), limit)?;
         }
     }
-    if let Some((a, b)) = analysis.ground.range() {
-        writeln!(out, "\nGround: {} points, {} to {}", analysis.ground.len(), label(a), label(b))?;
-        if let Some((s, d)) = analysis.cut_fill.cut {
+    if let Some((a, b)) = project.ground.range() {
+        writeln!(out, "\nGround: {} points, {} to {}", project.ground.len(), label(a), label(b))?;
+        if let Some((s, d)) = checked.cut_fill().cut {
             writeln!(out, "  largest cut  {d:.3} {len} at {}", label(s))?;
         }
-        if let Some((s, d)) = analysis.cut_fill.fill {
+        if let Some((s, d)) = checked.cut_fill().fill {
             writeln!(out, "  largest fill {d:.3} {len} at {}", label(s))?;
         }
-        match &analysis.earthwork {
+        match checked.earthwork() {
             Some(Ok(e)) => {
                 let vol = volume_symbol(units);
                 writeln!(
@@ -379,4 +441,35 @@ fn site_text(
         }
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The text report of a check streamed a few PVIs at a time is the whole
+    /// analysis's, byte for byte: the demo (ground, control points, a
+    /// section) and a long failing profile.
+    #[test]
+    fn the_streamed_report_is_the_whole_report() {
+        let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../../assets/alder-brook-road.ron");
+        let demo = Project::load(&root).unwrap_or_else(|e| panic!("{e}"));
+        let mut long = Project::new("Long", gradewright_geometry::Units::Metric);
+        long.pvis = gradewright_geometry::synthetic::rolling_profile(long.units, 600, 18_000.0).pvis;
+        long.criteria.design_speed = Some(100.0);
+        for project in [demo, long] {
+            let design = project.design();
+            let criteria = design.criteria.resolve(design.units).unwrap_or_else(|e| panic!("{e}"));
+            let whole = Analysis::of(&design);
+            let (mut a, mut b) = (Vec::new(), Vec::new());
+            text(&mut a, &project, &criteria, &whole).unwrap_or_else(|e| panic!("{e}"));
+            for each in [5, 300] {
+                let streamed = StreamedCheck::new(&design, each).unwrap_or_else(|| panic!("streamable"));
+                b.clear();
+                text(&mut b, &project, &criteria, &streamed).unwrap_or_else(|e| panic!("{e}"));
+                assert!(a == b, "{}: the reports differ at {each} PVIs a stretch", project.name);
+            }
+            assert!(String::from_utf8_lossy(&a).contains("[FAIL]"), "{}", project.name);
+        }
+    }
 }

@@ -6,10 +6,23 @@ use crate::tolerance::{above, below};
 use crate::{CriterionId, Finding, FindingCode, Profile, ResolvedCriteria};
 
 pub(super) fn check_grades(profile: &Profile, criteria: &ResolvedCriteria, findings: &mut Vec<Finding>) {
+    check_grades_of(profile, criteria, 0..profile.pvis.len(), findings);
+}
+
+/// [`check_grades`] on the tangents that start at the PVIs of `starts`.
+pub(crate) fn check_grades_of(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    starts: std::ops::Range<usize>,
+    findings: &mut Vec<Finding>,
+) {
     let units = profile.units;
     let max = criteria.get(CriterionId::MaxGrade);
     let min = criteria.get(CriterionId::MinGrade);
-    for (i, pair) in profile.pvis.windows(2).enumerate() {
+    let first = starts.start;
+    let pvis = profile.pvis.get(first..(starts.end.saturating_add(1)).min(profile.pvis.len())).unwrap_or(&[]);
+    for (k, pair) in pvis.windows(2).enumerate() {
+        let i = first + k;
         let [a, b] = pair else { continue };
         let grade = a.grade_to(b) * 100.0;
         let span = || format!("{} to {}", label(units, a.station), label(units, b.station));

@@ -8,9 +8,11 @@ mod blame;
 mod curve;
 mod grades;
 mod sight;
+mod streamed;
 
 pub use curve::check_curve;
 pub use sight::{MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, compute_sight, sight_by_stretch};
+pub use streamed::StreamedCheck;
 
 use crate::visibility::SightProfile;
 use crate::{

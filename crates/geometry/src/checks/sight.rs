@@ -53,6 +53,17 @@ pub fn sight_by_stretch<E>(
     pvis_each: usize,
     mut each: impl FnMut(&SightProfile) -> Result<(), E>,
 ) -> Result<Streamed, E> {
+    on_each_stretch(profile, criteria, pvis_each, |sight, _, _| each(sight))
+}
+
+/// [`sight_by_stretch`], handing over with each stretch's samples the road
+/// they were computed on and the index of its first PVI in `profile`.
+pub(super) fn on_each_stretch<E>(
+    profile: &Profile,
+    criteria: &ResolvedCriteria,
+    pvis_each: usize,
+    mut each: impl FnMut(&SightProfile, &Alignment, usize) -> Result<(), E>,
+) -> Result<Streamed, E> {
     if !profile.problems().is_empty() {
         return Ok(Streamed::Problems);
     }
@@ -78,9 +89,10 @@ pub fn sight_by_stretch<E>(
         if stations.is_empty() {
             continue;
         }
-        let part = profile.part(stretch.from - beyond, stretch.to + beyond, stretch.first..=stretch.last);
+        let (offset, part) =
+            profile.part_at(stretch.from - beyond, stretch.to + beyond, stretch.first..=stretch.last);
         let Ok(alignment) = Alignment::new(&part) else { return Ok(Streamed::Problems) };
-        each(&sight_profile(&alignment, &setup, requirement, &stations))?;
+        each(&sight_profile(&alignment, &setup, requirement, &stations), &alignment, offset)?;
     }
     Ok(Streamed::Done)
 }
@@ -89,34 +101,52 @@ pub fn sight_by_stretch<E>(
 /// thread costs more than it saves).
 const PARALLEL_SHORTFALLS: usize = 2_000;
 
-pub(super) fn check_sight(
-    alignment: &Alignment,
-    criteria: &ResolvedCriteria,
-    sight: &SightProfile,
-    reuse: super::Reuse<'_>,
-    findings: &mut Vec<Finding>,
-) -> Vec<(crate::visibility::Shortfall, Finding)> {
-    let (forget, reuse) = (reuse.forget, reuse.sight);
-    let units = criteria.units;
-    let len = units.length_symbol();
-    let setup = criteria.sight_setup();
-    let roads = [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)];
-    let fresh = |short: &crate::visibility::Shortfall| -> Finding {
-        let (road, at, way) = match short.direction {
-            Direction::Forward => (&roads[0], short.worst, "forward (increasing stations)"),
-            Direction::Backward => (&roads[1], -short.worst, "backward (decreasing stations)"),
+/// What a shortfall is charged to, found on the road around its worst eye:
+/// whether the headlight governs there, and the PVI (and its words) whose
+/// curve limits the sight.
+#[derive(Clone, Debug, PartialEq)]
+pub(super) struct Blame {
+    headlight: bool,
+    pvi: Option<usize>,
+    words: String,
+}
+
+/// Words shortfalls into findings on one built road: the whole profile's,
+/// or a stretch's part whose first PVI is PVI `offset` of the whole.
+pub(super) struct Wording<'a> {
+    alignment: &'a Alignment,
+    roads: [Road; 2],
+    setup: crate::visibility::SightSetup,
+    units: crate::Units,
+    offset: usize,
+}
+
+impl<'a> Wording<'a> {
+    pub(super) fn new(alignment: &'a Alignment, criteria: &ResolvedCriteria, offset: usize) -> Self {
+        Self {
+            alignment,
+            roads: [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)],
+            setup: criteria.sight_setup(),
+            units: criteria.units,
+            offset,
+        }
+    }
+
+    /// What limits the sight at the shortfall's worst eye (on this road,
+    /// which must hold that eye and all it looks at).
+    pub(super) fn blame(&self, short: &crate::visibility::Shortfall) -> Blame {
+        let (road, at) = match short.direction {
+            Direction::Forward => (&self.roads[0], short.worst),
+            Direction::Backward => (&self.roads[1], -short.worst),
         };
-        let (day, horizon) = road.daylight_and_horizon(at, &setup);
-        let beam = if setup.headlights { road.headlight(at, &setup) } else { f64::INFINITY };
+        let setup = &self.setup;
+        let (day, horizon) = road.daylight_and_horizon(at, setup);
+        let beam = if setup.headlights { road.headlight(at, setup) } else { f64::INFINITY };
         let headlight = beam < day;
-        let governs = if headlight {
-            "headlight sight distance (sag, at night)"
-        } else {
-            "daylight sight distance over the crest"
-        };
         let limit = if headlight { Limit::Beam(beam) } else { Limit::Horizon(horizon) };
-        let pvi = blocking_pvi(alignment, short.direction, short.worst, limit);
-        let blamed = pvi
+        let alignment = self.alignment;
+        let local = blocking_pvi(alignment, short.direction, short.worst, limit);
+        let words = local
             .and_then(|i| alignment.pvis().get(i).map(|p| (i, p)))
             .map(|(i, p)| {
                 // `curves()[k]` is the curve at PVI k + 1: found directly,
@@ -127,27 +157,68 @@ pub(super) fn check_sight(
                     Some(c) if c.kind != CurveKind::None => format!("the {} grade break", c.kind.key()),
                     _ => "the grade".to_owned(),
                 };
-                format!("; limited by {what} at PVI {} ({})", i + 1, label(units, p.station))
+                format!(
+                    "; limited by {what} at PVI {} ({})",
+                    i + self.offset + 1,
+                    label(self.units, p.station)
+                )
             })
             .unwrap_or_default();
+        Blame { headlight, pvi: local.map(|i| i + self.offset), words }
+    }
+
+    /// The finding of a shortfall charged as `blame` says.
+    pub(super) fn finding(
+        units: crate::Units,
+        short: &crate::visibility::Shortfall,
+        blame: &Blame,
+    ) -> Finding {
+        let len = units.length_symbol();
+        let way = match short.direction {
+            Direction::Forward => "forward (increasing stations)",
+            Direction::Backward => "backward (decreasing stations)",
+        };
+        let governs = if blame.headlight {
+            "headlight sight distance (sag, at night)"
+        } else {
+            "daylight sight distance over the crest"
+        };
         Finding::new(
             match short.direction {
                 Direction::Forward => FindingCode::SightForward,
                 Direction::Backward => FindingCode::SightBackward,
             },
             (Station(short.start), Station(short.end)),
-            pvi,
+            blame.pvi,
             format!(
                 "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
-                 worst at {}: {:.1} {len} available{blamed}",
+                 worst at {}: {:.1} {len} available{}",
                 label(units, Station(short.start)),
                 label(units, Station(short.end)),
                 short.required,
                 label(units, Station(short.worst)),
-                short.available
+                short.available,
+                blame.words
             ),
         )
-    };
+    }
+
+    /// The finding of a shortfall whose worst eye is on this road.
+    pub(super) fn word(&self, short: &crate::visibility::Shortfall) -> Finding {
+        Self::finding(self.units, short, &self.blame(short))
+    }
+}
+
+pub(super) fn check_sight(
+    alignment: &Alignment,
+    criteria: &ResolvedCriteria,
+    sight: &SightProfile,
+    reuse: super::Reuse<'_>,
+    findings: &mut Vec<Finding>,
+) -> Vec<(crate::visibility::Shortfall, Finding)> {
+    let (forget, reuse) = (reuse.forget, reuse.sight);
+    let wording = Wording::new(alignment, criteria, 0);
+    let fresh = |short: &crate::visibility::Shortfall| wording.word(short);
     let shortfalls = sight.shortfalls();
     let made: Vec<(crate::visibility::Shortfall, Finding)> = match reuse {
         Some(reuse) => shortfalls
