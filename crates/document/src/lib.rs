@@ -9,7 +9,9 @@ mod project;
 mod settings;
 mod write;
 
+mod kept;
 pub use error::{FileError, LooksLike, Unreadable, Unwritable, read_text};
+pub use kept::Kept;
 pub use project::{FORMAT_VERSION, Invalid, Part, Project, pvi_position};
 pub use settings::{ExportSettings, Snap, TableDecimals};
 pub use write::{same_file, write_all_atomic, write_atomic, written_file};

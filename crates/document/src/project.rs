@@ -52,6 +52,11 @@ pub struct Project {
     /// How the sheet and tables are exported.
     #[serde(default, skip_serializing_if = "ExportSettings::is_default")]
     pub export: ExportSettings,
+    /// The file the project was opened from, kept to be written back
+    /// around the edited profile (a LandXML file's plan geometry, station
+    /// equations and everything else it holds).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub kept: Option<crate::Kept>,
 }
 
 impl Project {
@@ -69,6 +74,7 @@ impl Project {
             section: None,
             snap: Snap::default(),
             export: ExportSettings::default(),
+            kept: None,
         }
     }
 

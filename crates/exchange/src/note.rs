@@ -62,6 +62,17 @@ pub enum NoteKind {
     },
     /// No namespace at all, read as LandXML 1.2.
     NoNamespace,
+    /// A national or agency application profile: LandXML 1.2's elements
+    /// under the profile's own namespace, read as LandXML 1.2.
+    ApplicationProfile {
+        /// The namespace read.
+        namespace: String,
+    },
+    /// A file in another encoding than UTF-8, converted.
+    Encoding {
+        /// The encoding the file declares.
+        encoding: String,
+    },
     /// An `elevationUnit` that is not the linear unit, not used.
     ElevationUnitUnused {
         /// As given.
@@ -101,6 +112,18 @@ pub enum NoteKind {
         /// How many.
         count: usize,
     },
+    /// A circular vertical curve whose stated length is not the length of
+    /// its parabola, L = A·R (the parabola's length is used).
+    CircularLength {
+        /// The PVI's station, as read.
+        station: f64,
+        /// The element's line.
+        line: u64,
+        /// The length the file states.
+        stated: f64,
+        /// A·R, the length used.
+        from_radius: f64,
+    },
     /// Elements of a design profile that were skipped.
     Skipped {
         /// The design profile.
@@ -127,6 +150,15 @@ pub enum NoteKind {
     StationEquations {
         /// The alignment.
         alignment: String,
+    },
+    /// An alignment with horizontal geometry (`CoordGeom`): kept as read
+    /// and written back around the profile, or not kept when the file's
+    /// values were converted to other units.
+    HorizontalGeometry {
+        /// The alignment.
+        alignment: String,
+        /// Whether the file is kept to be written back.
+        kept: bool,
     },
     /// Elements whose character data a comment or processing instruction
     /// split: their data was read whole, the pieces joined.
@@ -176,6 +208,15 @@ impl std::fmt::Display for Note {
             NoteKind::RepeatsDropped { count } => write!(f, "{count} repeated row(s) dropped"),
             NoteKind::OlderNamespace { namespace } => write!(f, "namespace {namespace} read as LandXML 1.2"),
             NoteKind::NoNamespace => write!(f, "no namespace; read as LandXML 1.2"),
+            NoteKind::ApplicationProfile { namespace } => write!(
+                f,
+                "namespace {} read as a LandXML 1.2 application profile (root LandXML, version 1.2); \
+                 its own elements are not read",
+                excerpt(namespace)
+            ),
+            NoteKind::Encoding { encoding } => {
+                write!(f, "text in {} converted to UTF-8 (a LandXML export writes UTF-8)", excerpt(encoding))
+            }
             NoteKind::ElevationUnitUnused { given, linear_unit } => write!(
                 f,
                 "elevationUnit=\"{given}\" is not used: profile elevations are in the linear unit ({linear_unit})"
@@ -194,7 +235,16 @@ impl std::fmt::Display for Note {
             }
             NoteKind::CircularCurves { count } => write!(
                 f,
-                "{count} circular vertical curve(s) (CircCurve) read as parabolic curves of the same length; check them"
+                "{count} circular vertical curve(s) (CircCurve) read as the parabola of the same radius at the PVI \
+                 (r = 1/R, so L = A·R); check them"
+            ),
+            NoteKind::CircularLength { station, line, stated, from_radius } => write!(
+                f,
+                "line {line}: the CircCurve at station {} states length {} but A·R gives {}; \
+                 the length from the radius is used (check the file)",
+                trimmed(*station, 3),
+                trimmed(*stated, 3),
+                trimmed(*from_radius, 3)
             ),
             NoteKind::Skipped { profile, elements } => {
                 write!(f, "skipped in ProfAlign '{}': {}", excerpt(profile), elements.join(", "))
@@ -213,6 +263,17 @@ impl std::fmt::Display for Note {
             NoteKind::StationEquations { alignment } => write!(
                 f,
                 "alignment '{}' has station equations; stations are read as internal stations (none applied)",
+                excerpt(alignment)
+            ),
+            NoteKind::HorizontalGeometry { alignment, kept: true } => write!(
+                f,
+                "alignment '{}' has horizontal geometry: kept as read; Gradewright edits the profile only",
+                excerpt(alignment)
+            ),
+            NoteKind::HorizontalGeometry { alignment, kept: false } => write!(
+                f,
+                "alignment '{}' has horizontal geometry, not kept: the values were converted to other units \
+                 (open the file in its own units to write it back with its plan geometry)",
                 excerpt(alignment)
             ),
             NoteKind::DataAroundComments { element, count } => write!(

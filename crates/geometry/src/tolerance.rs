@@ -64,6 +64,13 @@ pub const QUADRATIC_FLAT: f64 = 1e-14;
 /// looked for from this distance in front of the lamp, not at it).
 pub const LENGTH_FLOOR: f64 = 1e-9;
 
+/// How far (as a fraction of the length) the length a file gives a
+/// circular vertical curve may differ from the length of its parabola,
+/// L = A·R, before the reader reports it: the arc and its horizontal
+/// projection differ by far less, so more is a file whose length and
+/// radius disagree (or are rounded coarsely).
+pub const CIRCULAR_LENGTH_AGREEMENT: f64 = 0.005;
+
 /// What a requirement asks of a value.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum Bound {

@@ -5,6 +5,7 @@ mod criteria_tables;
 mod curve_relations;
 mod files;
 mod landxml;
+mod landxml_kept;
 mod lengths;
 mod properties;
 mod trust;

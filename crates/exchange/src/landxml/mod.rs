@@ -3,11 +3,19 @@
 //! `ParaCurve` and `UnsymParaCurve`, and the existing ground as `ProfSurf`
 //! (`PntList2D`).
 //!
+//! A project read from a LandXML file keeps the file's text
+//! ([`gradewright_document::Kept`]); writing it as LandXML again writes that
+//! text back with only what Gradewright edits replaced (the design
+//! profile's elements, the ground line's points, the design speed), so the
+//! plan geometry, station equations, features, other profiles and
+//! everything else in the file survive.
+//!
 //! Stations are internal stations (the alignment's `staStart` plus the
 //! distance along it, no station equations applied), written as plain
 //! decimals in the file's linear unit. Element and attribute names are the
 //! schema's own (LandXML-1.2.xsd, kept in the repository's test data).
 
+mod keep;
 mod parse;
 mod pick;
 mod read;

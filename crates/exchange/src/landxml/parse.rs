@@ -5,7 +5,7 @@
 use std::path::Path;
 
 use gradewright_geometry::{
-    Foot, GroundPoint, Pvi, Station, Units, VerticalCurve, excerpt, length_factor, speed_factor,
+    Foot, GroundPoint, Pvi, Station, Units, VerticalCurve, excerpt, length_factor, speed_factor, tolerance,
 };
 use roxmltree::{Document, Node};
 
@@ -61,7 +61,7 @@ pub(super) struct AlignmentNodes<'a, 'i> {
 /// older LandXML one, or none; never another vocabulary's element of the
 /// same name).
 pub(super) fn is(node: Node<'_, '_>, name: &str) -> bool {
-    node.is_element() && node.tag_name().name() == name && is_landxml_namespace(node.tag_name().namespace())
+    node.is_element() && node.tag_name().name() == name && is_landxml_element(node)
 }
 
 /// Whether an element in namespace `ns` is LandXML's.
@@ -69,10 +69,17 @@ pub(super) fn is_landxml_namespace(ns: Option<&str>) -> bool {
     ns.is_none_or(|ns| ns == NAMESPACE || ns.starts_with("http://www.landxml.org/schema/LandXML-"))
 }
 
+/// Whether `node` is in LandXML's namespace or the file's own (an
+/// application profile's: the reader accepts no other root).
+fn is_landxml_element(node: Node<'_, '_>) -> bool {
+    let ns = node.tag_name().namespace();
+    is_landxml_namespace(ns) || ns == node.document().root_element().tag_name().namespace()
+}
+
 /// An element of another vocabulary, as `{namespace}name` for a note.
 pub(super) fn foreign(node: Node<'_, '_>) -> Option<String> {
     let ns = node.tag_name().namespace();
-    (node.is_element() && !is_landxml_namespace(ns))
+    (node.is_element() && !is_landxml_element(node))
         .then(|| format!("{{{}}}{}", excerpt(ns.unwrap_or("")), excerpt(node.tag_name().name())))
 }
 
@@ -119,12 +126,21 @@ impl<'a> Parsed<'a> {
             Some(ns) if ns.starts_with("http://www.landxml.org/schema/LandXML-") => {
                 notes.push(note(origin, NoteKind::OlderNamespace { namespace: ns.to_owned() }));
             }
+            // A national application profile reuses LandXML 1.2's elements
+            // under its own namespace; its root says which version.
+            Some(ns) if root.attribute("version").is_some_and(|v| v.trim() == "1.2") => {
+                notes.push(note(origin, NoteKind::ApplicationProfile { namespace: ns.to_owned() }));
+            }
             Some(ns) => {
                 return Err(ReadError::new(
                     origin,
                     lines.of(root),
                     "LandXML",
-                    format!("namespace '{}' is not LandXML's ({NAMESPACE})", excerpt(ns)),
+                    format!(
+                        "namespace '{}' is not LandXML's ({NAMESPACE}), and the root does not say version=\"1.2\" \
+                         (as an application profile of LandXML 1.2 would)",
+                        excerpt(ns)
+                    ),
                 ));
             }
             None => notes.push(note(origin, NoteKind::NoNamespace)),
@@ -142,12 +158,33 @@ impl<'a> Parsed<'a> {
     /// `Feature` of the alignment with a `Property` labelled `designSpeed`
     /// (where a name holding spaces cannot be referred to). In km/h for a
     /// Metric file and mph for an Imperial one, converted to `units`.
-    pub(super) fn design_speed(
-        &self,
-        alignment: &AlignmentNodes<'_, '_>,
+    pub(super) fn design_speed<'d>(
+        &'d self,
+        alignment: &AlignmentNodes<'d, 'a>,
         units: Units,
         notes: &mut Vec<Note>,
     ) -> Result<Option<f64>, ReadError> {
+        let Some((node, attribute)) = self.design_speed_node(alignment) else { return Ok(None) };
+        let speed = self.attribute(node, attribute)?;
+        if speed <= 0.0 {
+            let field = format!("{}@speed", node.tag_name().name());
+            return Err(self.err(node, &field, format!("design speed {speed} is not a positive speed")));
+        }
+        // km/h and mph: the file's system, converted when read into the other.
+        let converted = speed * speed_factor(self.units.units, units);
+        notes.push(note(
+            self.origin,
+            NoteKind::DesignSpeed { speed, file_units: self.units.units, converted, units },
+        ));
+        Ok(Some(converted))
+    }
+
+    /// Where the file gives `alignment` its design speed: the element and
+    /// the attribute holding it (see [`Self::design_speed`]).
+    pub(super) fn design_speed_node<'d>(
+        &'d self,
+        alignment: &AlignmentNodes<'d, 'a>,
+    ) -> Option<(Node<'d, 'a>, &'static str)> {
         let root = self.doc.root_element();
         let refers = |refs: &str| {
             refs.trim() == alignment.name || refs.split_whitespace().any(|r| r == alignment.name)
@@ -161,34 +198,19 @@ impl<'a> Parsed<'a> {
             .filter(|n| is(*n, "Speeds"))
             .flat_map(|n| n.children())
             .find(|n| is(*n, "DesignSpeed") && n.attribute("speed").is_some());
-        let found = match roadway {
-            Some(node) => Some((self.attribute(node, "speed")?, node)),
-            None => {
-                let property =
-                    alignment.node.children().filter(|n| is(*n, "Feature")).flat_map(|n| n.children()).find(
-                        |n| {
-                            is(*n, "Property")
-                                && n.attribute("label").is_some_and(|l| l.eq_ignore_ascii_case("designSpeed"))
-                        },
-                    );
-                match property {
-                    Some(node) => Some((self.attribute(node, "value")?, node)),
-                    None => None,
-                }
-            }
-        };
-        let Some((speed, node)) = found else { return Ok(None) };
-        if speed <= 0.0 {
-            let field = format!("{}@speed", node.tag_name().name());
-            return Err(self.err(node, &field, format!("design speed {speed} is not a positive speed")));
+        if let Some(node) = roadway {
+            return Some((node, "speed"));
         }
-        // km/h and mph: the file's system, converted when read into the other.
-        let converted = speed * speed_factor(self.units.units, units);
-        notes.push(note(
-            self.origin,
-            NoteKind::DesignSpeed { speed, file_units: self.units.units, converted, units },
-        ));
-        Ok(Some(converted))
+        alignment
+            .node
+            .children()
+            .filter(|n| is(*n, "Feature"))
+            .flat_map(|n| n.children())
+            .find(|n| {
+                is(*n, "Property")
+                    && n.attribute("label").is_some_and(|l| l.eq_ignore_ascii_case("designSpeed"))
+            })
+            .map(|node| (node, "value"))
     }
 
     /// There is no alignment called `name`: the error lists those there are.
@@ -305,7 +327,7 @@ impl<'a> Parsed<'a> {
     ) -> Result<(Vec<Pvi>, Vec<u64>), ReadError> {
         let mut pvis = Vec::new();
         let mut lines = Vec::new();
-        let mut circular = 0;
+        let mut circular = Vec::new();
         let mut interrupted = 0;
         let mut skipped: Vec<String> = Vec::new();
         for child in prof_align.children().filter(Node::is_element) {
@@ -326,10 +348,12 @@ impl<'a> Parsed<'a> {
                     self.length(child, "lengthOut", scale)?,
                 ),
                 "CircCurve" => {
-                    self.attribute(child, "radius")?;
-                    circular += 1;
-                    let half = self.length(child, "length", scale)? / 2.0;
-                    VerticalCurve::from_lengths(half, half)
+                    // The length from the radius is found once every PVI is
+                    // read; the stated one stands until then.
+                    let radius = self.length(child, "radius", scale)?;
+                    let stated = self.length(child, "length", scale)?;
+                    circular.push((pvis.len(), radius, stated));
+                    VerticalCurve::from_lengths(stated / 2.0, stated / 2.0)
                 }
                 other => {
                     if !skipped.iter().any(|s| s == other) {
@@ -353,8 +377,38 @@ impl<'a> Parsed<'a> {
                 format!("design profile '{}' has no PVI", excerpt(name)),
             ));
         }
-        if circular > 0 {
-            notes.push(note(self.origin, NoteKind::CircularCurves { count: circular }));
+        if !circular.is_empty() {
+            notes.push(note(self.origin, NoteKind::CircularCurves { count: circular.len() }));
+        }
+        for (k, radius, stated) in circular {
+            let (Some(a), Some(b), Some(c)) = (pvis.get(k.wrapping_sub(1)), pvis.get(k), pvis.get(k + 1))
+            else {
+                continue;
+            };
+            // The parabola of the same radius at the PVI: r = 1/R, so
+            // L = A·R with A the algebraic grade difference as a fraction
+            // (the curvature of y = y0 + g1·x + r·x²/2 at the vertex is r for
+            // small grades: derived from the curve equation).
+            let g1 = (b.elevation - a.elevation) / (b.station.0 - a.station.0);
+            let g2 = (c.elevation - b.elevation) / (c.station.0 - b.station.0);
+            let length = (g2 - g1).abs() * radius;
+            if !length.is_finite() {
+                continue;
+            }
+            if (length - stated).abs() > tolerance::CIRCULAR_LENGTH_AGREEMENT * length.max(stated) {
+                notes.push(note(
+                    self.origin,
+                    NoteKind::CircularLength {
+                        station: b.station.0,
+                        line: lines.get(k).copied().unwrap_or(0),
+                        stated,
+                        from_radius: length,
+                    },
+                ));
+            }
+            if let Some(p) = pvis.get_mut(k) {
+                p.curve = VerticalCurve::from_lengths(length / 2.0, length / 2.0);
+            }
         }
         if !skipped.is_empty() {
             notes.push(note(self.origin, NoteKind::Skipped { profile: name.to_owned(), elements: skipped }));

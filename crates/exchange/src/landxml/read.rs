@@ -2,13 +2,14 @@
 
 use std::io::Read;
 use std::path::Path;
+use std::sync::Arc;
 
 use gradewright_geometry::{Foot, GroundPoint, Pvi, Units};
 
 use super::parse::{AlignmentNodes, Parsed, list, note};
+use super::text::read_xml;
 use crate::ReadError;
 use crate::error::Choosing;
-use crate::ground_csv::read_text;
 use crate::note::{Note, NoteKind};
 
 /// Which alignment, design profile and ground line to read when a file holds
@@ -49,6 +50,10 @@ pub struct LandXmlProfile {
     /// What the reader wants the user to know: the units it read, what it
     /// converted, and every element it skipped.
     pub notes: Vec<Note>,
+    /// The file's text, when its values were read unconverted: kept with
+    /// the project so that a LandXML export writes the file back with only
+    /// the profile (and ground, design speed) changed.
+    pub source: Option<Arc<str>>,
 }
 
 impl LandXmlProfile {
@@ -61,6 +66,12 @@ impl LandXmlProfile {
         project.criteria.design_speed = self.design_speed;
         project.pvis.clone_from(&self.pvis);
         project.ground = self.ground.clone().into();
+        project.kept = self.source.as_ref().map(|text| gradewright_document::Kept {
+            text: Arc::clone(text),
+            alignment: self.alignment.clone(),
+            profile: self.profile.clone(),
+            surface: self.surface.clone(),
+        });
         project
     }
 }
@@ -106,9 +117,12 @@ pub fn read_landxml(
     selection: &Selection,
     units: Option<Units>,
 ) -> Result<LandXmlProfile, ReadError> {
-    let text = read_text(reader, origin)?;
+    let (text, encoding) = read_xml(reader, origin)?;
     let parsed = Parsed::parse(&text, origin)?;
     let mut notes = parsed.notes.clone();
+    if let Some(encoding) = encoding {
+        notes.insert(0, note(origin, NoteKind::Encoding { encoding }));
+    }
     let alignments = parsed.alignments();
     let (alignment, index) = parsed.pick_profile(&alignments, selection)?;
     let target = units.filter(|u| *u != parsed.units.units).map(|u| (u, Foot::International));
@@ -124,6 +138,16 @@ pub fn read_landxml(
         None => (None, Vec::new()),
     };
     let design_speed = parsed.design_speed(alignment, units, &mut notes)?;
+    let converted = target.is_some() || parsed.units.scale.to_bits() != 1.0_f64.to_bits();
+    // Found again by name when written back: only a file whose names pick
+    // out this alignment and profile alone is kept.
+    let unique = alignments.iter().filter(|a| a.name == alignment.name).count() == 1
+        && alignment.profiles.iter().filter(|p| p.0 == *profile).count() == 1;
+    let kept = !converted && unique;
+    if alignment.node.children().any(|n| super::parse::is(n, "CoordGeom")) {
+        notes.push(note(origin, NoteKind::HorizontalGeometry { alignment: alignment.name.clone(), kept }));
+    }
+    let source = kept.then(|| Arc::from(text.as_str()));
     Ok(LandXmlProfile {
         units,
         foot,
@@ -135,6 +159,7 @@ pub fn read_landxml(
         ground,
         design_speed,
         notes,
+        source,
     })
 }
 
@@ -176,9 +201,12 @@ pub fn read_landxml_ground(
     units: Units,
     foot: Foot,
 ) -> Result<LandXmlGround, ReadError> {
-    let text = read_text(reader, origin)?;
+    let (text, encoding) = read_xml(reader, origin)?;
     let parsed = Parsed::parse(&text, origin)?;
     let mut notes = parsed.notes.clone();
+    if let Some(encoding) = encoding {
+        notes.insert(0, note(origin, NoteKind::Encoding { encoding }));
+    }
     let alignments = parsed.alignments();
     let root = parsed.doc.root_element();
     let with_ground: Vec<&AlignmentNodes<'_, '_>> = alignments
@@ -226,7 +254,7 @@ pub fn read_landxml_ground(
 /// # Errors
 /// As [`read_landxml`] for a file that cannot be read or is not LandXML.
 pub fn landxml_choices(reader: impl Read, origin: &Path) -> Result<Vec<Choice>, ReadError> {
-    let text = read_text(reader, origin)?;
+    let (text, _) = read_xml(reader, origin)?;
     let parsed = Parsed::parse(&text, origin)?;
     Ok(parsed
         .alignments()

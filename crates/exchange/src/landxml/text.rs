@@ -144,6 +144,76 @@ impl ElementText {
     }
 }
 
+/// The encoding a file's XML declaration names, if it names one.
+fn declared_encoding(bytes: &[u8]) -> Option<String> {
+    let head = bytes.get(..bytes.len().min(200))?;
+    let end = head.windows(2).position(|w| w == b"?>")?;
+    let decl = std::str::from_utf8(head.get(..end)?).ok()?;
+    let decl = decl.strip_prefix("<?xml")?;
+    let at = decl.find("encoding")?;
+    let rest = decl.get(at + "encoding".len()..)?.trim_start().strip_prefix('=')?.trim_start();
+    let quote = rest.chars().next().filter(|c| *c == '"' || *c == '\'')?;
+    let value = rest.get(1..)?;
+    Some(value.get(..value.find(quote)?)?.to_owned())
+}
+
+/// A LandXML file's text: UTF-8 (a byte-order mark dropped), or
+/// ISO-8859-1 when its declaration says so, converted (each byte is the
+/// character of that code point) with the declaration rewritten to UTF-8 —
+/// the text is what a writer writes back, and it writes UTF-8. The second
+/// value names the encoding converted from.
+///
+/// # Errors
+/// The file cannot be read, declares an encoding other than these, or is
+/// not in the encoding it declares.
+pub(super) fn read_xml(
+    mut reader: impl std::io::Read,
+    origin: &std::path::Path,
+) -> Result<(String, Option<String>), crate::ReadError> {
+    let mut bytes = Vec::new();
+    reader.read_to_end(&mut bytes).map_err(|e| crate::ReadError::io(origin, e))?;
+    let body = bytes.strip_prefix(b"\xEF\xBB\xBF".as_slice()).unwrap_or(&bytes);
+    let encoding = declared_encoding(body);
+    let latin = encoding.as_deref().is_some_and(|e| {
+        ["ISO-8859-1", "ISO8859-1", "latin1", "ISO_8859-1", "l1"].iter().any(|n| n.eq_ignore_ascii_case(e))
+    });
+    if latin {
+        let text: String = body.iter().map(|&b| char::from(b)).collect();
+        let declared = encoding.clone().unwrap_or_default();
+        // Only the declaration's own value is rewritten.
+        let end = text.find("?>").unwrap_or(0);
+        let head = text.get(..end).unwrap_or("").replacen(&declared, "UTF-8", 1);
+        let text = format!("{head}{}", text.get(end..).unwrap_or(""));
+        return Ok((text, encoding));
+    }
+    if let Some(other) =
+        encoding.as_deref().filter(|e| !e.eq_ignore_ascii_case("UTF-8") && !e.eq_ignore_ascii_case("UTF8"))
+    {
+        return Err(crate::ReadError::new(
+            origin,
+            1,
+            "xml",
+            format!(
+                "the file declares encoding '{}'; Gradewright reads UTF-8 and ISO-8859-1 (convert the file to UTF-8)",
+                gradewright_geometry::excerpt(other)
+            ),
+        ));
+    }
+    match std::str::from_utf8(body) {
+        Ok(text) => Ok((text.to_owned(), None)),
+        Err(e) => {
+            let line =
+                body.get(..e.valid_up_to()).map_or(0, |b| b.iter().filter(|&&c| c == b'\n').count()) + 1;
+            Err(crate::ReadError::new(
+                origin,
+                line as u64,
+                "xml",
+                "the file is not UTF-8 text (declare its encoding if it is ISO-8859-1)",
+            ))
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

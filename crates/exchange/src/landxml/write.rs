@@ -54,12 +54,12 @@ pub const GROUND_NAME: &str = "Existing ground";
 
 /// A number as LandXML text: at most six decimals (a micrometre or a
 /// millionth of a foot), no trailing zeros, never `-0`.
-fn number(value: f64) -> String {
+pub(super) fn number(value: f64) -> String {
     trimmed(value, 6)
 }
 
 /// `text` escaped for an attribute value.
-fn escape(text: &str) -> String {
+pub(super) fn escape(text: &str) -> String {
     let mut out = String::with_capacity(text.len());
     for c in text.chars() {
         match c {
@@ -111,6 +111,10 @@ pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> s
             ),
         },
     };
+    if let Some(text) = project.kept.as_ref().and_then(|kept| super::keep::written_back(project, kept)) {
+        out.write_all(text.as_bytes())?;
+        return out.flush();
+    }
     let mut w = std::io::BufWriter::new(&mut out);
     writeln!(w, r#"<?xml version="1.0" encoding="UTF-8"?>"#)?;
     writeln!(
@@ -132,35 +136,13 @@ pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> s
     writeln!(w, r#"      <Profile name="{}">"#, escape(name))?;
     if !project.ground.is_empty() {
         writeln!(w, r#"        <ProfSurf name="{GROUND_NAME}">"#)?;
-        write!(w, "          <PntList2D>")?;
-        for (k, p) in project.ground.iter().enumerate() {
-            if k > 0 {
-                if k % 4 == 0 {
-                    write!(w, "\n            ")?;
-                } else {
-                    write!(w, " ")?;
-                }
-            }
-            write!(w, "{} {}", number(p.station), number(p.elevation))?;
-        }
+        write!(w, "          <PntList2D>{}", point_list(&project.ground, "            "))?;
         writeln!(w, "</PntList2D>")?;
         writeln!(w, "        </ProfSurf>")?;
     }
     writeln!(w, r#"        <ProfAlign name="{PROFILE_NAME}">"#)?;
     for pvi in &project.pvis {
-        let at = format!("{} {}", number(pvi.station.0), number(pvi.elevation));
-        match pvi.curve {
-            VerticalCurve::None => writeln!(w, "          <PVI>{at}</PVI>")?,
-            VerticalCurve::Symmetric { length } => {
-                writeln!(w, r#"          <ParaCurve length="{}">{at}</ParaCurve>"#, number(length))?;
-            }
-            VerticalCurve::Unequal { length_in, length_out } => writeln!(
-                w,
-                r#"          <UnsymParaCurve lengthIn="{}" lengthOut="{}">{at}</UnsymParaCurve>"#,
-                number(length_in),
-                number(length_out)
-            )?,
-        }
+        writeln!(w, "          {}", pvi_element(pvi, ""))?;
     }
     writeln!(w, "        </ProfAlign>")?;
     writeln!(w, "      </Profile>")?;
@@ -192,6 +174,43 @@ pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> s
     }
     writeln!(w, "</LandXML>")?;
     w.flush()
+}
+
+/// One PVI as its LandXML element (`PVI`, `ParaCurve` or
+/// `UnsymParaCurve`), its names written with `prefix` (`""` or `"lx:"`).
+pub(super) fn pvi_element(pvi: &gradewright_geometry::Pvi, prefix: &str) -> String {
+    let at = format!("{} {}", number(pvi.station.0), number(pvi.elevation));
+    match pvi.curve {
+        VerticalCurve::None => format!("<{prefix}PVI>{at}</{prefix}PVI>"),
+        VerticalCurve::Symmetric { length } => {
+            format!(r#"<{prefix}ParaCurve length="{}">{at}</{prefix}ParaCurve>"#, number(length))
+        }
+        VerticalCurve::Unequal { length_in, length_out } => format!(
+            r#"<{prefix}UnsymParaCurve lengthIn="{}" lengthOut="{}">{at}</{prefix}UnsymParaCurve>"#,
+            number(length_in),
+            number(length_out)
+        ),
+    }
+}
+
+/// A ground line's points as the text of a `PntList2D`, four pairs a line,
+/// continued lines starting with `indent`.
+pub(super) fn point_list(points: &[gradewright_geometry::GroundPoint], indent: &str) -> String {
+    let mut text = String::with_capacity(points.len() * 20);
+    for (k, p) in points.iter().enumerate() {
+        if k > 0 {
+            if k % 4 == 0 {
+                text.push('\n');
+                text.push_str(indent);
+            } else {
+                text.push(' ');
+            }
+        }
+        text.push_str(&number(p.station));
+        text.push(' ');
+        text.push_str(&number(p.elevation));
+    }
+    text
 }
 
 #[cfg(test)]
