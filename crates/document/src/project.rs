@@ -8,7 +8,7 @@ use std::path::Path;
 use serde::{Deserialize, Serialize};
 
 use gradewright_geometry::{
-    ControlPoint, Criteria, Design, Foot, Ground, GroundPoint, Profile, Pvi, Section, Units,
+    ControlPoint, Criteria, Design, Equations, Foot, Ground, GroundPoint, Profile, Pvi, Section, Units,
 };
 
 use crate::{ExportSettings, FileError, LooksLike, Snap};
@@ -46,6 +46,12 @@ pub struct Project {
     /// The level typical section of the earthwork estimate, when one is set.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub section: Option<Section>,
+    /// The station equations, in internal-station order: the PVIs, ground,
+    /// controls and every other station in the file are internal stations
+    /// (the alignment's start plus the distance along it); people read and
+    /// type plan stations.
+    #[serde(default, skip_serializing_if = "Equations::is_empty")]
+    pub equations: Equations,
     /// How the editor snaps PVIs in this project.
     #[serde(default, skip_serializing_if = "Snap::is_default")]
     pub snap: Snap,
@@ -72,6 +78,7 @@ impl Project {
             ground: Ground::default(),
             controls: Vec::new(),
             section: None,
+            equations: Equations::default(),
             snap: Snap::default(),
             export: ExportSettings::default(),
             kept: None,
@@ -80,7 +87,12 @@ impl Project {
 
     /// The profile (a copy of units and PVIs).
     pub fn profile(&self) -> Profile {
-        Profile::new(self.units, self.pvis.clone())
+        Profile::new(self.units, self.pvis.clone()).with_equations(self.equations.clone())
+    }
+
+    /// How its stations read as plan stations (its station equations).
+    pub fn stationing(&self) -> gradewright_geometry::Stationing<'_> {
+        self.equations.stationing(self.units)
     }
 
     /// The design as the analysis reads it (a copy; the ground is shared).
@@ -92,6 +104,7 @@ impl Project {
             ground: self.ground.clone(),
             controls: self.controls.clone(),
             section: self.section,
+            equations: self.equations.clone(),
             interval: self.export.interval,
         }
     }
@@ -131,6 +144,7 @@ impl Project {
             let (line, column) = match invalid.part {
                 Part::Ground => entry_position(text, "ground", invalid.index),
                 Part::Control => entry_position(text, "controls", invalid.index),
+                Part::Equation => entry_position(text, "equations", invalid.index),
             }
             .unwrap_or((1, 1));
             return Err(FileError::Syntax {
@@ -161,12 +175,15 @@ impl Project {
     /// The first such point, and why.
     pub fn check(&self) -> Result<(), Invalid> {
         if let Some((index, why)) = self.ground.problem() {
-            return Err(Invalid { part: Part::Ground, index, why });
+            return Err(Invalid { part: Part::Ground, index, why: why.to_owned() });
         }
         if let Some((index, why)) =
             self.controls.iter().enumerate().find_map(|(i, c)| c.problem().map(|w| (i, w)))
         {
-            return Err(Invalid { part: Part::Control, index, why });
+            return Err(Invalid { part: Part::Control, index, why: why.to_owned() });
+        }
+        if let Some((index, why)) = self.equations.problem() {
+            return Err(Invalid { part: Part::Equation, index, why });
         }
         Ok(())
     }
@@ -287,18 +304,20 @@ pub enum Part {
     Ground,
     /// The control points.
     Control,
+    /// The station equations.
+    Equation,
 }
 
 /// An entry no project file may hold.
 #[derive(Clone, Debug, PartialEq, Eq, thiserror::Error)]
-#[error("{} {}: {why}", match .part { Part::Ground => "ground point", Part::Control => "control point" }, .index + 1)]
+#[error("{} {}: {why}", match .part { Part::Ground => "ground point", Part::Control => "control point", Part::Equation => "station equation" }, .index + 1)]
 pub struct Invalid {
     /// Which list.
     pub part: Part,
     /// Which entry (0-based).
     pub index: usize,
     /// What is wrong.
-    pub why: &'static str,
+    pub why: String,
 }
 
 #[derive(Deserialize)]

@@ -2,7 +2,7 @@
 //! (station, elevation), each item tagged by its role and never by a colour.
 //! The sheet maps roles to print styles; a screen maps them to its theme.
 
-use gradewright_geometry::{Analysis, ControlKind, ControlStatus, CurveKind, Units, format_station};
+use gradewright_geometry::{Analysis, ControlKind, ControlStatus, CurveKind, Units};
 
 /// What a drawn item is, for the front end to style.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
@@ -44,6 +44,8 @@ pub enum Role {
     MissedControl,
     /// A control point's name and elevation.
     ControlLabel,
+    /// A station equation: a line across the profile and its mark.
+    Equation,
 }
 
 /// A polyline.
@@ -149,6 +151,10 @@ pub struct Scene {
     pub labels: Vec<Label>,
     /// Cut and fill shading, in station order.
     pub hatches: Vec<Hatch>,
+    /// The station equations in the range: where (internal station) and
+    /// their mark, "back = ahead" ([`Role::Equation`]), drawn across the
+    /// whole height.
+    pub equations: Vec<(f64, String)>,
 }
 
 /// How finely a scene is drawn: the chord error of curves (elevation
@@ -186,8 +192,10 @@ pub fn profile_scene_with(
     let pvis = &analysis.profile.pvis;
     let units: Units = analysis.profile.units;
     let len = units.length_symbol();
-    let label = |s: f64| format_station(s, units, units.station_decimals());
+    let stationing = analysis.profile.stationing();
+    let label = |s: f64| stationing.label_std(s);
     let within = |s: f64| s >= range.0 && s <= range.1;
+    scene.equations = stationing.marks().into_iter().filter(|(s, _)| within(*s)).collect();
     if analysis.ground.len() >= 2 {
         // Decimated for drawing only (spikes kept), reaching both edges.
         let points = ground_line.unwrap_or_else(|| analysis.ground.decimated(range, detail.columns));

@@ -30,8 +30,12 @@ fn ground(c: &mut Criterion) {
     let origin = Path::new("ground.csv");
     c.bench_function("import 200k ground points and tabulate every 5 m with cut/fill", |b| {
         b.iter(|| {
-            let table =
-                read_ground_csv(text.as_bytes(), origin, Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+            let table = read_ground_csv(
+                text.as_bytes(),
+                origin,
+                gradewright_geometry::Stationing::plain(Units::Metric),
+            )
+            .unwrap_or_else(|e| panic!("{e}"));
             let ground = Ground::new(table.points);
             let stations = interval_stations(&alignment, 5.0);
             let mut out = Vec::with_capacity(stations.len() * 64);
@@ -40,7 +44,9 @@ fn ground(c: &mut Criterion) {
             black_box(out.len())
         });
     });
-    let table = read_ground_csv(text.as_bytes(), origin, Units::Metric).unwrap_or_else(|e| panic!("{e}"));
+    let table =
+        read_ground_csv(text.as_bytes(), origin, gradewright_geometry::Stationing::plain(Units::Metric))
+            .unwrap_or_else(|e| panic!("{e}"));
     let ground = Ground::new(table.points);
     let section = Section { width: 10.0, cut_slope: 2.0, fill_slope: 3.0, shrinkage_percent: 10.0 };
     c.bench_function("earthwork over 200k ground points, 20 m interval", |b| {

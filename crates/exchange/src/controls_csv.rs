@@ -6,7 +6,7 @@
 use std::io::Read;
 use std::path::Path;
 
-use gradewright_geometry::{ControlKind, ControlPoint, Units, excerpt, parse_station};
+use gradewright_geometry::{ControlKind, ControlPoint, Stationing, excerpt};
 
 use crate::ReadError;
 use crate::ground_csv::{read_text, records};
@@ -24,7 +24,7 @@ pub const CONTROLS_HEADER: &str = "station,kind,elevation,tolerance,name";
 pub fn read_controls_csv(
     reader: impl Read,
     origin: &Path,
-    units: Units,
+    at: Stationing<'_>,
 ) -> Result<Vec<ControlPoint>, ReadError> {
     let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
     let text = read_text(reader, origin)?;
@@ -80,7 +80,7 @@ pub fn read_controls_csv(
                 format!("{} field(s); station, kind and elevation are needed", record.len()),
             ));
         }
-        let station = parse_station(cell(Some(s)), units).map_err(|x| err(line, "station", x.to_string()))?;
+        let station = at.parse(cell(Some(s))).map_err(|x| err(line, "station", x.to_string()))?;
         let kind_text = cell(Some(k));
         let kind = ControlKind::from_key(kind_text)
             .ok_or_else(|| err(line, "kind", format!("'{}' is not fixed, min or max", excerpt(kind_text))))?;
@@ -152,7 +152,11 @@ mod tests {
     use super::*;
 
     fn read(text: &[u8]) -> Result<Vec<ControlPoint>, ReadError> {
-        read_controls_csv(text, Path::new("controls.csv"), Units::Metric)
+        read_controls_csv(
+            text,
+            Path::new("controls.csv"),
+            Stationing::plain(gradewright_geometry::Units::Metric),
+        )
     }
 
     #[test]

@@ -5,7 +5,7 @@
 use std::io::Read;
 use std::path::Path;
 
-use gradewright_geometry::{GroundPoint, Units, excerpt, parse_station};
+use gradewright_geometry::{GroundPoint, Stationing, excerpt, parse_station};
 
 use crate::ReadError;
 use crate::note::{Note, NoteKind};
@@ -65,7 +65,12 @@ pub(crate) fn records(text: &str) -> csv::Reader<&[u8]> {
 /// The first [`ReadError`] met, naming file, line and field: a value that is
 /// not a finite number, a station given twice with different elevations
 /// (both lines named), fewer than two points.
-pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result<GroundTable, ReadError> {
+pub fn read_ground_csv(
+    reader: impl Read,
+    origin: &Path,
+    at: Stationing<'_>,
+) -> Result<GroundTable, ReadError> {
+    let units = at.units;
     let err = |line: u64, field: &str, message: String| ReadError::new(origin, line, field, message);
     let text = read_text(reader, origin)?;
     let mut csv = records(&text);
@@ -105,7 +110,7 @@ pub fn read_ground_csv(reader: impl Read, origin: &Path, units: Units) -> Result
                 format!("{} field(s); station and elevation are needed", record.len()),
             ));
         }
-        let station = parse_station(cell(s), units).map_err(|x| err(line, &names.0, x.to_string()))?;
+        let station = at.parse(cell(s)).map_err(|x| err(line, &names.0, x.to_string()))?;
         let text = cell(e);
         let elevation: f64 =
             text.parse().map_err(|_| err(line, &names.1, format!("'{}' is not a number", excerpt(text))))?;
@@ -188,7 +193,7 @@ mod tests {
     use super::*;
 
     fn read(text: &[u8]) -> Result<GroundTable, ReadError> {
-        read_ground_csv(text, Path::new("ground.csv"), Units::Metric)
+        read_ground_csv(text, Path::new("ground.csv"), Stationing::plain(gradewright_geometry::Units::Metric))
     }
 
     fn stations(t: &GroundTable) -> Vec<(f64, f64)> {

@@ -6,7 +6,7 @@
 use std::io::Write;
 
 use gradewright_document::TableDecimals;
-use gradewright_geometry::{Alignment, Analysis, Ground, Severity, Station, Units, format_station};
+use gradewright_geometry::{Alignment, Analysis, Ground, Severity, Station, Units};
 
 use crate::TableError;
 use crate::table::number;
@@ -130,26 +130,30 @@ pub fn write_stations_csv(
     csv.write_record(&header)?;
     let mut cursor = alignment.cursor();
     let mut row = Vec::with_capacity(header.len());
+    let at = alignment.stationing();
     for &s in stations {
         let sample = cursor.sample(Station(s))?;
-        row.clear();
-        row.extend([
-            rounding.finite(s, Quantity::Station, s)?,
-            format_station(s, units, units.station_decimals()),
-            rounding.finite(sample.elevation, Quantity::Elevation, s)?,
-            rounding.finite(sample.grade_percent, Quantity::Grade, s)?,
-        ]);
-        if with_ground {
-            match ground.elevation_at(s) {
-                Some(g) => row.extend([
-                    rounding.finite(g, Quantity::Elevation, s)?,
-                    rounding.finite((g - sample.elevation).max(0.0), Quantity::Elevation, s)?,
-                    rounding.finite((sample.elevation - g).max(0.0), Quantity::Elevation, s)?,
-                ]),
-                None => row.extend([String::new(), String::new(), String::new()]),
+        // At a station equation, a row for each side (the same point).
+        for label in at.sides(s, units.station_decimals()) {
+            row.clear();
+            row.extend([
+                rounding.finite(s, Quantity::Station, s)?,
+                label,
+                rounding.finite(sample.elevation, Quantity::Elevation, s)?,
+                rounding.finite(sample.grade_percent, Quantity::Grade, s)?,
+            ]);
+            if with_ground {
+                match ground.elevation_at(s) {
+                    Some(g) => row.extend([
+                        rounding.finite(g, Quantity::Elevation, s)?,
+                        rounding.finite((g - sample.elevation).max(0.0), Quantity::Elevation, s)?,
+                        rounding.finite((sample.elevation - g).max(0.0), Quantity::Elevation, s)?,
+                    ]),
+                    None => row.extend([String::new(), String::new(), String::new()]),
+                }
             }
+            csv.write_record(&row)?;
         }
-        csv.write_record(&row)?;
     }
     csv.flush()?;
     Ok(())
@@ -215,7 +219,7 @@ pub fn write_curves_csv(out: impl Write, analysis: &Analysis, rounding: Rounding
         csv.write_record([
             (i + 1).to_string(),
             rounding.text(p.station.0, Station),
-            format_station(p.station.0, units, units.station_decimals()),
+            analysis.profile.stationing().label_std(p.station.0),
             rounding.text(p.elevation, Elevation),
             opt(back, Grade),
             opt(ahead, Grade),

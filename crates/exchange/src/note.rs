@@ -146,10 +146,13 @@ pub enum NoteKind {
         /// How many lists.
         lists: usize,
     },
-    /// An alignment with station equations, read as internal stations.
+    /// An alignment with station equations: applied (stations shown and
+    /// typed as plan stations).
     StationEquations {
         /// The alignment.
         alignment: String,
+        /// How many.
+        count: usize,
     },
     /// An alignment with horizontal geometry (`CoordGeom`): kept as read
     /// and written back around the profile, or not kept when the file's
@@ -260,9 +263,10 @@ impl std::fmt::Display for Note {
                 "ground line '{}' has {lists} point lists; the gaps between them are bridged by straight lines",
                 excerpt(surface)
             ),
-            NoteKind::StationEquations { alignment } => write!(
+            NoteKind::StationEquations { alignment, count } => write!(
                 f,
-                "alignment '{}' has station equations; stations are read as internal stations (none applied)",
+                "alignment '{}' has {count} station equation(s): applied, so stations are shown and typed as \
+                 plan stations (the PVIs' stations in the file are internal stations)",
                 excerpt(alignment)
             ),
             NoteKind::HorizontalGeometry { alignment, kept: true } => write!(

@@ -2,7 +2,7 @@
 
 use std::io::Write;
 
-use gradewright_geometry::{Alignment, Ground, Profile, Station, format_station};
+use gradewright_geometry::{Alignment, Ground, Profile, Station};
 
 /// The header of a station table.
 pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "grade_percent"];
@@ -12,15 +12,17 @@ pub const TABLE_HEADER: [&str; 4] = ["station", "station_label", "elevation", "g
 pub const GROUND_COLUMNS: [&str; 3] = ["ground_elevation", "cut", "fill"];
 
 /// Stations on every whole multiple of `interval` (plan stationing: 12+50,
-/// 13+00, … on a road starting at 12+34.56), plus both ends and every PVC,
-/// PVI and PVT, sorted, without duplicates.
+/// 13+00, … on a road starting at 12+34.56, restarting on even stations
+/// ahead of each station equation), plus both ends, every PVC, PVI and PVT
+/// and every station equation, sorted, without duplicates (internal
+/// stations).
 pub fn interval_stations(alignment: &Alignment, interval: f64) -> Vec<f64> {
     let start = alignment.start().0;
     let end = alignment.end().0;
+    let at = alignment.stationing();
     let mut stations: Vec<f64> = alignment.key_stations().iter().map(|(s, _)| s.0).collect();
-    stations.extend(
-        gradewright_geometry::even_stations(start, end, interval).filter(|&s| s >= start && s <= end),
-    );
+    stations.extend(at.even(start, end, interval).into_iter().filter(|&s| s >= start && s <= end));
+    stations.extend(at.equations.iter().map(|e| e.internal).filter(|&s| s >= start && s <= end));
     stations.push(start);
     stations.push(end);
     stations.sort_by(f64::total_cmp);
@@ -113,9 +115,9 @@ pub fn write_interval_table(
         // rounding never skips one.
         let from = (stretch.from - interval).max(start);
         let to = if stretch.closes { end } else { stretch.to.min(end) };
-        stations.extend(
-            gradewright_geometry::even_stations(from, to, interval).filter(|&s| s >= start && s <= end),
-        );
+        let at = profile.stationing();
+        stations.extend(at.even(from, to, interval).into_iter().filter(|&s| s >= start && s <= end));
+        stations.extend(at.equations.iter().map(|e| e.internal).filter(|&s| s >= start && s <= end));
         stations.extend([start, end]);
         stations.retain(|&s| stretch.holds(s));
         stations.sort_by(f64::total_cmp);
@@ -171,32 +173,36 @@ impl<W: Write> StationTable<W> {
         decimals: Option<usize>,
     ) -> Result<(), TableError> {
         let units = alignment.units();
+        let at = alignment.stationing();
         let mut cursor = alignment.cursor();
         let row = &mut self.row;
+        let label_decimals = decimals.unwrap_or(units.station_decimals());
         for &s in stations {
             let sample = cursor.sample(Station(s))?;
             if !(sample.elevation.is_finite() && sample.grade_percent.is_finite()) {
                 return Err(TableError::NotFinite { station: s });
             }
-            let label_decimals = decimals.unwrap_or(units.station_decimals());
-            row.clear();
-            row.extend([
-                number(s, decimals),
-                format_station(s, units, label_decimals),
-                number(sample.elevation, decimals),
-                number(sample.grade_percent, decimals),
-            ]);
-            if self.with_ground {
-                match ground.elevation_at(s) {
-                    Some(g) => row.extend([
-                        number(g, decimals),
-                        number((g - sample.elevation).max(0.0), decimals),
-                        number((sample.elevation - g).max(0.0), decimals),
-                    ]),
-                    None => row.extend([String::new(), String::new(), String::new()]),
+            // At a station equation, a row for each side.
+            for label in at.sides(s, label_decimals) {
+                row.clear();
+                row.extend([
+                    number(s, decimals),
+                    label,
+                    number(sample.elevation, decimals),
+                    number(sample.grade_percent, decimals),
+                ]);
+                if self.with_ground {
+                    match ground.elevation_at(s) {
+                        Some(g) => row.extend([
+                            number(g, decimals),
+                            number((g - sample.elevation).max(0.0), decimals),
+                            number((sample.elevation - g).max(0.0), decimals),
+                        ]),
+                        None => row.extend([String::new(), String::new(), String::new()]),
+                    }
                 }
+                self.csv.write_record(&*row)?;
             }
-            self.csv.write_record(&*row)?;
         }
         Ok(())
     }

@@ -44,6 +44,7 @@ pub struct Alignment {
     pvis: Vec<Pvi>,
     curves: Vec<CurveGeometry>,
     segments: Vec<Segment>,
+    equations: crate::Equations,
 }
 
 impl Alignment {
@@ -56,7 +57,7 @@ impl Alignment {
         if !problems.is_empty() {
             return Err(problems);
         }
-        Ok(Self::build(profile.units, profile.pvis.clone()))
+        Ok(Self::build(profile.units, profile.pvis.clone(), profile.equations.clone()))
     }
 
     /// [`Self::new`], keeping the profile's PVIs instead of copying them
@@ -69,11 +70,11 @@ impl Alignment {
         if !problems.is_empty() {
             return Err(problems);
         }
-        Ok(Self::build(profile.units, profile.pvis))
+        Ok(Self::build(profile.units, profile.pvis, profile.equations))
     }
 
     /// The pieces of PVIs already validated.
-    fn build(units: Units, pvis: Vec<Pvi>) -> Self {
+    fn build(units: Units, pvis: Vec<Pvi>, equations: crate::Equations) -> Self {
         let curves = interior_curves(&pvis);
         let mut segments = Vec::with_capacity(pvis.len() * 3);
         // Tangent from the end of the previous curve (or the first PVI) to the
@@ -101,12 +102,22 @@ impl Alignment {
                 tangent_start = (c.pvt.0, c.pvt_elevation);
             }
         }
-        Self { units, pvis, curves, segments }
+        Self { units, pvis, curves, segments, equations }
     }
 
     /// Unit system.
     pub fn units(&self) -> Units {
         self.units
+    }
+
+    /// How its stations read as plan stations (its station equations).
+    pub fn stationing(&self) -> crate::Stationing<'_> {
+        self.equations.stationing(self.units)
+    }
+
+    /// Its station equations.
+    pub fn equations(&self) -> &crate::Equations {
+        &self.equations
     }
 
     /// The PVIs.

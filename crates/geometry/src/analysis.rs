@@ -320,7 +320,7 @@ impl Analysis {
             Some((ground, review)) if ground.shares(&self.ground) => review,
             _ => Arc::new(self.ground.review(design.units)),
         };
-        self.report.findings.extend(ground_findings(&review, design.units));
+        self.report.findings.extend(ground_findings(&review, design.equations.stationing(design.units)));
         self.ground_review = Some((self.ground.clone(), review));
     }
 
@@ -373,7 +373,7 @@ fn check_curves(profile: &Profile, criteria: &ResolvedCriteria) -> Vec<(crate::C
         .iter()
         .map(|curve| {
             let mut found = Vec::new();
-            let check = crate::check_curve(curve, criteria, &mut found);
+            let check = crate::check_curve(curve, criteria, profile.stationing(), &mut found);
             (check, found)
         })
         .collect()
@@ -465,7 +465,7 @@ pub(crate) fn site_parts(
     previous_earthwork: Option<&Result<Earthwork, EarthworkError>>,
 ) -> SiteParts {
     let control_status = check_controls(alignment, &design.controls);
-    let control_findings = control_findings(design.units, &design.controls, &control_status);
+    let control_findings = control_findings(alignment.stationing(), &design.controls, &control_status);
     let (needed, under_findings) = match criteria {
         // Sight under a structure is a criterion of the curve: its length
         // is part of what the curve needs.
@@ -500,13 +500,13 @@ pub(crate) fn site_parts(
 }
 
 /// A warning finding for each point of the survey that looks wrong.
-pub(crate) fn ground_findings(
-    review: &[crate::GroundWarning],
-    units: crate::Units,
-) -> impl Iterator<Item = Finding> + '_ {
+pub(crate) fn ground_findings<'a>(
+    review: &'a [crate::GroundWarning],
+    at: crate::Stationing<'a>,
+) -> impl Iterator<Item = Finding> + 'a {
     review
         .iter()
-        .map(move |w| Finding::new(FindingCode::GroundSuspicious, w.stations(), None, w.describe(units)))
+        .map(move |w| Finding::new(FindingCode::GroundSuspicious, w.stations(), None, w.describe(at)))
 }
 
 #[cfg(test)]

@@ -4,7 +4,7 @@
 use serde::{Deserialize, Serialize};
 
 use crate::tolerance::{above, below};
-use crate::{Alignment, Finding, FindingCode, Station, Units, format_station};
+use crate::{Alignment, Finding, FindingCode, Station, Units};
 
 /// What a control point asks of the profile.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
@@ -169,11 +169,17 @@ pub fn check_controls(alignment: &Alignment, controls: &[ControlPoint]) -> Vec<C
 /// `control.min`, `control.max`), with the amount missed by; a warning for
 /// a point off the profile (`control.outside`) and a failure for one that
 /// is not a usable number (`control.invalid`). Met points give none.
-pub fn control_findings(units: Units, controls: &[ControlPoint], status: &[ControlStatus]) -> Vec<Finding> {
+/// Stations are worded as plan stations of `stationing`.
+pub fn control_findings(
+    stationing: crate::Stationing<'_>,
+    controls: &[ControlPoint],
+    status: &[ControlStatus],
+) -> Vec<Finding> {
+    let units = stationing.units;
     let len = units.length_symbol();
     let mut findings = Vec::new();
     for (i, (c, st)) in controls.iter().zip(status).enumerate() {
-        let at = format_station(c.station, units, units.station_decimals());
+        let at = stationing.label_std(c.station);
         let name = c.title(i);
         let finding =
             |code, message| Finding::new(code, (Station(c.station), Station(c.station)), None, message);
@@ -339,7 +345,7 @@ pub fn undercrossing_findings(
         if u.met_by(curve.length()) {
             continue;
         }
-        let at = format_station(c.station, units, units.station_decimals());
+        let at = alignment.stationing().label_std(c.station);
         let name = c.title(u.control);
         let (underside, clear) = (u.underside, u.clearance);
         let message = if u.needed.is_infinite() {
@@ -398,7 +404,11 @@ mod tests {
     #[test]
     fn a_missed_fixed_point_says_the_difference_and_the_excess() {
         let c = control(ControlKind::Fixed, 101.03, 0.02);
-        let findings = control_findings(Units::Metric, std::slice::from_ref(&c), &[status(&c)]);
+        let findings = control_findings(
+            crate::Stationing::plain(Units::Metric),
+            std::slice::from_ref(&c),
+            &[status(&c)],
+        );
         let message = findings.first().map(|f| f.message.clone()).unwrap_or_default();
         assert!(
             message.ends_with(
@@ -407,7 +417,11 @@ mod tests {
             "{message}"
         );
         let c = control(ControlKind::Fixed, 100.95, 0.02);
-        let findings = control_findings(Units::Metric, std::slice::from_ref(&c), &[status(&c)]);
+        let findings = control_findings(
+            crate::Stationing::plain(Units::Metric),
+            std::slice::from_ref(&c),
+            &[status(&c)],
+        );
         let message = findings.first().map(|f| f.message.clone()).unwrap_or_default();
         assert!(
             message.contains("is 0.050 m above the fixed elevation 100.950, 0.030 m beyond"),
@@ -444,7 +458,7 @@ mod tests {
             ControlPoint { station: 150.0, ..control(ControlKind::Fixed, 1.0, 0.0) },
         ];
         let st = check_controls(&road(), &controls);
-        let findings = control_findings(Units::Metric, &controls, &st);
+        let findings = control_findings(crate::Stationing::plain(Units::Metric), &controls, &st);
         assert_eq!(findings.len(), 2, "{findings:?}");
         let first = findings.first().expect("one");
         assert_eq!((first.severity(), first.code), (Severity::Fail, FindingCode::ControlMin));

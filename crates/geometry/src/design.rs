@@ -20,6 +20,8 @@ pub struct Design {
     pub controls: Vec<ControlPoint>,
     /// The level typical section of the earthwork estimate, when one is set.
     pub section: Option<Section>,
+    /// The station equations (none: plan stations are internal stations).
+    pub equations: crate::Equations,
     /// Station interval of the earthwork estimate (and of the station
     /// table); `None` is [`Units::table_interval`].
     pub interval: Option<f64>,
@@ -28,7 +30,7 @@ pub struct Design {
 impl Design {
     /// The profile (a copy of units and PVIs).
     pub fn profile(&self) -> Profile {
-        Profile::new(self.units, self.pvis.clone())
+        Profile::new(self.units, self.pvis.clone()).with_equations(self.equations.clone())
     }
 
     /// The station interval in force.

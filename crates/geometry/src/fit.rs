@@ -8,8 +8,7 @@ use crate::tolerance::{above, below};
 use crate::visibility::{Direction, SightProfile, grid_between, sight_profile};
 use crate::{
     Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, Increment,
-    MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Undercrossing, Units, check_controls, check_curve,
-    format_station, undercrossing,
+    MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Undercrossing, check_controls, check_curve, undercrossing,
 };
 
 /// What happened to one curve.
@@ -92,8 +91,8 @@ impl<'a> Run<'a> {
     }
 }
 
-fn label(units: Units, s: f64) -> String {
-    format_station(s, units, units.station_decimals())
+fn label(at: crate::Stationing<'_>, s: f64) -> String {
+    at.label_std(s)
 }
 
 /// The control points a change of the curve at `index` can move: those
@@ -183,12 +182,12 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: Increm
     // raises the road under it): each length is judged as it stands.
     // The required length is already the total for this curve's l1:l2 ratio.
     let mut scratch = Vec::new();
-    let check = check_curve(&curve, criteria, &mut scratch);
+    let check = check_curve(&curve, criteria, profile.stationing(), &mut scratch);
     let asked = check.length_required.max(check.min_length);
     let needed = asked.max(old_length);
     let needs = increment.up(needed);
     let fits = increment.down(max_length);
-    let at = label(units, original.station.0);
+    let at = label(profile.stationing(), original.station.0);
     if let Some(under) =
         undercrossing_conflict(profile, run, index, increment, (increment.up(asked), needs, fits))
     {
@@ -379,7 +378,7 @@ fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
     }
     let Some(curve) = geometry_at(profile, index) else { return false };
     let mut findings = Vec::new();
-    let check = check_curve(&curve, criteria, &mut findings);
+    let check = check_curve(&curve, criteria, profile.stationing(), &mut findings);
     if !check.ok
         || below(curve.length(), check.min_length)
         || unmet_undercrossing(profile, run, index).is_some()
@@ -446,7 +445,7 @@ pub fn default_curve_length(
         // As a curve (not a bare break), so K and the sight formulas apply.
         set_length(&mut probe, index, increment.step());
         let curve = geometry_at(&probe, index)?;
-        let check = check_curve(&curve, criteria, &mut scratch);
+        let check = check_curve(&curve, criteria, probe.stationing(), &mut scratch);
         (check.length_required.max(min_length), "the shortest length that meets the criteria")
     };
     let length = increment.up(needed.max(increment.step()));

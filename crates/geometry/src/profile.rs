@@ -157,6 +157,9 @@ pub struct Profile {
     pub units: Units,
     /// The PVIs, first to last.
     pub pvis: Vec<Pvi>,
+    /// The station equations: how its internal stations read as plan
+    /// stations (none: the same).
+    pub equations: crate::Equations,
 }
 
 /// What is wrong with a profile, naming the PVI (0-based index) concerned.
@@ -304,7 +307,19 @@ impl Profile {
 
     /// A profile from PVIs.
     pub fn new(units: Units, pvis: Vec<Pvi>) -> Self {
-        Self { units, pvis }
+        Self { units, pvis, equations: crate::Equations::default() }
+    }
+
+    /// The profile with these station equations.
+    #[must_use]
+    pub fn with_equations(mut self, equations: crate::Equations) -> Self {
+        self.equations = equations;
+        self
+    }
+
+    /// How its stations read as plan stations.
+    pub fn stationing(&self) -> crate::Stationing<'_> {
+        self.equations.stationing(self.units)
     }
 
     /// The grade of tangent `i` (from PVI `i` to PVI `i + 1`) in percent;

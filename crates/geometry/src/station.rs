@@ -76,6 +76,34 @@ pub enum StationError {
     /// The number is finite but beyond any road.
     #[error("station '{0}' is outside ±1e7, the range Gradewright accepts")]
     OutOfRange(String),
+    /// The plan station lies in the gap of a short station equation.
+    #[error(
+        "station '{text}' does not exist: it lies in the gap of the station equation {back} back = {ahead} ahead"
+    )]
+    InGap {
+        /// The text as given.
+        text: String,
+        /// The equation's back station.
+        back: String,
+        /// The equation's ahead station.
+        ahead: String,
+    },
+    /// The plan station occurs more than once (a long station equation).
+    #[error("station '{text}' occurs {} times (a station equation repeats it): say which, {}", choices.len(), choices.join(" or "))]
+    Ambiguous {
+        /// The text as given.
+        text: String,
+        /// Each place it occurs, labelled as it must be typed.
+        choices: Vec<String>,
+    },
+    /// An occurrence was named that there is not.
+    #[error("station '{text}': the station occurs {count} time(s) only")]
+    NoSuchOccurrence {
+        /// The text as given.
+        text: String,
+        /// How many times it occurs.
+        count: usize,
+    },
 }
 
 /// An example of the notation, for messages.

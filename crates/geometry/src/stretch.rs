@@ -38,7 +38,7 @@ impl Profile {
                 p.curve = VerticalCurve::None;
             }
         }
-        (first, Profile::new(self.units, list))
+        (first, Profile::new(self.units, list).with_equations(self.equations.clone()))
     }
 
     /// The profile cut into stretches of `pvis_each` PVIs: for each, the

@@ -71,6 +71,11 @@ pub const LENGTH_FLOOR: f64 = 1e-9;
 /// radius disagree (or are rounded coarsely).
 pub const CIRCULAR_LENGTH_AGREEMENT: f64 = 0.005;
 
+/// How far (in length units) a station equation's stated back station may
+/// lie from the plan station the road reaches there before the equation is
+/// refused: a millimetre's order, the rounding of a survey's stations.
+pub const EQUATION_BACK: f64 = 0.005;
+
 /// What a requirement asks of a value.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum Bound {

@@ -41,7 +41,7 @@ fn written(project: &Project) -> String {
     String::from_utf8(out).unwrap_or_else(|e| panic!("{e}"))
 }
 
-fn validates(text: &str, name: &str) {
+pub(super) fn validates(text: &str, name: &str) {
     let dir = std::env::temp_dir().join(format!("gradewright-kept-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap_or_else(|e| panic!("{e}"));
     let path = dir.join(name);

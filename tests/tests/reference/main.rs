@@ -8,5 +8,6 @@ mod landxml;
 mod landxml_kept;
 mod lengths;
 mod properties;
+mod station_equations;
 mod trust;
 mod visibility;

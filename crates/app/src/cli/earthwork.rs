@@ -53,8 +53,7 @@ pub fn run(run: &mut Run, args: &EarthworkArgs) -> anyhow::Result<ExitCode> {
         .map_err(|e| anyhow!("{}: {e}", input.display()))?;
     print(&buffer)?;
     let vol = gradewright_geometry::volume_symbol(project.units);
-    let label =
-        |s: f64| gradewright_geometry::format_station(s, project.units, project.units.station_decimals());
+    let label = |s: f64| project.equations.stationing(project.units).label_std(s);
     eprintln!(
         "level-section estimate from {} to {} (where the ground covers the profile): cut {:.1} {vol}, fill {:.1} {vol}, \
          net {:+.1} {vol} after {}% shrinkage (areas in {}, volumes in {vol})",

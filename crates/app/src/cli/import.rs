@@ -31,7 +31,9 @@ pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
     }
     let mut loaded = run.load(&args.source)?;
     let units = loaded.project.units;
-    let label = |s: f64| gradewright_geometry::format_station(s, units, units.station_decimals());
+    let equations = loaded.project.equations.clone();
+    let at = equations.stationing(units);
+    let label = |s: f64| at.label_std(s);
     let mut text = String::new();
     if let Some(ground) = &args.ground {
         let table = if gradewright_exchange::is_landxml_path(ground) {
@@ -53,7 +55,7 @@ pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
             run.notes.extend(read.notes.iter().map(ToString::to_string));
             gradewright_exchange::GroundTable { points: read.points, warnings: Vec::new() }
         } else {
-            gradewright_exchange::read_ground_csv(open("--ground", ground)?, ground, units)?
+            gradewright_exchange::read_ground_csv(open("--ground", ground)?, ground, at)?
         };
         for w in &table.warnings {
             text.push_str(&format!("warning: {w}\n"));
@@ -68,12 +70,12 @@ pub fn run(run: &mut Run, args: &ImportArgs) -> anyhow::Result<ExitCode> {
         }
         let points = gradewright_geometry::Ground::new(table.points);
         for w in points.review(units) {
-            text.push_str(&format!("warning: {}: {}\n", ground.display(), w.describe(units)));
+            text.push_str(&format!("warning: {}: {}\n", ground.display(), w.describe(at)));
         }
         loaded.project.ground = points;
     }
     if let Some(controls) = &args.controls {
-        let points = gradewright_exchange::read_controls_csv(open("--controls", controls)?, controls, units)?;
+        let points = gradewright_exchange::read_controls_csv(open("--controls", controls)?, controls, at)?;
         text.push_str(&format!("{} control point(s)\n", points.len()));
         loaded.project.controls = points;
     }

@@ -382,7 +382,8 @@ fn build(input: &Input) -> anyhow::Result<Alignment> {
 /// have no problem.
 fn take_profile(input: &mut Input) -> anyhow::Result<gradewright_geometry::Profile> {
     let pvis = std::mem::take(&mut input.project.pvis);
-    let profile = gradewright_geometry::Profile::new(input.project.units, pvis);
+    let profile = gradewright_geometry::Profile::new(input.project.units, pvis)
+        .with_equations(input.project.equations.clone());
     let problems = profile.problems();
     if problems.is_empty() { Ok(profile) } else { Err(refused(input, &problems)) }
 }

@@ -326,6 +326,13 @@ pub fn text(
         gradewright_geometry::trimmed(criteria.design_speed, 2),
         units.speed_symbol()
     )?;
+    let stationing = project.equations.stationing(units);
+    if !stationing.is_plain() {
+        writeln!(out, "  Station equations (stations below are plan stations):")?;
+        for (internal, mark) in stationing.marks() {
+            writeln!(out, "    {mark} (internal station {})", gradewright_geometry::trimmed(internal, 3))?;
+        }
+    }
     for id in CriterionId::ALL {
         if let Some(entry) = criteria.entry(id) {
             writeln!(
@@ -351,7 +358,7 @@ pub fn text(
             out,
             "  {:>4} {:>12} {:<5} {:>+8.3} {:>+8.3} {:>7.3} {:>9.2} {:>8} {:>8} {:>8} {:>9.2}  {}",
             g.index + 1,
-            g.pvi.label(units, units.station_decimals()),
+            project.equations.stationing(units).label_std(g.pvi.0),
             g.kind.key(),
             g.grade_in_percent,
             g.grade_out_percent,
@@ -387,10 +394,10 @@ pub fn text(
 /// The control points, the ground and the earthwork estimate, when the
 /// project has them.
 fn site_text(out: &mut impl std::io::Write, project: &Project, checked: &dyn Checked) -> std::io::Result<()> {
-    use gradewright_geometry::format_station;
     let units = project.units;
     let len = units.length_symbol();
-    let label = |s: f64| format_station(s, units, units.station_decimals());
+    let at = project.equations.stationing(units);
+    let label = |s: f64| at.label_std(s);
     if !project.controls.is_empty() {
         writeln!(out, "\nControl points ({}):", project.controls.len())?;
         for (i, c) in project.controls.iter().enumerate() {

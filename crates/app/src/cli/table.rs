@@ -3,7 +3,7 @@
 use std::process::ExitCode;
 
 use anyhow::{anyhow, bail};
-use gradewright_geometry::{Alignment, parse_station};
+use gradewright_geometry::Alignment;
 
 use super::args::TableArgs;
 use super::{Run, Spill, positive, refused, take_profile};
@@ -59,7 +59,7 @@ pub fn run(run: &mut Run, args: &TableArgs) -> anyhow::Result<ExitCode> {
         let stations = args
             .at
             .iter()
-            .map(|text| parse_station(text, project.units).map_err(|e| anyhow!("--at: {e}")))
+            .map(|text| profile.stationing().parse(text).map_err(|e| anyhow!("--at: {e}")))
             .collect::<anyhow::Result<Vec<_>>>()?;
         let alignment = Alignment::from_profile(profile).map_err(|problems| refused(&loaded, &problems))?;
         gradewright_exchange::write_station_table(&mut out, &alignment, &project.ground, &stations, decimals)

@@ -429,7 +429,7 @@ impl GradewrightApp {
                     self.analysis().criteria.as_ref().ok().and_then(|c| {
                         gradewright_geometry::default_curve_length(&probe, c, index, increment)
                     });
-                let at = gradewright_geometry::format_station(pvi.station.0, units, units.station_decimals());
+                let at = self.project().stationing().label_std(pvi.station.0);
                 let text = match chosen {
                     Some((length, rule)) => {
                         pvi.curve = VerticalCurve::Symmetric { length };

@@ -38,6 +38,8 @@ pub enum Edit {
     SetGround(Ground),
     /// Replace the control points.
     SetControls(Vec<ControlPoint>),
+    /// Replace the station equations.
+    SetEquations(gradewright_geometry::Equations),
     /// Set or clear the earthwork section.
     SetSection(Option<Section>),
     /// Change how PVIs snap (kept with the project).

@@ -177,6 +177,7 @@ impl Document {
             Edit::SetName(name) => self.project.name = name,
             Edit::SetGround(ground) => self.project.ground = ground,
             Edit::SetControls(controls) => self.project.controls = controls,
+            Edit::SetEquations(equations) => self.project.equations = equations,
             Edit::SetSection(section) => self.project.section = section,
             Edit::SetSnap(snap) => self.project.snap = snap,
             Edit::SetExport(export) => self.project.export = *export,

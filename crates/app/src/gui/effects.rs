@@ -336,6 +336,8 @@ impl GradewrightApp {
     /// untouched and the error names file, line and field.
     pub fn import_ground(&mut self, path: &Path, selection: &Selection) -> bool {
         let (units, foot) = (self.project().units, self.project().foot);
+        let equations = self.project().equations.clone();
+        let at = equations.stationing(units);
         let read = if gradewright_exchange::is_landxml_path(path) {
             gradewright_exchange::open_file(path)
                 .and_then(|f| gradewright_exchange::read_landxml_ground(f, path, selection, units, foot))
@@ -347,14 +349,14 @@ impl GradewrightApp {
                 })
         } else {
             gradewright_exchange::open_file(path)
-                .and_then(|f| gradewright_exchange::read_ground_csv(f, path, units))
+                .and_then(|f| gradewright_exchange::read_ground_csv(f, path, at))
                 .map(|t| (t.points, t.warnings.iter().map(ToString::to_string).collect()))
         };
         match read {
             Ok((points, mut said)) => {
                 let count = points.len();
                 let ground = Ground::new(points);
-                said.extend(ground.review(units).iter().map(|w| w.describe(units)));
+                said.extend(ground.review(units).iter().map(|w| w.describe(at)));
                 let changed = self.apply_edit(Edit::SetGround(ground));
                 let mut text = format!("Imported {count} ground point(s) from {}", path.display());
                 if !changed {
@@ -385,8 +387,9 @@ impl GradewrightApp {
     /// Replaces the control points by the CSV file at `path` (one undo step).
     pub fn import_controls(&mut self, path: &Path) -> bool {
         let units = self.project().units;
+        let equations = self.project().equations.clone();
         let read = gradewright_exchange::open_file(path)
-            .and_then(|f| gradewright_exchange::read_controls_csv(f, path, units));
+            .and_then(|f| gradewright_exchange::read_controls_csv(f, path, equations.stationing(units)));
         match read {
             Ok(points) => {
                 let count = points.len();

@@ -138,3 +138,53 @@ fn importing_ground_from_a_file_with_two_ground_lines_offers_a_chooser() {
     h.run();
     assert_eq!(h.state().project().ground, before.ground, "one undo step");
 }
+
+/// The station-equation table: add one at the selected PVI, type its ahead
+/// station (one undo step each), see every station relabelled as a plan
+/// station (the PVI table's cell), delete it; a change that would put two
+/// equations at one place is refused and says why.
+#[test]
+fn station_equations_are_added_edited_and_deleted() {
+    // Tall enough that the whole side panel is on screen.
+    let mut h = Harness::builder().with_size([1500.0, 2200.0]).with_max_steps(12).build_ui_state(
+        |ui, app: &mut GradewrightApp| app.show(ui),
+        GradewrightApp::with_demo(AppFiles::new(None)),
+    );
+    h.run();
+    h.get_by_label("Ground & controls").click();
+    h.run();
+    h.state_mut().push(Action::Select(Some(2)));
+    h.run();
+    let pvi = h.state().project().pvis[2].station.0;
+    let pvi4 = h.state().project().pvis[3].station.0;
+    h.get_by_label("Station equations (0)").click();
+    h.run();
+    h.get_by_label("Add station equation").click();
+    h.run();
+    let equations = h.state().project().equations.as_slice().to_vec();
+    assert_eq!(equations.len(), 1);
+    assert_eq!(equations[0].internal.to_bits(), pvi.to_bits());
+    // Ahead 100 m further on: a short equation.
+    let ahead = gradewright_geometry::format_station(pvi + 100.0, gradewright_geometry::Units::Metric, 3);
+    replace_text(&mut h, "Equation 1 ahead station", &ahead);
+    let e = h.state().project().equations.as_slice()[0];
+    assert!((e.ahead - (pvi + 100.0)).abs() < 1e-9 && (e.back - pvi).abs() < 1e-9, "{e:?}");
+    // PVI 4 is now shown at its plan station, 100 m on.
+    let plan4 = gradewright_geometry::format_station(pvi4 + 100.0, gradewright_geometry::Units::Metric, 3);
+    assert!(h.query_by_label("PVI 4 station").is_some());
+    let shown = h.get_by_label("PVI 4 station").value().unwrap_or_default();
+    assert_eq!(shown, plan4);
+    // A second equation at the same place is refused.
+    h.get_by_label("Add station equation").click();
+    h.run();
+    assert_eq!(h.state().project().equations.as_slice().len(), 1);
+    assert!(h.query_by_label_contains("Not changed: station equation").is_some());
+    // Undo takes back the ahead station, then the equation.
+    h.state_mut().push(Action::Undo);
+    h.run();
+    let e = h.state().project().equations.as_slice()[0];
+    assert!((e.ahead - pvi).abs() < 1e-9, "{e:?}");
+    h.get_by_label("Delete station equation 1").click();
+    h.run();
+    assert!(h.state().project().equations.is_empty());
+}

@@ -1,7 +1,7 @@
 //! The blocks around the profile: the bands under it, the sight-distance
 //! band, the match lines, the findings, the title block and the cautions.
 
-use gradewright_geometry::{Analysis, Severity, Station, format_station};
+use gradewright_geometry::{Analysis, Severity, Station};
 
 use super::compose::Page;
 use super::tree::{Element, mm};
@@ -56,7 +56,7 @@ pub(super) fn bands(analysis: &Analysis, page: &Page) -> (Vec<Element>, usize) {
         }
     }
     if let Some(alignment) = analysis.alignment.as_ref() {
-        for s in page.major_stations() {
+        for s in page.major_stations(analysis.profile.stationing()) {
             let Ok(sample) = alignment.sample(Station(s)) else { continue };
             let ground = analysis.ground.elevation_at(s);
             let cells = [
@@ -137,7 +137,6 @@ pub(super) fn sight_band(analysis: &Analysis, page: &Page, rows: usize) -> Vec<E
 
 /// Match lines where the profile continues on another sheet.
 pub(super) fn match_lines(analysis: &Analysis, page: &Page) -> Vec<Element> {
-    let units = analysis.profile.units;
     let (_, fy, _, fh) = page.frame;
     let (range, (number, count)) = (page.range, page.number);
     let end = analysis.alignment.as_ref().map_or(range.1, |a| a.end().0);
@@ -159,7 +158,7 @@ pub(super) fn match_lines(analysis: &Analysis, page: &Page) -> Vec<Element> {
                 .a("stroke-dasharray", "4 1 1 1"),
         );
         out.push(
-            Element::text(format!("MATCH LINE {}", format_station(at, units, units.station_decimals())))
+            Element::text(format!("MATCH LINE {}", analysis.profile.stationing().label_std(at)))
                 .a("x", &x)
                 .a("y", mm(fy - 1.5))
                 .a("font-size", SMALL)
@@ -235,9 +234,8 @@ pub(super) fn findings(analysis: &Analysis, paper: (f64, f64), page: &Page, drop
     }
     if let Some(Ok(e)) = &analysis.earthwork {
         let units = analysis.profile.units;
-        let (vol, label) = (gradewright_geometry::volume_symbol(units), |s: f64| {
-            format_station(s, units, units.station_decimals())
-        });
+        let at = analysis.profile.stationing();
+        let (vol, label) = (gradewright_geometry::volume_symbol(units), |s: f64| at.label_std(s));
         out.push(
             Element::text(format!(
                 "Earthwork (level section) from {} to {}, where the ground covers the profile: cut {:.0} {vol}, \

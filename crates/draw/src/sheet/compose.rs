@@ -3,7 +3,7 @@
 //! blocks under and beside it ([`super::blocks`]).
 
 use gradewright_geometry::tolerance::{run_end, station_hair};
-use gradewright_geometry::{Analysis, format_station};
+use gradewright_geometry::{Analysis, Stationing};
 
 use super::tree::{Element, Part, PartKind, SheetTree, mm};
 use super::{ACCENT, LABEL_SPACING, Layout, MARGIN, SMALL, SheetOptions, TEXT, grid_step};
@@ -39,8 +39,13 @@ impl Page {
         self.frame.1 + self.frame.3 - (e - self.bottom) / self.units_per_mm.1
     }
 
-    /// The major stations of the range, in order.
-    pub fn major_stations(&self) -> Vec<f64> {
+    /// The major stations of the range, in order: even plan stations,
+    /// restarting ahead of each station equation of `at` (internal
+    /// stations).
+    pub fn major_stations(&self, at: Stationing<'_>) -> Vec<f64> {
+        if !at.is_plain() {
+            return at.even(self.range.0, self.range.1, self.major);
+        }
         let mut out = Vec::new();
         let mut s = (self.range.0 / self.major).ceil() * self.major;
         while s <= run_end(self.range.1, self.major) {
@@ -85,6 +90,7 @@ pub(super) fn sheet(
         part(PartKind::Paper, paper(w, h, &page)),
         part(PartKind::Grid, grid(analysis, layout, &page)),
         part(PartKind::Profile, vec![profile(&scene, &page)]),
+        part(PartKind::Profile, equation_marks(&scene, &page)),
         part(PartKind::Labels, labels),
     ];
     let bands = super::blocks::bands(analysis, &page);
@@ -133,10 +139,12 @@ fn grid(analysis: &Analysis, layout: &Layout, page: &Page) -> Vec<Element> {
     let minor = major / 5.0;
     let v_step = layout.elevation_step();
     let top = page.bottom + fh * page.units_per_mm.1;
+    let at = analysis.profile.stationing();
     let mut lines = Vec::new();
-    let mut s = (range.0 / minor).ceil() * minor;
-    while s <= run_end(range.1, minor) {
-        let is_major = ((s / major).round() * major - s).abs() < station_hair(major);
+    let mut line = |s: f64| {
+        // Major where the plan station is a multiple of the major interval.
+        let plan = at.plan(s).value;
+        let is_major = ((plan / major).round() * major - plan).abs() < station_hair(major);
         let (colour, width) = if is_major { ("#888", 0.18) } else { ("#ccc", 0.06) };
         let x = mm(page.x(s));
         lines.push(
@@ -148,7 +156,15 @@ fn grid(analysis: &Analysis, layout: &Layout, page: &Page) -> Vec<Element> {
                 .a("stroke", colour)
                 .a("stroke-width", width),
         );
-        s += minor;
+    };
+    if at.is_plain() {
+        let mut s = (range.0 / minor).ceil() * minor;
+        while s <= run_end(range.1, minor) {
+            line(s);
+            s += minor;
+        }
+    } else {
+        at.even(range.0, range.1, minor).into_iter().for_each(&mut line);
     }
     let elevations = || {
         let mut out = Vec::new();
@@ -195,9 +211,9 @@ fn grid(analysis: &Analysis, layout: &Layout, page: &Page) -> Vec<Element> {
             );
         }
     }
-    for s in page.major_stations() {
+    for s in page.major_stations(at) {
         out.push(
-            Element::text(format_station(s, units, 0))
+            Element::text(at.label(s, 0))
                 .a("x", mm(page.x(s)))
                 .a("y", mm(fy + fh + 4.0))
                 .a("font-size", TEXT)
@@ -282,11 +298,46 @@ fn profile(scene: &Scene, page: &Page) -> Element {
     for m in &scene.markers {
         out.push(marker(m.role, m.shape, page.x(m.at[0]), page.y(m.at[1])));
     }
+    // Station equations: a dashed line across the frame (marked above it,
+    // [`equation_marks`]).
+    let (_, fy, _, fh) = page.frame;
+    for (s, _) in &scene.equations {
+        let x = page.x(*s);
+        out.push(
+            Element::new("line")
+                .a("class", "Equation")
+                .a("x1", mm(x))
+                .a("y1", mm(fy))
+                .a("x2", mm(x))
+                .a("y2", mm(fy + fh))
+                .a("stroke", "#000")
+                .a("stroke-width", 0.3)
+                .a("stroke-dasharray", "3 1.5"),
+        );
+    }
     Element::new("g")
         .a("clip-path", "url(#frame)")
         .a("fill", "none")
         .a("stroke-linejoin", "round")
         .holding(out)
+}
+
+/// Each station equation's mark, "back = ahead", above the frame over its
+/// line (outside the profile, so it never covers the design).
+fn equation_marks(scene: &Scene, page: &Page) -> Vec<Element> {
+    let (_, fy, _, _) = page.frame;
+    scene
+        .equations
+        .iter()
+        .map(|(s, text)| {
+            Element::text(format!("Station equation {text}"))
+                .a("x", mm(page.x(*s)))
+                .a("y", mm(fy - 1.5))
+                .a("font-size", SMALL)
+                .a("text-anchor", "middle")
+                .a("font-weight", "bold")
+        })
+        .collect()
 }
 
 /// A marker of `shape` at paper (`x`, `y`): every role has its own shape, so

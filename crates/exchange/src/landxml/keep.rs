@@ -22,7 +22,7 @@ use roxmltree::Node;
 use gradewright_geometry::Pvi;
 
 use super::parse::{AlignmentNodes, Parsed, is};
-use super::write::{GROUND_NAME, escape, number, point_list, pvi_element};
+use super::write::{GROUND_NAME, equation_element, escape, number, point_list, pvi_element};
 
 /// One change to the kept text: `range` replaced by `with`.
 struct Edit {
@@ -52,6 +52,10 @@ pub(super) fn written_back(project: &Project, kept: &Kept) -> Option<String> {
         edits.push(profile_edit(text, *prof_align, &read, &project.pvis)?);
     }
     edits.extend(ground_edit(&parsed, alignment, *prof_align, kept, project)?);
+    let equations = parsed.equations(alignment, 1.0).ok()?;
+    if equations.as_slice() != project.equations.as_slice() {
+        edits.extend(equation_edits(text, alignment, *prof_align, project)?);
+    }
     let speed = parsed.design_speed(alignment, project.units, &mut notes).ok()?;
     let wanted = project.criteria.design_speed.filter(|v| v.is_finite() && *v > 0.0);
     if let Some(v) = wanted.filter(|v| speed != Some(*v)) {
@@ -172,11 +176,7 @@ fn ground_edit(
     if project.ground.is_empty() {
         // The project dropped its ground line: so does the file (with the
         // indentation of its line).
-        let range = node.range();
-        let indent = indent_at(text, range.start);
-        let start = range.start - indent.len();
-        let start = if text.get(..start).is_some_and(|b| b.ends_with('\n')) { start - 1 } else { start };
-        return Some(Some(Edit { range: start..range.end, with: String::new() }));
+        return Some(Some(Edit { range: whole_line(text, *node), with: String::new() }));
     }
     let outer = indent_at(text, node.range().start);
     let inner = inner_indent(text, *node, outer);
@@ -186,6 +186,51 @@ fn ground_edit(
         point_list(&project.ground, &format!("{inner}  "))
     );
     Some(Some(Edit { range: content(*node)?, with }))
+}
+
+/// The range of `node`'s line: from the start of its indentation (and the
+/// line break before it) to its end, so that removing it leaves no blank
+/// line.
+fn whole_line(text: &str, node: Node<'_, '_>) -> Range<usize> {
+    let range = node.range();
+    let start = range.start - indent_at(text, range.start).len();
+    let start = if text.get(..start).is_some_and(|b| b.ends_with('\n')) { start - 1 } else { start };
+    start..range.end
+}
+
+/// The project's station equations in place of the file's: written where
+/// the first of the file's was (or before the profile when it had none),
+/// the file's others removed.
+fn equation_edits(
+    text: &str,
+    alignment: &AlignmentNodes<'_, '_>,
+    prof_align: Node<'_, '_>,
+    project: &Project,
+) -> Option<Vec<Edit>> {
+    let nodes: Vec<Node<'_, '_>> = alignment.node.children().filter(|n| is(*n, "StaEquation")).collect();
+    let holder = prof_align.parent_element()?;
+    let anchor = nodes.first().copied().unwrap_or(holder);
+    let indent = indent_at(text, anchor.range().start);
+    let prefix = prefix_of(text, anchor);
+    let written: Vec<String> =
+        project.equations.as_slice().iter().map(|e| equation_element(e, prefix)).collect();
+    let mut edits = Vec::new();
+    match nodes.split_first() {
+        Some((first, rest)) => {
+            if written.is_empty() {
+                edits.push(Edit { range: whole_line(text, *first), with: String::new() });
+            } else {
+                edits.push(Edit { range: first.range(), with: written.join(&format!("\n{indent}")) });
+            }
+            edits.extend(rest.iter().map(|n| Edit { range: whole_line(text, *n), with: String::new() }));
+        }
+        None => {
+            let at = holder.range().start;
+            let with: String = written.iter().map(|w| format!("{w}\n{indent}")).collect();
+            edits.push(Edit { range: at..at, with });
+        }
+    }
+    Some(edits)
 }
 
 /// The design speed written where the file keeps it, or as a `Feature` of

@@ -5,7 +5,8 @@
 use std::path::Path;
 
 use gradewright_geometry::{
-    Foot, GroundPoint, Pvi, Station, Units, VerticalCurve, excerpt, length_factor, speed_factor, tolerance,
+    Foot, GroundPoint, Pvi, Station, StationEquation, Units, VerticalCurve, excerpt, length_factor,
+    speed_factor, tolerance,
 };
 use roxmltree::{Document, Node};
 
@@ -496,10 +497,53 @@ impl<'a> Parsed<'a> {
         Ok(table.points)
     }
 
+    /// The station equations of an alignment (`StaEquation`: `staInternal`
+    /// and `staAhead` required, `staBack` the station the road reaches
+    /// there when left out), scaled, in file order.
+    ///
+    /// # Errors
+    /// A number that does not parse, decreasing stationing
+    /// (`staIncrement="decreasing"`), or equations out of order or whose
+    /// back station is not where the road is (see
+    /// [`gradewright_geometry::Equations::problem`]), naming the line.
+    pub(super) fn equations(
+        &self,
+        alignment: &AlignmentNodes<'_, '_>,
+        scale: f64,
+    ) -> Result<Vec<StationEquation>, ReadError> {
+        let nodes: Vec<Node<'_, '_>> = alignment.node.children().filter(|n| is(*n, "StaEquation")).collect();
+        let mut out: Vec<StationEquation> = Vec::with_capacity(nodes.len());
+        for node in &nodes {
+            if node.attribute("staIncrement").is_some_and(|v| v.trim() == "decreasing") {
+                return Err(self.err(
+                    *node,
+                    "StaEquation@staIncrement",
+                    "stations decreasing ahead of an equation are not supported; Gradewright stations increase",
+                ));
+            }
+            let internal = self.attribute(*node, "staInternal")? * scale;
+            let ahead = self.attribute(*node, "staAhead")? * scale;
+            let back = match node.attribute("staBack") {
+                Some(_) => self.attribute(*node, "staBack")? * scale,
+                None => out.last().map_or(internal, |p: &StationEquation| p.ahead + (internal - p.internal)),
+            };
+            out.push(StationEquation { internal, back, ahead });
+        }
+        if let Some((k, why)) = gradewright_geometry::Equations::new(out.clone()).problem() {
+            let node = nodes.get(k).copied().unwrap_or(alignment.node);
+            return Err(self.err(node, "StaEquation", why));
+        }
+        Ok(out)
+    }
+
     /// Notes on what an alignment holds that is not read.
     pub(super) fn alignment_notes(&self, alignment: &AlignmentNodes<'_, '_>, notes: &mut Vec<Note>) {
-        if alignment.node.children().any(|n| is(n, "StaEquation")) {
-            notes.push(note(self.origin, NoteKind::StationEquations { alignment: alignment.name.clone() }));
+        let equations = alignment.node.children().filter(|n| is(*n, "StaEquation")).count();
+        if equations > 0 {
+            notes.push(note(
+                self.origin,
+                NoteKind::StationEquations { alignment: alignment.name.clone(), count: equations },
+            ));
         }
         // Another vocabulary's elements in the alignment's profiles (a
         // ProfAlign of another namespace is not LandXML's): named, not read.

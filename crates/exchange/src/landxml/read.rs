@@ -47,6 +47,8 @@ pub struct LandXmlProfile {
     /// The design speed the file gives the alignment (km/h or mph, in the
     /// units read), if it gives one.
     pub design_speed: Option<f64>,
+    /// The alignment's station equations (in the units read).
+    pub equations: Vec<gradewright_geometry::StationEquation>,
     /// What the reader wants the user to know: the units it read, what it
     /// converted, and every element it skipped.
     pub notes: Vec<Note>,
@@ -66,6 +68,7 @@ impl LandXmlProfile {
         project.criteria.design_speed = self.design_speed;
         project.pvis.clone_from(&self.pvis);
         project.ground = self.ground.clone().into();
+        project.equations = self.equations.clone().into();
         project.kept = self.source.as_ref().map(|text| gradewright_document::Kept {
             text: Arc::clone(text),
             alignment: self.alignment.clone(),
@@ -138,6 +141,7 @@ pub fn read_landxml(
         None => (None, Vec::new()),
     };
     let design_speed = parsed.design_speed(alignment, units, &mut notes)?;
+    let equations = parsed.equations(alignment, scale)?;
     let converted = target.is_some() || parsed.units.scale.to_bits() != 1.0_f64.to_bits();
     // Found again by name when written back: only a file whose names pick
     // out this alignment and profile alone is kept.
@@ -158,6 +162,7 @@ pub fn read_landxml(
         surface,
         ground,
         design_speed,
+        equations,
         notes,
         source,
     })

@@ -133,6 +133,9 @@ pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> s
         number(first.station.0),
         number((last.station.0 - first.station.0).max(0.0))
     )?;
+    for e in project.equations.as_slice() {
+        writeln!(w, "      {}", equation_element(e, ""))?;
+    }
     writeln!(w, r#"      <Profile name="{}">"#, escape(name))?;
     if !project.ground.is_empty() {
         writeln!(w, r#"        <ProfSurf name="{GROUND_NAME}">"#)?;
@@ -174,6 +177,17 @@ pub fn write_landxml(mut out: impl Write, project: &Project, stamp: &Stamp) -> s
     }
     writeln!(w, "</LandXML>")?;
     w.flush()
+}
+
+/// A station equation as its `StaEquation` element, names written with
+/// `prefix`.
+pub(super) fn equation_element(e: &gradewright_geometry::StationEquation, prefix: &str) -> String {
+    format!(
+        r#"<{prefix}StaEquation staInternal="{}" staBack="{}" staAhead="{}" staIncrement="increasing"/>"#,
+        number(e.internal),
+        number(e.back),
+        number(e.ahead)
+    )
 }
 
 /// One PVI as its LandXML element (`PVI`, `ParaCurve` or

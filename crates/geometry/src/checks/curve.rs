@@ -4,18 +4,23 @@
 use super::CurveCheck;
 use super::label;
 use crate::tolerance::{above, below};
-use crate::{CriterionId, CurveGeometry, CurveKind, Finding, FindingCode, ResolvedCriteria, SagRule, sight};
+use crate::{
+    CriterionId, CurveGeometry, CurveKind, Finding, FindingCode, ResolvedCriteria, SagRule, Stationing, sight,
+};
 
 /// Checks one curve against the curve criteria (K, sight-distance length,
 /// comfort, minimum length, drainage), adding its findings to `findings`.
 /// The `ok` of the result reflects these findings only.
+/// Stations in its findings read as `at` says (the road's station
+/// equations).
 pub fn check_curve(
     curve: &CurveGeometry,
     criteria: &ResolvedCriteria,
+    at: Stationing<'_>,
     findings: &mut Vec<Finding>,
 ) -> CurveCheck {
     let before = findings.len();
-    let mut check = check_curve_inner(curve, criteria, findings);
+    let mut check = check_curve_inner(curve, criteria, at, findings);
     check.ok = !findings.iter().skip(before).any(Finding::fails);
     check
 }
@@ -58,6 +63,7 @@ fn requirements(
 fn check_curve_inner(
     curve: &CurveGeometry,
     criteria: &ResolvedCriteria,
+    at: Stationing<'_>,
     findings: &mut Vec<Finding>,
 ) -> CurveCheck {
     let units = criteria.units;
@@ -75,7 +81,7 @@ fn check_curve_inner(
         length_required: 0.0,
         ok: true,
     };
-    let where_ = format!("PVI {} ({})", curve.index + 1, label(units, curve.pvi));
+    let where_ = format!("PVI {} ({})", curve.index + 1, label(at, curve.pvi));
     let mut push = |code, message: String| {
         findings.push(Finding::new(code, (curve.pvc, curve.pvt), Some(curve.index), message));
     };
@@ -221,7 +227,7 @@ fn check_curve_inner(
             format!(
                 "{where_}: K = {k_overall:.1} {ks} is above {drainage:.0} {ks} with a level point at {} \
                  (elevation {elevation:.3}); check drainage near the level point",
-                label(units, station)
+                label(at, station)
             ),
         );
     }

@@ -16,7 +16,7 @@ pub(crate) fn check_grades_of(
     starts: std::ops::Range<usize>,
     findings: &mut Vec<Finding>,
 ) {
-    let units = profile.units;
+    let at = profile.stationing();
     let max = criteria.get(CriterionId::MaxGrade);
     let min = criteria.get(CriterionId::MinGrade);
     let first = starts.start;
@@ -25,7 +25,7 @@ pub(crate) fn check_grades_of(
         let i = first + k;
         let [a, b] = pair else { continue };
         let grade = a.grade_to(b) * 100.0;
-        let span = || format!("{} to {}", label(units, a.station), label(units, b.station));
+        let span = || format!("{} to {}", label(at, a.station), label(at, b.station));
         let mut push = |code, message| {
             findings.push(Finding::new(code, (a.station, b.station), Some(i), message));
         };

@@ -17,7 +17,7 @@ pub use streamed::StreamedCheck;
 use crate::visibility::SightProfile;
 use crate::{
     Alignment, CriterionId, CurveGeometry, CurveKind, Finding, FindingCode, Profile, ProfileProblem,
-    ResolvedCriteria, Severity, Station, Units, interior_curves,
+    ResolvedCriteria, Severity, Station, interior_curves,
 };
 
 /// A curve with what the criteria ask of it.
@@ -212,7 +212,7 @@ pub(crate) fn check_profile_reusing(
                 report.findings.extend(found);
                 check
             }
-            None => check_curve(&curve, criteria, &mut report.findings),
+            None => check_curve(&curve, criteria, profile.stationing(), &mut report.findings),
         };
         made.curves.push(start..report.findings.len());
         report.curves.push(check);
@@ -262,12 +262,11 @@ pub(crate) fn check_profile_reusing(
     (report, made)
 }
 
-pub(super) fn label(units: Units, station: Station) -> String {
-    station.label(units, units.station_decimals())
+pub(super) fn label(at: crate::Stationing<'_>, station: Station) -> String {
+    at.label_std(station.0)
 }
 
 fn problem_finding(profile: &Profile, problem: &ProfileProblem) -> Finding {
-    let units = profile.units;
     let pvi = problem.pvi_index();
     let station = pvi
         .and_then(|i| profile.pvis.get(i))
@@ -278,14 +277,14 @@ fn problem_finding(profile: &Profile, problem: &ProfileProblem) -> Finding {
         ProfileProblem::Overlap { pvt, pvc, .. } => (Station(*pvc), Station(*pvt)),
         _ => (station, station),
     };
-    let at = pvi.map_or(String::new(), |_| format!(" (at {})", label(units, station)));
+    let at = pvi.map_or(String::new(), |_| format!(" (at {})", label(profile.stationing(), station)));
     Finding::new(problem.code(), (start, end), pvi, format!("{problem}{at}"))
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::Pvi;
+    use crate::{Pvi, Units};
 
     #[test]
     fn a_repeated_problem_is_one_finding_with_a_count() {

@@ -117,7 +117,6 @@ pub(super) struct Wording<'a> {
     alignment: &'a Alignment,
     roads: [Road; 2],
     setup: crate::visibility::SightSetup,
-    units: crate::Units,
     offset: usize,
 }
 
@@ -127,7 +126,6 @@ impl<'a> Wording<'a> {
             alignment,
             roads: [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)],
             setup: criteria.sight_setup(),
-            units: criteria.units,
             offset,
         }
     }
@@ -160,7 +158,7 @@ impl<'a> Wording<'a> {
                 format!(
                     "; limited by {what} at PVI {} ({})",
                     i + self.offset + 1,
-                    label(self.units, p.station)
+                    label(alignment.stationing(), p.station)
                 )
             })
             .unwrap_or_default();
@@ -169,11 +167,11 @@ impl<'a> Wording<'a> {
 
     /// The finding of a shortfall charged as `blame` says.
     pub(super) fn finding(
-        units: crate::Units,
+        at: crate::Stationing<'_>,
         short: &crate::visibility::Shortfall,
         blame: &Blame,
     ) -> Finding {
-        let len = units.length_symbol();
+        let len = at.units.length_symbol();
         let way = match short.direction {
             Direction::Forward => "forward (increasing stations)",
             Direction::Backward => "backward (decreasing stations)",
@@ -193,10 +191,10 @@ impl<'a> Wording<'a> {
             format!(
                 "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
                  worst at {}: {:.1} {len} available{}",
-                label(units, Station(short.start)),
-                label(units, Station(short.end)),
+                label(at, Station(short.start)),
+                label(at, Station(short.end)),
                 short.required,
-                label(units, Station(short.worst)),
+                label(at, Station(short.worst)),
                 short.available,
                 blame.words
             ),
@@ -205,7 +203,7 @@ impl<'a> Wording<'a> {
 
     /// The finding of a shortfall whose worst eye is on this road.
     pub(super) fn word(&self, short: &crate::visibility::Shortfall) -> Finding {
-        Self::finding(self.units, short, &self.blame(short))
+        Self::finding(self.alignment.stationing(), short, &self.blame(short))
     }
 }
 

@@ -142,7 +142,7 @@ impl<'a> StreamedCheck<'a> {
         let mut scratch = Vec::new();
         for curve in self.interior_curves() {
             scratch.clear();
-            let mut check = check_curve(&curve, &self.criteria, &mut scratch);
+            let mut check = check_curve(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
             check.ok = !self.fails_at(curve.index);
             if let Some(site) = &self.site {
                 for &(pvi, needed) in &site.needed {
@@ -165,7 +165,8 @@ impl<'a> StreamedCheck<'a> {
         if let Some(site) = &self.site {
             site.control_findings.iter().chain(&site.under_findings).try_for_each(&mut each)?;
         }
-        ground_findings(&self.review, self.design.units).try_for_each(|f| each(&f))
+        ground_findings(&self.review, self.design.equations.stationing(self.design.units))
+            .try_for_each(|f| each(&f))
     }
 
     fn fails_at(&self, index: usize) -> bool {
@@ -186,7 +187,7 @@ impl<'a> StreamedCheck<'a> {
         let mut scratch = Vec::new();
         for curve in self.interior_curves() {
             scratch.clear();
-            check_curve(&curve, &self.criteria, &mut scratch);
+            check_curve(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
             scratch.iter().try_for_each(&mut *each)?;
         }
         let tangents = self.profile.pvis.len().saturating_sub(1);
@@ -214,7 +215,7 @@ impl<'a> StreamedCheck<'a> {
     /// The sight shortfalls' findings: forward ones as they close, then the
     /// backward ones (kept, with what they are charged to, until then).
     fn sight_findings<E>(&self, each: &mut impl FnMut(&Finding) -> Result<(), E>) -> Result<Streamed, E> {
-        let units = self.criteria.units;
+        let units = self.profile.stationing();
         let mut runs: [Option<(Shortfall, Option<Blame>)>; 2] = [None, None];
         let mut backward: Vec<(Shortfall, Blame)> = Vec::new();
         let streamed =

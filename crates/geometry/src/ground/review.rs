@@ -4,7 +4,7 @@
 //! refusal: the designer decides, but is told where.
 
 use super::Ground;
-use crate::{Station, Units, format_station};
+use crate::{Station, Units};
 
 /// Elevations surveying software writes for "no data" (common practice).
 const NO_DATA: [f64; 8] = [-9999.0, -999.0, -99999.0, 9999.0, 99999.0, -32768.0, -32767.0, -999.99];
@@ -53,10 +53,10 @@ pub enum GroundWarning {
 }
 
 impl GroundWarning {
-    /// The warning in words, stations in `units`' notation.
-    pub fn describe(&self, units: Units) -> String {
-        let label = |s: f64| format_station(s, units, units.station_decimals());
-        let len = units.length_symbol();
+    /// The warning in words, stations as plan stations of `at`.
+    pub fn describe(&self, at: crate::Stationing<'_>) -> String {
+        let label = |s: f64| at.label_std(s);
+        let len = at.units.length_symbol();
         match *self {
             Self::NoData { station, elevation } => format!(
                 "ground point at {} has elevation {elevation}, a value surveys use for no data: check it \
@@ -187,7 +187,11 @@ mod tests {
             "{warnings:?}"
         );
         assert_eq!(warnings.len(), 3, "the neighbours of the bad points are not blamed: {warnings:?}");
-        let text = warnings.iter().map(|w| w.describe(Units::Metric)).collect::<Vec<_>>().join("\n");
+        let text = warnings
+            .iter()
+            .map(|w| w.describe(crate::Stationing::plain(Units::Metric)))
+            .collect::<Vec<_>>()
+            .join("\n");
         assert!(text.contains("0+050.000 has elevation -9999") && text.contains("interpolated"), "{text}");
         // A smooth survey says nothing.
         let smooth: Vec<(f64, f64)> =

@@ -2,7 +2,7 @@
 //! brings its curve into view.
 
 use egui::RichText;
-use gradewright_geometry::{Severity, format_station};
+use gradewright_geometry::Severity;
 
 use super::View;
 use super::table::status_text;
@@ -15,7 +15,6 @@ use crate::gui::theme::Palette;
 pub fn findings_ui(ui: &mut egui::Ui, view: &mut View<'_>) {
     let doc = view.doc;
     let palette = Palette::of(ui);
-    let units = doc.project().units;
     let findings = &doc.analysis().report.findings;
     let count = |s| findings.iter().filter(|f| f.severity() == s).count();
     if let Err(why) = &doc.analysis().criteria {
@@ -53,12 +52,12 @@ pub fn findings_ui(ui: &mut egui::Ui, view: &mut View<'_>) {
             for &k in order.get(rows).unwrap_or(&[]) {
                 let Some(f) = findings.get(k) else { continue };
                 let range = if f.station_start == f.station_end {
-                    format_station(f.station_start.0, units, 1)
+                    doc.project().stationing().label(f.station_start.0, 1)
                 } else {
                     format!(
                         "{} – {}",
-                        format_station(f.station_start.0, units, 1),
-                        format_station(f.station_end.0, units, 1)
+                        doc.project().stationing().label(f.station_start.0, 1),
+                        doc.project().stationing().label(f.station_end.0, 1)
                     )
                 };
                 let response = egui::Frame::group(ui.style())

@@ -4,6 +4,7 @@
 //! the frame.
 
 pub mod criteria;
+pub mod equations;
 pub mod export;
 pub mod findings;
 pub mod plot;
@@ -61,6 +62,8 @@ pub struct Panels {
     pub sight: sight::SightStrip,
     /// The control points, the ground and earthwork, the mass-haul strip.
     pub site: site::SitePanel,
+    /// The station equations.
+    pub equations: equations::EquationsPanel,
     /// The design criteria.
     pub criteria: criteria::CriteriaPanel,
     /// The export windows.
@@ -74,6 +77,7 @@ impl Panels {
     pub fn reset(&mut self) {
         self.table.reset();
         self.site.reset();
+        self.equations.reset();
         self.criteria.reset();
         self.plot.reset();
     }
@@ -113,6 +117,13 @@ impl Panels {
                     egui::CollapsingHeader::new(RichText::new("Ground and earthwork").heading())
                         .default_open(true)
                         .show(ui, |ui| self.site.earthwork_ui(ui, &mut view));
+                    let count = view.doc.project().equations.as_slice().len();
+                    egui::CollapsingHeader::new(
+                        RichText::new(format!("Station equations ({count})")).heading(),
+                    )
+                    .id_salt("station-equations")
+                    .default_open(count > 0)
+                    .show(ui, |ui| self.equations.ui(ui, &mut view));
                 }
             });
         });

@@ -7,7 +7,7 @@
 use egui::{Pos2, RichText};
 use egui_plot::{Legend, Plot, PlotBounds, PlotPoint, PlotTransform};
 use gradewright_document::Project;
-use gradewright_geometry::{Analysis, Station, format_station};
+use gradewright_geometry::{Analysis, Station};
 
 use super::plot_scene::{PlotScene, draw_items, paint_site};
 use crate::gui::command::{Action, Edit, UiCommand};
@@ -27,9 +27,11 @@ pub fn strip(
     id: &str,
     height: f32,
     least: f32,
-    units: gradewright_geometry::Units,
+    project: &gradewright_document::Project,
     y_label: String,
 ) -> Plot<'static> {
+    let (units, equations) = (project.units, project.equations.clone());
+    let grid = station_grid(equations.clone(), units);
     Plot::new(id)
         .height(height.max(least))
         .link_axis(egui::Id::unique(STATION_AXIS), [true, false])
@@ -37,7 +39,8 @@ pub fn strip(
         .allow_zoom([true, false])
         .allow_scroll([true, false])
         .include_y(0.0)
-        .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
+        .x_axis_formatter(move |mark, _| equations.stationing(units).label(mark.value, 0))
+        .x_grid_spacer(grid)
         .y_axis_label(y_label)
         .legend(Legend::default().position(egui_plot::Corner::RightTop))
 }
@@ -237,6 +240,8 @@ impl PlotPanel {
         let alignment = doc.analysis().alignment.clone();
         let ground = doc.project().ground.clone();
         let station_decimals = units.station_decimals();
+        let (axis_equations, hover_equations) =
+            (doc.project().equations.clone(), doc.project().equations.clone());
         let dragging = doc.dragging().is_some();
         let plot = Plot::new("profile-plot")
             .height(height.max(120.0))
@@ -246,7 +251,8 @@ impl PlotPanel {
             .allow_double_click_reset(false)
             .x_axis_label("Station")
             .y_axis_label(format!("Elevation ({len})"))
-            .x_axis_formatter(move |mark, _| format_station(mark.value, units, 0))
+            .x_grid_spacer(station_grid(axis_equations.clone(), units))
+            .x_axis_formatter(move |mark, _| axis_equations.stationing(units).label(mark.value, 0))
             .legend(Legend::default().position(egui_plot::Corner::RightBottom))
             .label_formatter(move |hover| {
                 // While dragging, the readout beside the PVI says it all.
@@ -257,7 +263,7 @@ impl PlotPanel {
                     egui_plot::HoverPosition::NearDataPoint { position, .. }
                     | egui_plot::HoverPosition::Elsewhere { position } => *position,
                 };
-                let station = format_station(p.x, units, station_decimals);
+                let station = hover_equations.stationing(units).label(p.x, station_decimals);
                 let on_profile = alignment.as_ref().and_then(|a| a.sample(Station(p.x)).ok());
                 Some(match on_profile {
                     Some(s) => {
@@ -368,10 +374,9 @@ impl PlotPanel {
         selected: Option<usize>,
         queue: &mut Vec<Action>,
     ) {
-        let units = project.units;
         let mut items: Vec<(String, Action, bool)> = Vec::new();
         if let Some([station, elevation]) = self.context {
-            let at = format_station(station, units, units.station_decimals());
+            let at = project.stationing().label_std(station);
             items.push((format!("Insert PVI at {at}"), Action::InsertAt(station), true));
             let add = Action::AddControl { station, elevation: Some(elevation) };
             items.push((format!("Add control point at {at}"), add, true));
@@ -428,4 +433,37 @@ fn fit_bounds(project: &Project) -> Option<PlotBounds> {
     let dx = (x1 - x0).max(1.0) * 0.04;
     let dy = (y1 - y0).max(1.0) * 0.15;
     Some(PlotBounds::from_min_max([x0 - dx, y0 - dy], [x1 + dx, y1 + dy]))
+}
+
+/// The station axis's grid: egui_plot's own (powers of ten), except that
+/// with station equations the lines fall on even plan stations, restarting
+/// ahead of each equation (as the sheet's grid does).
+pub fn station_grid(
+    equations: gradewright_geometry::Equations,
+    units: gradewright_geometry::Units,
+) -> impl Fn(egui_plot::GridInput) -> Vec<egui_plot::GridMark> {
+    let base = egui_plot::log_grid_spacer(10);
+    move |input: egui_plot::GridInput| {
+        let (from, to) = input.bounds;
+        let marks = base(input);
+        if equations.is_empty() {
+            return marks;
+        }
+        let mut steps: Vec<f64> = marks.iter().map(|m| m.step_size).collect();
+        steps.sort_by(|a, b| b.total_cmp(a));
+        steps.dedup();
+        let at = equations.stationing(units);
+        let mut out: Vec<egui_plot::GridMark> = Vec::new();
+        // Largest step first: a station is marked once, with the largest
+        // step it falls on.
+        for step in steps {
+            for value in at.even(from, to, step) {
+                let taken = out.iter().any(|m| gradewright_geometry::tolerance::same_station(m.value, value));
+                if !taken {
+                    out.push(egui_plot::GridMark { value, step_size: step });
+                }
+            }
+        }
+        out
+    }
 }

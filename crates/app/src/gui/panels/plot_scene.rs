@@ -10,7 +10,6 @@ use egui_plot::{Line, LineStyle, MarkerShape, PlotPoint, PlotPoints, PlotTransfo
 use gradewright_draw::{
     Detail, Label, Placement, Rect, Role, Scene, Shape, Side, Spacing, place_labels, profile_scene_with,
 };
-use gradewright_geometry::format_station;
 use gradewright_geometry::tolerance::LENGTH_FLOOR;
 
 use crate::gui::document::Document;
@@ -280,7 +279,7 @@ fn drag_readout(doc: &Document) -> Option<([f64; 2], String)> {
     let pct = |g: Option<f64>| g.map_or_else(|| "—".to_owned(), |g| format!("{g:+.3} %"));
     let text = format!(
         "{}\nel. {:.3} {}\ng1 {} · g2 {}",
-        format_station(p.station.0, units, units.station_decimals()),
+        doc.project().stationing().label(p.station.0, units.station_decimals()),
         p.elevation,
         units.length_symbol(),
         pct(g1),
@@ -343,6 +342,25 @@ pub(super) fn paint_site(drawn: &PlotScene, ui: &egui::Ui, transform: &PlotTrans
     for m in scene.markers.iter().filter(|m| matches!(m.role, Role::Control | Role::MissedControl)) {
         let colour = if m.role == Role::MissedControl { palette.fail } else { palette.control };
         symbol(&mut shapes, at(m.at[0], m.at[1]), m.shape, SYMBOL, colour, ui.visuals().extreme_bg_color);
+    }
+    // Station equations: a dashed line across the plot and its mark.
+    let frame = *transform.frame();
+    for (s, text) in &scene.equations {
+        let x = at(*s, 0.0).x;
+        let (top, bottom) = (egui::pos2(x, frame.top()), egui::pos2(x, frame.bottom()));
+        shapes.extend(Paint::dashed_line(&[top, bottom], Stroke::new(1.2, palette.text), 6.0, 4.0));
+        let galley = ui.painter().layout_no_wrap(
+            format!("Station equation {text}"),
+            egui::FontId::proportional(12.0),
+            palette.text,
+        );
+        let at = egui::pos2(x + 4.0, frame.top() + 4.0);
+        shapes.push(Paint::rect_filled(
+            egui::Rect::from_min_size(at, galley.size()).expand(2.0),
+            2.0,
+            ui.visuals().extreme_bg_color,
+        ));
+        shapes.push(Paint::galley(at, galley, palette.text));
     }
     painter.extend(shapes);
 }

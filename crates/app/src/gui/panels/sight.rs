@@ -4,7 +4,6 @@
 
 use egui::{Color32, RichText};
 use egui_plot::{Line, LineStyle, PlotPoints, Polygon};
-use gradewright_geometry::format_station;
 use gradewright_geometry::visibility::SightSample;
 
 use super::plot::strip;
@@ -94,8 +93,9 @@ impl SightStrip {
             .filter(|(a, b)| b.max(*a) >= x_range.0 && a.min(*b) <= x_range.1)
             .collect();
         let lookup = sight.clone();
+        let equations = doc.project().equations.clone();
         let decimals = units.station_decimals();
-        strip("sight-strip", ui.available_height(), 80.0, units, format!("Sight distance ({len})"))
+        strip("sight-strip", ui.available_height(), 80.0, doc.project(), format!("Sight distance ({len})"))
             .include_y(top * 1.05)
             .label_formatter(move |hover| {
                 let x = match hover {
@@ -116,7 +116,7 @@ impl SightStrip {
                 };
                 Some(format!(
                     "{}\nforward {} (needs {:.1})\nbackward {} (needs {:.1})",
-                    format_station(s.station, units, decimals),
+                    equations.stationing(units).label(s.station, decimals),
                     shown(s.forward),
                     s.required_forward,
                     shown(s.backward),

@@ -6,8 +6,7 @@ use egui::RichText;
 use egui_plot::{Line, LineStyle, PlotPoints};
 use gradewright_draw::Shape;
 use gradewright_geometry::{
-    ControlKind, ControlPoint, ControlStatus, Section, SectionField, area_symbol, format_station,
-    parse_station, volume_symbol,
+    ControlKind, ControlPoint, ControlStatus, Section, SectionField, area_symbol, volume_symbol,
 };
 
 use super::View;
@@ -155,11 +154,11 @@ impl SitePanel {
                 set(&mut |p| p.name = text.trim().to_owned());
             }
             let id = Cell::Control(i, ControlColumn::Station);
-            let shown = format_station(c.station, units, units.station_decimals());
+            let shown = doc.project().stationing().label(c.station, units.station_decimals());
             if let Some(text) =
                 self.cells.edit(ui, id, &shown, 72.0, &format!("Control {} station", i + 1))
                 && let Some(s) =
-                    self.cells.settle(id, &text, parse_station(&text, units).map_err(|e| e.to_string()))
+                    self.cells.settle(id, &text, doc.project().stationing().parse(&text).map_err(|e| e.to_string()))
             {
                 set(&mut |p| p.station = s);
             }
@@ -261,7 +260,7 @@ impl SitePanel {
         let palette = Palette::of(ui);
         let units = doc.project().units;
         let len = units.length_symbol();
-        let label = |s: f64| format_station(s, units, units.station_decimals());
+        let label = |s: f64| doc.project().stationing().label(s, units.station_decimals());
         let ground = doc.project().ground.clone();
         match ground.range() {
             None => {
@@ -350,8 +349,8 @@ impl SitePanel {
                 let net = e.net();
                 ui.label(format!(
                     "From {} to {} (where the ground covers the profile)",
-                    format_station(e.range.0, units, units.station_decimals()),
-                    format_station(e.range.1, units, units.station_decimals())
+                    doc.project().stationing().label(e.range.0, units.station_decimals()),
+                    doc.project().stationing().label(e.range.1, units.station_decimals())
                 ));
                 ui.label(format!("Cut {:.0} {vol} · Fill {:.0} {vol}", e.cut, e.fill));
                 ui.label(
@@ -410,7 +409,7 @@ pub fn mass_strip_ui(ui: &mut egui::Ui, doc: &Document, x_range: (f64, f64)) {
     );
     let lookup = points.clone();
     let decimals = units.station_decimals();
-    strip("mass-strip", ui.available_height(), 70.0, units, format!("Mass ({vol})"))
+    strip("mass-strip", ui.available_height(), 70.0, doc.project(), format!("Mass ({vol})"))
         .label_formatter(move |hover| {
             let x = match hover {
                 egui_plot::HoverPosition::NearDataPoint { position, .. }
@@ -418,7 +417,7 @@ pub fn mass_strip_ui(ui: &mut egui::Ui, doc: &Document, x_range: (f64, f64)) {
             };
             let i = lookup.partition_point(|p| p[0] < x).min(lookup.len().saturating_sub(1));
             let p = lookup.get(i)?;
-            Some(format!("{}\nmass {:+.1} {vol}", format_station(p[0], units, decimals), p[1]))
+            Some(format!("{}\nmass {:+.1} {vol}", doc.project().stationing().label(p[0], decimals), p[1]))
         })
         .show(ui, |pui| {
             pui.line(

@@ -2,9 +2,7 @@
 //! derived grades, A, K, minimum K, required length and status.
 
 use egui::RichText;
-use gradewright_geometry::{
-    CriteriaError, Pvi, Severity, Station, VerticalCurve, format_station, parse_station,
-};
+use gradewright_geometry::{CriteriaError, Pvi, Severity, Station, VerticalCurve};
 
 use super::View;
 use crate::gui::cell::{Cells, parse_length, parse_number};
@@ -105,7 +103,7 @@ impl TablePanel {
             ui.label(
                 RichText::new(format!(
                     "{n} PVIs · stations like {} or plain numbers · Enter to apply",
-                    format_station(1234.5, units, units.station_decimals())
+                    doc.project().stationing().label(1234.5, units.station_decimals())
                 ))
                 .weak(),
             );
@@ -196,16 +194,18 @@ impl TablePanel {
         let number = i + 1;
         // Station.
         let id = (i, PviColumn::Station);
-        let current = format_station(pvi.station.0, units, units.station_decimals());
+        let current = doc.project().stationing().label(pvi.station.0, units.station_decimals());
         if let Some(text) = self.cells.edit(ui, id, &current, 90.0, &format!("PVI {number} station")) {
-            let parsed = parse_station(&text, units).map_err(|e| e.to_string()).and_then(|s| {
+            let parsed = doc.project().stationing().parse(&text).map_err(|e| e.to_string()).and_then(|s| {
                 let low_ok = prev.is_none_or(|p| s > p);
                 let high_ok = next.is_none_or(|q| s < q);
                 if low_ok && high_ok {
                     Ok(s)
                 } else {
                     let fmt = |v: Option<f64>| {
-                        v.map_or("the end".to_owned(), |v| format_station(v, units, units.station_decimals()))
+                        v.map_or("the end".to_owned(), |v| {
+                            doc.project().stationing().label(v, units.station_decimals())
+                        })
                     };
                     Err(format!("station must lie between {} and {}", fmt(prev), fmt(next)))
                 }
@@ -303,8 +303,11 @@ impl TablePanel {
                 let id = (i, PviColumn::GradeBack);
                 if let Some(text) =
                     self.cells.edit(ui, id, &pct(grade_back), 60.0, &format!("PVI {number} grade back"))
-                    && let Some(g) =
-                        self.cells.settle(id, &text, parse_grade(&text, (a.station.0, a.elevation), units))
+                    && let Some(g) = self.cells.settle(
+                        id,
+                        &text,
+                        parse_grade(&text, (a.station.0, a.elevation), doc.project().stationing()),
+                    )
                 {
                     let elevation = a.elevation + g / 100.0 * (pvi.station - a.station);
                     view.push(Action::edit(Edit::SetPvi { index: i, pvi: Pvi { elevation, ..pvi } }));
@@ -323,7 +326,7 @@ impl TablePanel {
                     && let Some(g) = self.cells.settle(
                         id,
                         &text,
-                        parse_grade(&text, (pvi.station.0, pvi.elevation), units),
+                        parse_grade(&text, (pvi.station.0, pvi.elevation), doc.project().stationing()),
                     )
                 {
                     let elevation = pvi.elevation + g / 100.0 * (b.station - pvi.station);
@@ -419,7 +422,7 @@ impl TablePanel {
         }
         if self.show_curve_points {
             let units = doc.project().units;
-            let station = |s: f64| format_station(s, units, units.station_decimals());
+            let station = |s: f64| doc.project().stationing().label(s, units.station_decimals());
             match curve.filter(|c| c.length() > 0.0) {
                 Some(c) => {
                     ui.label(station(c.pvc.0));
@@ -450,9 +453,13 @@ impl TablePanel {
 /// A typed grade: a percentage (`+2.5`, `-1 %`), or a point the tangent must
 /// pass through, `STATION = ELEVATION` (`1+050 = 221.3`), from the fixed PVI
 /// at `from` (station, elevation).
-fn parse_grade(text: &str, from: (f64, f64), units: gradewright_geometry::Units) -> Result<f64, String> {
+fn parse_grade(
+    text: &str,
+    from: (f64, f64),
+    at: gradewright_geometry::Stationing<'_>,
+) -> Result<f64, String> {
     if let Some((station, elevation)) = text.split_once('=') {
-        let station = parse_station(station, units).map_err(|e| e.to_string())?;
+        let station = at.parse(station).map_err(|e| e.to_string())?;
         let elevation = parse_number(elevation)?;
         if (station - from.0).abs() <= 0.0 {
             return Err("the point must lie at another station than the PVI".to_owned());

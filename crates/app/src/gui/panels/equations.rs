@@ -1,0 +1,178 @@
+//! The station-equation table: where the plan stationing jumps (back =
+//! ahead) at an internal station. Add, edit and delete, one undo step each;
+//! the back station is the one the road reaches there, kept in step.
+
+use egui::RichText;
+use gradewright_geometry::{Equations, StationEquation, format_station, parse_station};
+
+use super::View;
+use crate::gui::cell::Cells;
+use crate::gui::command::Edit;
+use crate::gui::theme::Palette;
+
+/// Editable columns of the table.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
+enum Column {
+    /// The internal station (distance along the alignment from its start
+    /// station).
+    Internal,
+    /// The plan station ahead.
+    Ahead,
+}
+
+/// The table's own state: the cells being typed.
+#[derive(Debug)]
+pub struct EquationsPanel {
+    cells: Cells<(usize, Column)>,
+    /// Why the last change was refused, shown until the next one.
+    refused: Option<String>,
+}
+
+impl Default for EquationsPanel {
+    fn default() -> Self {
+        Self { cells: Cells::new("equations"), refused: None }
+    }
+}
+
+/// `list` sorted by internal station with every back station set to the
+/// plan station the road reaches there (so an edit of one equation keeps
+/// the others true).
+pub fn settled(mut list: Vec<StationEquation>) -> Equations {
+    list.sort_by(|a, b| a.internal.total_cmp(&b.internal));
+    let mut previous: Option<StationEquation> = None;
+    for e in &mut list {
+        e.back = previous.map_or(e.internal, |p| p.ahead + (e.internal - p.internal));
+        previous = Some(*e);
+    }
+    Equations::new(list)
+}
+
+impl EquationsPanel {
+    /// Forgets the old project's cells.
+    pub fn reset(&mut self) {
+        self.cells.clear();
+        self.refused = None;
+    }
+
+    /// The table: internal station, back (the road's), ahead; delete; add
+    /// at the selected PVI (or mid-profile).
+    pub fn ui(&mut self, ui: &mut egui::Ui, view: &mut View<'_>) {
+        let doc = view.doc;
+        let palette = Palette::of(ui);
+        let units = doc.project().units;
+        let len = units.length_symbol();
+        let decimals = units.station_decimals();
+        let list: Vec<StationEquation> = doc.project().equations.as_slice().to_vec();
+        let mut changed: Option<Vec<StationEquation>> = None;
+        if list.is_empty() {
+            ui.label(
+                "No station equations: plan stations are the internal stations. Add one where the \
+                 stationing jumps (back = ahead).",
+            );
+        } else {
+            ui.label(
+                RichText::new("Stations shown and typed everywhere are plan stations; the geometry runs along the internal station.")
+                    .weak(),
+            );
+        }
+        egui::Grid::new("equations-grid").striped(true).spacing([6.0, 3.0]).show(ui, |ui| {
+            if !list.is_empty() {
+                for h in ["", "Internal", "Back", "= Ahead", ""] {
+                    ui.label(RichText::new(h).strong());
+                }
+                ui.end_row();
+            }
+            for (i, e) in list.iter().enumerate() {
+                ui.label(format!("{}", i + 1));
+                let id = (i, Column::Internal);
+                let shown = format_station(e.internal, units, decimals);
+                if let Some(text) =
+                    self.cells.edit(ui, id, &shown, 80.0, &format!("Equation {} internal station", i + 1))
+                    && let Some(v) =
+                        self.cells.settle(id, &text, parse_station(&text, units).map_err(|x| x.to_string()))
+                {
+                    let mut next = list.clone();
+                    if let Some(slot) = next.get_mut(i) {
+                        slot.internal = v;
+                    }
+                    changed = Some(next);
+                }
+                ui.label(format_station(e.back, units, decimals));
+                let id = (i, Column::Ahead);
+                let shown = format_station(e.ahead, units, decimals);
+                if let Some(text) =
+                    self.cells.edit(ui, id, &shown, 80.0, &format!("Equation {} ahead station", i + 1))
+                    && let Some(v) =
+                        self.cells.settle(id, &text, parse_station(&text, units).map_err(|x| x.to_string()))
+                {
+                    let mut next = list.clone();
+                    if let Some(slot) = next.get_mut(i) {
+                        slot.ahead = v;
+                    }
+                    changed = Some(next);
+                }
+                let delete = ui.small_button("🗑").on_hover_text("Delete this station equation");
+                let name = format!("Delete station equation {}", i + 1);
+                delete
+                    .widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, name.clone()));
+                if delete.clicked() {
+                    let mut next = list.clone();
+                    if i < next.len() {
+                        next.remove(i);
+                    }
+                    self.cells.clear();
+                    changed = Some(next);
+                }
+                ui.end_row();
+                let gap = e.ahead - e.back;
+                let what = if gap > 0.0 {
+                    format!("short by {gap:.3} {len}: these plan stations do not exist")
+                } else if gap < 0.0 {
+                    format!(
+                        "long by {:.3} {len}: these plan stations occur twice, typed with (1) or (2)",
+                        -gap
+                    )
+                } else {
+                    "no jump".to_owned()
+                };
+                ui.label("");
+                ui.label(RichText::new(what).color(palette.warn));
+                ui.end_row();
+            }
+        });
+        if ui
+            .button("Add station equation")
+            .on_hover_text("At the selected PVI (or mid-profile); then type its ahead station")
+            .clicked()
+        {
+            let station = view
+                .selected
+                .and_then(|i| doc.project().pvis.get(i))
+                .map(|p| p.station.0)
+                .or_else(|| doc.analysis().alignment.as_ref().map(|a| 0.5 * (a.start().0 + a.end().0)));
+            if let Some(internal) = station {
+                let plan = doc.project().stationing().plan(internal).value;
+                let mut next = list.clone();
+                next.push(StationEquation { internal, back: plan, ahead: plan });
+                changed = Some(next);
+            }
+        }
+        if let Some(why) = &self.refused {
+            ui.label(RichText::new(why).color(palette.fail));
+        }
+        if let Some(next) = changed {
+            let next = settled(next);
+            match next.problem() {
+                None => {
+                    self.refused = None;
+                    view.edit(Edit::SetEquations(next));
+                }
+                Some((k, why)) => {
+                    // Refused: the model keeps its equations, and says why.
+                    self.cells.clear();
+                    self.refused = Some(format!("Not changed: station equation {} — {why}", k + 1));
+                }
+            }
+        }
+    }
+}
