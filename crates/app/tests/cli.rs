@@ -477,11 +477,11 @@ fn site_data_flows_through_check_table_and_earthwork() {
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(
         lines.first().copied(),
-        Some("station_m,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3")
+        Some("station_m,station_label,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3")
     );
-    assert_eq!(lines.get(1).copied(), Some("0,12,0,0,0,0"));
-    assert_eq!(lines.get(2).copied(), Some("10,0,0,60,0,54"));
-    assert_eq!(lines.get(3).copied(), Some("20,0,13,0,65,-11"));
+    assert_eq!(lines.get(1).copied(), Some("0,0+000.000,12,0,0,0,0"));
+    assert_eq!(lines.get(2).copied(), Some("10,0+010.000,0,0,60,0,54"));
+    assert_eq!(lines.get(3).copied(), Some("20,0+020.000,0,13,0,65,-11"));
     assert_eq!(lines.len(), 4);
     assert!(stderr(&o).contains("level-section"), "{}", stderr(&o));
     // Rounded on request as a plan shows it (0.001 m, quantities to 0.1).
@@ -502,7 +502,7 @@ fn site_data_flows_through_check_table_and_earthwork() {
         "plan",
     ]);
     assert!(o.status.success(), "{}", stderr(&o));
-    assert_eq!(stdout(&o).lines().nth(2), Some("10.000,0.0,0.0,60.0,0.0,54.0"));
+    assert_eq!(stdout(&o).lines().nth(2), Some("10.000,0+010.000,0.0,0.0,60.0,0.0,54.0"));
 
     // Bad input: one line naming the flag, exit 2, nothing on stdout.
     let o = run(&["earthwork", &out_s, "--width", "-1", "--cut-slope", "2", "--fill-slope", "2"]);

@@ -332,7 +332,7 @@ fn hand_over_tables_are_rounded_as_a_plan_shows() {
     let earthwork = std::fs::read_to_string(tables.join("earthwork.csv")).unwrap_or_default();
     assert!(
         earthwork.starts_with(
-            "station_m,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3\n"
+            "station_m,station_label,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3\n"
         ),
         "{earthwork}"
     );
@@ -368,7 +368,7 @@ fn hand_over_tables_are_rounded_as_a_plan_shows() {
     let earthwork = std::fs::read_to_string(us_tables.join("earthwork.csv")).unwrap_or_default();
     assert!(
         earthwork.starts_with(
-            "station_ft,cut_area_ft2,fill_area_ft2,cut_volume_yd3,fill_volume_yd3,mass_compacted_yd3\n"
+            "station_ft,station_label,cut_area_ft2,fill_area_ft2,cut_volume_yd3,fill_volume_yd3,mass_compacted_yd3\n"
         ),
         "{err}{earthwork}"
     );

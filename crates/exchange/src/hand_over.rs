@@ -262,15 +262,20 @@ pub fn write_findings_csv(
         "code".to_owned(),
         format!("station_start_{u}"),
         format!("station_end_{u}"),
+        "station_start_label".to_owned(),
+        "station_end_label".to_owned(),
         "pvi".to_owned(),
         "message".to_owned(),
     ])?;
+    let at = analysis.profile.stationing();
     for f in &analysis.report.findings {
         csv.write_record([
             f.severity().key().to_owned(),
             f.code.as_str().to_owned(),
             rounding.text(f.station_start.0, Quantity::Station),
             rounding.text(f.station_end.0, Quantity::Station),
+            at.label_std(f.station_start.0),
+            at.label_std(f.station_end.0),
             f.pvi.map_or(String::new(), |i| (i + 1).to_string()),
             f.message.clone(),
         ])?;
@@ -282,13 +287,14 @@ pub fn write_findings_csv(
 /// The header of `earthwork.csv` in `units`: the unit in every column (m²
 /// and m³, or ft² and yd³); the mass ordinate is in compacted (fill)
 /// measure, the cut having been reduced by the shrinkage.
-pub fn earthwork_header(units: Units) -> [String; 6] {
+pub fn earthwork_header(units: Units) -> [String; 7] {
     let (l, a, v) = match units {
         Units::Metric => ("m", "m2", "m3"),
         Units::UsCustomary => ("ft", "ft2", "yd3"),
     };
     [
         format!("station_{l}"),
+        "station_label".to_owned(),
         format!("cut_area_{a}"),
         format!("fill_area_{a}"),
         format!("cut_volume_{v}"),
@@ -300,13 +306,15 @@ pub fn earthwork_header(units: Units) -> [String; 6] {
 /// `earthwork.csv`: one row per station of the estimate (the extra
 /// stations included): end areas, the volumes of the interval ending at the
 /// row (0 on the first row; cut in bank measure) and the mass ordinate (in
-/// compacted measure). Numbers as `rounding` says.
+/// compacted measure). Numbers as `rounding` says; each station's label is
+/// its plan station of `at`.
 ///
 /// # Errors
 /// A value that is not finite, or an I/O error of `out`.
 pub fn write_earthwork_csv(
     out: impl Write,
     earthwork: &gradewright_geometry::Earthwork,
+    at: gradewright_geometry::Stationing<'_>,
     rounding: Rounding,
 ) -> Result<(), TableError> {
     use Quantity::{Quantity as Q, Station};
@@ -321,8 +329,9 @@ pub fn write_earthwork_csv(
             (r.fill_volume, Q),
             (r.mass, Q),
         ];
-        let row =
+        let mut row =
             values.iter().map(|&(v, q)| rounding.finite(v, q, r.station)).collect::<Result<Vec<_>, _>>()?;
+        row.insert(1, at.label_std(r.station));
         csv.write_record(row)?;
     }
     csv.flush()?;

@@ -49,7 +49,7 @@ pub fn run(run: &mut Run, args: &EarthworkArgs) -> anyhow::Result<ExitCode> {
     let mut buffer = Vec::new();
     let rounding =
         gradewright_exchange::Rounding::of(args.decimals.unwrap_or(TableDecimals::Exact), project.units);
-    gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate, rounding)
+    gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate, project.stationing(), rounding)
         .map_err(|e| anyhow!("{}: {e}", input.display()))?;
     print(&buffer)?;
     let vol = gradewright_geometry::volume_symbol(project.units);
