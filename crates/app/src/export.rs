@@ -384,7 +384,12 @@ pub fn render(
         {
             let estimate = gradewright_geometry::earthwork(alignment, &analysis.ground, section, interval)?;
             let mut buffer = Vec::new();
-            gradewright_exchange::write_earthwork_csv(&mut buffer, &estimate, alignment.stationing(), rounding)?;
+            gradewright_exchange::write_earthwork_csv(
+                &mut buffer,
+                &estimate,
+                alignment.stationing(),
+                rounding,
+            )?;
             push(Field::Tables, dir.join("earthwork.csv"), buffer);
         }
     }

@@ -477,7 +477,9 @@ fn site_data_flows_through_check_table_and_earthwork() {
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(
         lines.first().copied(),
-        Some("station_m,station_label,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3")
+        Some(
+            "station_m,station_label,cut_area_m2,fill_area_m2,cut_volume_m3,fill_volume_m3,mass_compacted_m3"
+        )
     );
     assert_eq!(lines.get(1).copied(), Some("0,0+000.000,12,0,0,0,0"));
     assert_eq!(lines.get(2).copied(), Some("10,0+010.000,0,0,60,0,54"));
@@ -619,4 +621,45 @@ fn implausible_ground_is_warned_about() {
     let o = run(&["check", &out.to_string_lossy()]);
     let text = stdout(&o);
     assert_eq!(text.matches("[WARN] ground.suspicious").count(), 2, "{text}");
+}
+
+/// A LandXML alignment with a station equation (the repository's fictional
+/// Birch Hollow Connector, US survey feet, 15+00 back = 16+00 ahead at
+/// internal 1500): `table --at 17+00` is internal 1600, labelled 17+00.00,
+/// elevation 419.5 − 0.014 × 200 = 416.7 ft (the −1.4 % tangent from PVI
+/// 14+00, 419.5 ft; derived from the tangent grade); a station in the gap
+/// is refused naming it; the sight table labels plan stations; `check`
+/// lists the equation.
+#[test]
+fn station_equations_from_landxml_label_and_locate_plan_stations() {
+    let file = Path::new(env!("CARGO_MANIFEST_DIR")).join("../../tests/data/kept/birch-hollow-connector.xml");
+    let file = file.to_string_lossy().into_owned();
+    let pick = ["--alignment", "BHC-1", "--profile", "Design"];
+    let mut args = vec!["table", file.as_str()];
+    args.extend(pick);
+    args.extend(["--at", "17+00"]);
+    let o = run(&args);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let row = stdout(&o).lines().nth(1).unwrap_or_default().to_owned();
+    assert!(row.starts_with("1600,17+00.00,416.7,-1.4"), "{row}");
+    assert!(stderr(&o).contains("1 station equation(s): applied"), "{}", stderr(&o));
+    let mut args = vec!["table", file.as_str()];
+    args.extend(pick);
+    args.extend(["--at", "15+50"]);
+    let o = run(&args);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--at: station '15+50' does not exist"), "{}", stderr(&o));
+    assert!(stdout(&o).is_empty());
+    let mut args = vec!["sight", file.as_str()];
+    args.extend(pick);
+    let o = run(&args);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    assert!(text.starts_with("station,station_label,available_forward"), "{text}");
+    assert!(text.lines().any(|l| l.starts_with("1600,17+00.00,")), "no row at 17+00");
+    let mut args = vec!["check", file.as_str()];
+    args.extend(pick);
+    let o = run(&args);
+    assert!(stdout(&o).contains("15+00.00 back = 16+00.00 ahead (internal station 1500)"), "{}", stdout(&o));
+    assert!(stdout(&o).contains("PVI 4 (23+50.00)"), "{}", stdout(&o));
 }

@@ -254,21 +254,31 @@ pub const SIGHT_HEADER: [&str; 6] = [
 /// station (forward = towards increasing stations), numbers unrounded. The
 /// last column says which available distances are the cap, not a measured
 /// distance (nothing limited the sight within it): `none`, `forward`,
-/// `backward` or `both`.
-pub struct SightTable<W: Write> {
+/// `backward` or `both`. A road with station equations gets a
+/// `station_label` column after `station` (the plan station); without, the
+/// table is numbers only.
+pub struct SightTable<'a, W: Write> {
     csv: csv::Writer<W>,
     field: String,
+    labels: Option<gradewright_geometry::Stationing<'a>>,
 }
 
-impl<W: Write> SightTable<W> {
-    /// Starts the table: writes the header.
+impl<'a, W: Write> SightTable<'a, W> {
+    /// Starts the table for a road stationed as `at` says: writes the header.
     ///
     /// # Errors
     /// An I/O error of `out`.
-    pub fn new(out: W) -> Result<Self, TableError> {
+    pub fn new(out: W, at: gradewright_geometry::Stationing<'a>) -> Result<Self, TableError> {
         let mut csv = csv::Writer::from_writer(out);
-        csv.write_record(SIGHT_HEADER)?;
-        Ok(Self { csv, field: String::new() })
+        let labels = (!at.is_plain()).then_some(at);
+        if labels.is_some() {
+            let mut header: Vec<&str> = SIGHT_HEADER.to_vec();
+            header.insert(1, "station_label");
+            csv.write_record(header)?;
+        } else {
+            csv.write_record(SIGHT_HEADER)?;
+        }
+        Ok(Self { csv, field: String::new(), labels })
     }
 
     /// Writes one row per sample of `sight`.
@@ -281,9 +291,12 @@ impl<W: Write> SightTable<W> {
             if !values.iter().all(|v| v.is_finite()) {
                 return Err(TableError::NotFinite { station: s.station });
             }
-            for value in values {
+            for (k, value) in values.into_iter().enumerate() {
                 number_into(&mut self.field, value, None);
                 self.csv.write_field(&self.field)?;
+                if let (0, Some(at)) = (k, self.labels) {
+                    self.csv.write_field(at.label_std(value))?;
+                }
             }
             self.csv.write_field(match (sight.reaches_cap(s.forward), sight.reaches_cap(s.backward)) {
                 (false, false) => "none",

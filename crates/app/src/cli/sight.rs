@@ -21,7 +21,7 @@ pub fn run(run: &mut Run, args: &SightArgs) -> anyhow::Result<ExitCode> {
     // flat however long the profile is.
     let mut out = Spill::new();
     let written = {
-        let mut table = gradewright_exchange::SightTable::new(&mut out)?;
+        let mut table = gradewright_exchange::SightTable::new(&mut out, profile.stationing())?;
         let streamed = gradewright_geometry::sight_by_stretch(
             &profile,
             &criteria,

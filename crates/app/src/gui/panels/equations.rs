@@ -113,8 +113,7 @@ impl EquationsPanel {
                 }
                 let delete = ui.small_button("🗑").on_hover_text("Delete this station equation");
                 let name = format!("Delete station equation {}", i + 1);
-                delete
-                    .widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, name.clone()));
+                delete.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, name.clone()));
                 if delete.clicked() {
                     let mut next = list.clone();
                     if i < next.len() {
