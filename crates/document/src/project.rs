@@ -52,6 +52,10 @@ pub struct Project {
     /// type plan stations.
     #[serde(default, skip_serializing_if = "Equations::is_empty")]
     pub equations: Equations,
+    /// Where the criteria differ along the road (internal stations, in
+    /// order, not overlapping); outside every range `criteria` apply.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub criteria_ranges: Vec<gradewright_geometry::CriteriaRange>,
     /// How the editor snaps PVIs in this project.
     #[serde(default, skip_serializing_if = "Snap::is_default")]
     pub snap: Snap,
@@ -79,6 +83,7 @@ impl Project {
             controls: Vec::new(),
             section: None,
             equations: Equations::default(),
+            criteria_ranges: Vec::new(),
             snap: Snap::default(),
             export: ExportSettings::default(),
             kept: None,
@@ -105,6 +110,7 @@ impl Project {
             controls: self.controls.clone(),
             section: self.section,
             equations: self.equations.clone(),
+            ranges: self.criteria_ranges.clone(),
             interval: self.export.interval,
         }
     }
@@ -145,6 +151,7 @@ impl Project {
                 Part::Ground => entry_position(text, "ground", invalid.index),
                 Part::Control => entry_position(text, "controls", invalid.index),
                 Part::Equation => entry_position(text, "equations", invalid.index),
+                Part::CriteriaRange => entry_position(text, "criteria_ranges", invalid.index),
             }
             .unwrap_or((1, 1));
             return Err(FileError::Syntax {
@@ -184,6 +191,9 @@ impl Project {
         }
         if let Some((index, why)) = self.equations.problem() {
             return Err(Invalid { part: Part::Equation, index, why });
+        }
+        if let Some((index, why)) = gradewright_geometry::ranges_problem(&self.criteria_ranges) {
+            return Err(Invalid { part: Part::CriteriaRange, index, why });
         }
         Ok(())
     }
@@ -306,11 +316,13 @@ pub enum Part {
     Control,
     /// The station equations.
     Equation,
+    /// The criteria ranges.
+    CriteriaRange,
 }
 
 /// An entry no project file may hold.
 #[derive(Clone, Debug, PartialEq, Eq, thiserror::Error)]
-#[error("{} {}: {why}", match .part { Part::Ground => "ground point", Part::Control => "control point", Part::Equation => "station equation" }, .index + 1)]
+#[error("{} {}: {why}", match .part { Part::Ground => "ground point", Part::Control => "control point", Part::Equation => "station equation", Part::CriteriaRange => "criteria range" }, .index + 1)]
 pub struct Invalid {
     /// Which list.
     pub part: Part,

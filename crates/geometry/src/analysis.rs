@@ -138,7 +138,7 @@ impl Analysis {
 
     fn after_keeping(design: &Design, mut previous: Option<Self>, keep: bool) -> Self {
         let profile = design.profile();
-        let criteria = design.criteria.resolve(design.units);
+        let criteria = design.criteria_in_force();
         let alignment = Alignment::new(&profile).ok().map(Arc::new);
         let previous_site = previous.as_ref().and_then(|p| p.site.clone());
         let previous_earthwork = previous.as_mut().and_then(|p| p.earthwork.take());
@@ -373,7 +373,7 @@ fn check_curves(profile: &Profile, criteria: &ResolvedCriteria) -> Vec<(crate::C
         .iter()
         .map(|curve| {
             let mut found = Vec::new();
-            let check = crate::check_curve(curve, criteria, profile.stationing(), &mut found);
+            let check = crate::checks::check_curve_in_force(curve, criteria, profile.stationing(), &mut found);
             (check, found)
         })
         .collect()
@@ -387,10 +387,16 @@ fn sight_after(
 ) -> (Option<SightProfile>, Option<(f64, f64)>) {
     let full = || (compute_sight(alignment, criteria), None);
     let Some(prev) = previous else { return full() };
+    // With criteria ranges the sight distance is computed afresh (their
+    // setups differ along the road).
+    if criteria.has_ranges() {
+        return full();
+    }
     let Some(old) = prev.source.as_ref() else { return full() };
     let new = design;
     let same_frame = old.units == new.units
         && old.criteria == new.criteria
+        && old.ranges == new.ranges
         && old.pvis.len() == new.pvis.len()
         && old.pvis.first().map(|p| p.station) == new.pvis.first().map(|p| p.station)
         && old.pvis.last().map(|p| p.station) == new.pvis.last().map(|p| p.station);

@@ -22,6 +22,8 @@ pub struct Design {
     pub section: Option<Section>,
     /// The station equations (none: plan stations are internal stations).
     pub equations: crate::Equations,
+    /// Where the criteria differ from `criteria` along the road.
+    pub ranges: Vec<crate::CriteriaRange>,
     /// Station interval of the earthwork estimate (and of the station
     /// table); `None` is [`Units::table_interval`].
     pub interval: Option<f64>,
@@ -31,6 +33,15 @@ impl Design {
     /// The profile (a copy of units and PVIs).
     pub fn profile(&self) -> Profile {
         Profile::new(self.units, self.pvis.clone()).with_equations(self.equations.clone())
+    }
+
+    /// The criteria in force along the road: the project's, with each
+    /// criteria range resolved over its stations.
+    ///
+    /// # Errors
+    /// As [`crate::Criteria::resolve_with`].
+    pub fn criteria_in_force(&self) -> Result<crate::ResolvedCriteria, crate::CriteriaError> {
+        self.criteria.resolve_with(self.units, &self.ranges)
     }
 
     /// The station interval in force.

@@ -5,10 +5,10 @@
 //! without overlapping its neighbours.
 
 use crate::tolerance::{above, below};
-use crate::visibility::{Direction, SightProfile, grid_between, sight_profile};
+use crate::visibility::{Direction, SightProfile, grid_between};
 use crate::{
     Alignment, ControlPoint, ControlStatus, CriterionId, CurveGeometry, CurveKind, Increment,
-    MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Undercrossing, check_controls, check_curve, undercrossing,
+    MAX_SIGHT_STATIONS, Profile, ResolvedCriteria, Undercrossing, check_controls, undercrossing,
 };
 
 /// What happened to one curve.
@@ -77,8 +77,12 @@ struct Run<'a> {
 
 impl<'a> Run<'a> {
     fn new(profile: &Profile, criteria: &'a ResolvedCriteria, controls: &'a [ControlPoint]) -> Self {
-        let cap = criteria.get(CriterionId::SightCap);
-        let ahead = criteria.sight_requirement().look_ahead(profile.steepest_grade_percent());
+        // The farthest any criteria in force looks (a faster range's).
+        let steepest = profile.steepest_grade_percent();
+        let zones = std::iter::once(criteria).chain(criteria.ranges.iter().map(|r| &r.criteria));
+        let (cap, ahead) = zones.fold((0.0_f64, 0.0_f64), |(cap, ahead), c| {
+            (cap.max(c.get(CriterionId::SightCap)), ahead.max(c.sight_requirement().look_ahead(steepest)))
+        });
         let beyond = (ahead.is_finite() && cap.is_finite()).then(|| cap.max(ahead));
         Self {
             criteria,
@@ -182,7 +186,7 @@ fn fit_one(profile: &mut Profile, run: &Run<'_>, index: usize, increment: Increm
     // raises the road under it): each length is judged as it stands.
     // The required length is already the total for this curve's l1:l2 ratio.
     let mut scratch = Vec::new();
-    let check = check_curve(&curve, criteria, profile.stationing(), &mut scratch);
+    let check = crate::checks::check_curve_in_force(&curve, criteria, profile.stationing(), &mut scratch);
     let asked = check.length_required.max(check.min_length);
     let needed = asked.max(old_length);
     let needs = increment.up(needed);
@@ -338,10 +342,13 @@ fn geometry_at(profile: &Profile, index: usize) -> Option<CurveGeometry> {
 /// How far from a curve an eye can still be held up by it: the largest
 /// sight distance any station of the profile can require.
 fn reach(profile: &Profile, criteria: &ResolvedCriteria) -> f64 {
-    let ssd = criteria.get(CriterionId::StoppingSightDistance);
-    let largest = criteria.largest_requirement(profile.steepest_grade_percent());
-    let cap = criteria.get(CriterionId::SightCap);
-    if largest.is_finite() { largest.max(ssd).min(cap.max(ssd)) } else { cap.max(ssd) }
+    // The farthest of the criteria in force along the road.
+    std::iter::once(criteria).chain(criteria.ranges.iter().map(|r| &r.criteria)).fold(0.0, |most, c| {
+        let ssd = c.get(CriterionId::StoppingSightDistance);
+        let largest = c.largest_requirement(profile.steepest_grade_percent());
+        let cap = c.get(CriterionId::SightCap);
+        most.max(if largest.is_finite() { largest.max(ssd).min(cap.max(ssd)) } else { cap.max(ssd) })
+    })
 }
 
 /// The eye stations around the curve at `index` that can see onto it.
@@ -378,7 +385,7 @@ fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
     }
     let Some(curve) = geometry_at(profile, index) else { return false };
     let mut findings = Vec::new();
-    let check = check_curve(&curve, criteria, profile.stationing(), &mut findings);
+    let check = crate::checks::check_curve_in_force(&curve, criteria, profile.stationing(), &mut findings);
     if !check.ok
         || below(curve.length(), check.min_length)
         || unmet_undercrossing(profile, run, index).is_some()
@@ -402,16 +409,20 @@ fn clears(profile: &Profile, run: &Run<'_>, index: usize) -> bool {
     let stations = grid_between(run.span.0, run.span.1, step, lo, hi);
     // A crest limits daylight sight distance and a sag headlight sight
     // distance; only the kind this curve can cause counts against it.
-    let mut setup = criteria.sight_setup();
-    match curve.kind {
-        CurveKind::Crest => setup.headlights = false,
-        CurveKind::Sag => setup.daylight = false,
-        CurveKind::None => return true,
-    }
-    if !setup.daylight && !setup.headlights {
+    let kind = curve.kind;
+    if kind == CurveKind::None {
         return true;
     }
-    let sight: SightProfile = sight_profile(&alignment, &setup, criteria.sight_requirement(), &stations);
+    let only = move |setup: &mut crate::visibility::SightSetup| match kind {
+        CurveKind::Crest => setup.headlights = false,
+        _ => setup.daylight = false,
+    };
+    let mut setup = criteria.sight_setup();
+    only(&mut setup);
+    if !setup.daylight && !setup.headlights && !criteria.has_ranges() {
+        return true;
+    }
+    let sight: SightProfile = crate::checks::sight_in_force(&alignment, criteria, &stations, only);
     sight.shortfalls().iter().all(|s| {
         // Only shortfalls looking onto this curve count against it.
         match s.direction {
@@ -445,7 +456,7 @@ pub fn default_curve_length(
         // As a curve (not a bare break), so K and the sight formulas apply.
         set_length(&mut probe, index, increment.step());
         let curve = geometry_at(&probe, index)?;
-        let check = check_curve(&curve, criteria, probe.stationing(), &mut scratch);
+        let check = crate::checks::check_curve_in_force(&curve, criteria, probe.stationing(), &mut scratch);
         (check.length_required.max(min_length), "the shortest length that meets the criteria")
     };
     let length = increment.up(needed.max(increment.step()));

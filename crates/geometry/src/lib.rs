@@ -42,15 +42,16 @@ pub mod visibility;
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
 pub use analysis::{Analysis, is_design_problem, unchecked_report};
 pub use checks::{
-    CheckReport, CurveCheck, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, StreamedCheck, check_curve,
-    check_profile, check_profile_with_sight, compute_sight, sight_by_stretch, structural_findings,
+    CheckReport, CurveCheck, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, StreamedCheck, check_curve, check_curve_in_force,
+    check_profile, check_profile_with_sight, compute_sight, sight_by_stretch, sight_in_force, structural_findings,
 };
 pub use controls::{
     ControlKind, ControlPoint, ControlStatus, Undercrossing, check_controls, control_findings, undercrossing,
     undercrossings,
 };
 pub use criteria::{
-    Criteria, CriteriaError, CriterionId, Quantity, Resolved, ResolvedCriteria, SagRule, Setting,
+    Criteria, CriteriaError, CriteriaRange, CriterionId, Quantity, Resolved, ResolvedCriteria, ResolvedRange,
+    SagRule, Setting, ranges_problem,
 };
 pub use curve::{CurveGeometry, CurveKind, Segment};
 pub use design::Design;

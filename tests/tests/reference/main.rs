@@ -1,6 +1,7 @@
 //! Checks of the main job against published references; each module is one
 //! topic, and each check names its source beside it.
 
+mod criteria_ranges;
 mod criteria_tables;
 mod curve_relations;
 mod files;

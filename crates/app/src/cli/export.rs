@@ -46,7 +46,7 @@ pub fn run(run: &mut Run, args: &ExportArgs) -> anyhow::Result<ExitCode> {
     let mut loaded = run.load(&args.source)?;
     // Without --decimals, the tables round as the project chose.
     let request = Request { decimals: args.decimals.unwrap_or(loaded.project.export.decimals), ..request };
-    let criteria = resolve(&mut loaded.project, speed, input)?;
+    let criteria = resolve(&mut loaded.project, speed, input, &mut run.notes)?;
     if let Some(problem) = loaded.project.profile().problems().into_iter().next() {
         bail!("{}: {problem}", loaded.locate(&problem));
     }

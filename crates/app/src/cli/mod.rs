@@ -123,7 +123,7 @@ impl Run {
         check_speed(speed)?;
         let mut loaded = self.load(source)?;
         override_step(&mut loaded, checking.step)?;
-        let criteria = resolve(&mut loaded.project, speed, &source.input)?;
+        let criteria = resolve(&mut loaded.project, speed, &source.input, &mut self.notes)?;
         Ok((loaded, criteria))
     }
 }
@@ -335,17 +335,29 @@ fn refuse_unchecked_sight(
     Ok(())
 }
 
-/// Resolves the criteria, with `--design-speed` taking precedence.
+/// Resolves the criteria in force (the project's and its criteria
+/// ranges'), with `--design-speed` taking precedence over the whole road (a
+/// note in `notes` says so when it overrides ranges' speeds).
 fn resolve(
     project: &mut gradewright_document::Project,
     design_speed: Option<f64>,
     input: &Path,
+    notes: &mut Vec<String>,
 ) -> anyhow::Result<ResolvedCriteria> {
     if let Some(v) = design_speed {
         positive("--design-speed", "the design speed", v)?;
         project.criteria.design_speed = Some(v);
+        let overridden = project.criteria_ranges.iter_mut().filter_map(|r| r.design_speed.take()).count();
+        if overridden > 0 {
+            notes.push(format!(
+                "{}: --design-speed {} {} overrides the whole road, the design speed of {overridden} criteria range(s) included",
+                input.display(),
+                gradewright_geometry::trimmed(v, 2),
+                project.units.speed_symbol()
+            ));
+        }
     }
-    project.criteria.resolve(project.units).map_err(|e| match e {
+    project.criteria.resolve_with(project.units, &project.criteria_ranges).map_err(|e| match e {
         gradewright_geometry::CriteriaError::NoDesignSpeed => anyhow!(
             "{}: no design speed: give --design-speed or set criteria.design_speed in the project",
             input.display()

@@ -25,6 +25,48 @@ pub fn check_curve(
     check
 }
 
+/// [`check_curve`] under the criteria in force over the curve (from its
+/// PVC to its PVT; at its PVI when it has no length): where criteria ranges
+/// differ along it, it is checked under each and judged under the stricter
+/// — the one asking the longer curve (the PVI's on a tie; common practice).
+/// A curve judged under a criteria range says so in its findings.
+pub fn check_curve_in_force(
+    curve: &CurveGeometry,
+    criteria: &ResolvedCriteria,
+    at: Stationing<'_>,
+    findings: &mut Vec<Finding>,
+) -> CurveCheck {
+    if !criteria.has_ranges() {
+        return check_curve(curve, criteria, at, findings);
+    }
+    let (a, b) = if curve.length() > 0.0 { (curve.pvc.0, curve.pvt.0) } else { (curve.pvi.0, curve.pvi.0) };
+    // The PVI's criteria first, so a tie keeps them.
+    let mut candidates = vec![criteria.at(curve.pvi.0)];
+    for c in criteria.over(a, b) {
+        if !candidates.iter().any(|x| x.1.map(|r| r.index) == c.1.map(|r| r.index)) {
+            candidates.push(c);
+        }
+    }
+    let mut best: Option<(CurveCheck, Vec<Finding>, Option<&crate::ResolvedRange>)> = None;
+    for (c, range) in candidates {
+        let mut found = Vec::new();
+        let check = check_curve(curve, c, at, &mut found);
+        let stricter = best.as_ref().is_none_or(|(b, _, _)| check.length_required > b.length_required);
+        if stricter {
+            best = Some((check, found, range));
+        }
+    }
+    let Some((check, mut found, range)) = best else { return check_curve(curve, criteria, at, findings) };
+    if let Some(r) = range {
+        let words = r.words(at);
+        for f in &mut found {
+            f.message = format!("{} [judged under {words}]", f.message);
+        }
+    }
+    findings.extend(found);
+    check
+}
+
 /// What the criteria ask of a curve of this kind and A, as equal-tangent
 /// lengths: (minimum K, sight-distance length and its formula, comfort length).
 fn requirements(

@@ -17,17 +17,29 @@ pub(crate) fn check_grades_of(
     findings: &mut Vec<Finding>,
 ) {
     let at = profile.stationing();
-    let max = criteria.get(CriterionId::MaxGrade);
-    let min = criteria.get(CriterionId::MinGrade);
     let first = starts.start;
     let pvis = profile.pvis.get(first..(starts.end.saturating_add(1)).min(profile.pvis.len())).unwrap_or(&[]);
     for (k, pair) in pvis.windows(2).enumerate() {
         let i = first + k;
         let [a, b] = pair else { continue };
         let grade = a.grade_to(b) * 100.0;
+        // The criteria in force along the tangent; across a criteria range's
+        // edge, the stricter maximum grade (common practice).
+        let (zone, range) = if criteria.has_ranges() {
+            criteria
+                .over(a.station.0, b.station.0)
+                .into_iter()
+                .min_by(|x, y| x.0.get(CriterionId::MaxGrade).total_cmp(&y.0.get(CriterionId::MaxGrade)))
+                .unwrap_or((criteria, None))
+        } else {
+            (criteria, None)
+        };
+        let max = zone.get(CriterionId::MaxGrade);
+        let min = zone.get(CriterionId::MinGrade);
+        let judged = range.map_or_else(String::new, |r| format!(" [judged under {}]", r.words(at)));
         let span = || format!("{} to {}", label(at, a.station), label(at, b.station));
-        let mut push = |code, message| {
-            findings.push(Finding::new(code, (a.station, b.station), Some(i), message));
+        let mut push = |code, message: String| {
+            findings.push(Finding::new(code, (a.station, b.station), Some(i), format!("{message}{judged}")));
         };
         if above(grade.abs(), max) {
             push(

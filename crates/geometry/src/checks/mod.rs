@@ -10,8 +10,8 @@ mod grades;
 mod sight;
 mod streamed;
 
-pub use curve::check_curve;
-pub use sight::{MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, compute_sight, sight_by_stretch};
+pub use curve::{check_curve, check_curve_in_force};
+pub use sight::{MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, compute_sight, sight_by_stretch, sight_in_force};
 pub use streamed::StreamedCheck;
 
 use crate::visibility::SightProfile;
@@ -212,7 +212,7 @@ pub(crate) fn check_profile_reusing(
                 report.findings.extend(found);
                 check
             }
-            None => check_curve(&curve, criteria, profile.stationing(), &mut report.findings),
+            None => curve::check_curve_in_force(&curve, criteria, profile.stationing(), &mut report.findings),
         };
         made.curves.push(start..report.findings.len());
         report.curves.push(check);

@@ -20,7 +20,46 @@ pub fn compute_sight(alignment: &Alignment, criteria: &ResolvedCriteria) -> Opti
         return None;
     }
     let stations = stations_every(alignment, step);
-    Some(sight_profile(alignment, &criteria.sight_setup(), criteria.sight_requirement(), &stations))
+    Some(sight_in_force(alignment, criteria, &stations, |_| {}))
+}
+
+/// The sight distance at `stations` (sorted) under the criteria in force
+/// at each eye: the project's setup and requirement, or, with criteria
+/// ranges, each run of stations under its own (the headlight check and the
+/// SSD of its design speed), every run looking as far as the farthest cap
+/// so that one cap reads the whole profile. `adjust` changes each setup
+/// (the fit looks at daylight or headlights only).
+pub fn sight_in_force(
+    alignment: &Alignment,
+    criteria: &ResolvedCriteria,
+    stations: &[f64],
+    adjust: impl Fn(&mut crate::visibility::SightSetup),
+) -> SightProfile {
+    if !criteria.has_ranges() {
+        let mut setup = criteria.sight_setup();
+        adjust(&mut setup);
+        return sight_profile(alignment, &setup, criteria.sight_requirement(), stations);
+    }
+    let cap = criteria
+        .ranges
+        .iter()
+        .map(|r| r.criteria.get(CriterionId::SightCap))
+        .fold(criteria.get(CriterionId::SightCap), f64::max);
+    let zone_of = |s: f64| criteria.at(s).1.map(|r| r.index);
+    let mut samples = Vec::with_capacity(stations.len());
+    let mut k = 0;
+    while let Some(&first) = stations.get(k) {
+        let zone = zone_of(first);
+        let run = stations.get(k..).unwrap_or(&[]).iter().take_while(|&&s| zone_of(s) == zone).count().max(1);
+        let (c, _) = criteria.at(first);
+        let mut setup = c.sight_setup();
+        setup.cap = cap;
+        adjust(&mut setup);
+        let part = stations.get(k..k + run).unwrap_or(&[]);
+        samples.extend(sight_profile(alignment, &setup, c.sight_requirement(), part).samples);
+        k += run;
+    }
+    SightProfile { samples, cap }
 }
 
 /// PVIs per stretch when a long profile's sight distance is computed one
@@ -92,7 +131,12 @@ pub(super) fn on_each_stretch<E>(
         let (offset, part) =
             profile.part_at(stretch.from - beyond, stretch.to + beyond, stretch.first..=stretch.last);
         let Ok(alignment) = Alignment::new(&part) else { return Ok(Streamed::Problems) };
-        each(&sight_profile(&alignment, &setup, requirement, &stations), &alignment, offset)?;
+        let sight = if criteria.has_ranges() {
+            sight_in_force(&alignment, criteria, &stations, |_| {})
+        } else {
+            sight_profile(&alignment, &setup, requirement, &stations)
+        };
+        each(&sight, &alignment, offset)?;
     }
     Ok(Streamed::Done)
 }
@@ -109,6 +153,8 @@ pub(super) struct Blame {
     headlight: bool,
     pvi: Option<usize>,
     words: String,
+    /// The criteria range the worst eye was judged under, in words.
+    judged: Option<String>,
 }
 
 /// Words shortfalls into findings on one built road: the whole profile's,
@@ -117,15 +163,17 @@ pub(super) struct Wording<'a> {
     alignment: &'a Alignment,
     roads: [Road; 2],
     setup: crate::visibility::SightSetup,
+    criteria: &'a ResolvedCriteria,
     offset: usize,
 }
 
 impl<'a> Wording<'a> {
-    pub(super) fn new(alignment: &'a Alignment, criteria: &ResolvedCriteria, offset: usize) -> Self {
+    pub(super) fn new(alignment: &'a Alignment, criteria: &'a ResolvedCriteria, offset: usize) -> Self {
         Self {
             alignment,
             roads: [Road::new(alignment, Direction::Forward), Road::new(alignment, Direction::Backward)],
             setup: criteria.sight_setup(),
+            criteria,
             offset,
         }
     }
@@ -137,7 +185,16 @@ impl<'a> Wording<'a> {
             Direction::Forward => (&self.roads[0], short.worst),
             Direction::Backward => (&self.roads[1], -short.worst),
         };
-        let setup = &self.setup;
+        // The setup the worst eye was judged under (a criteria range's
+        // lighting), looking as far as the profile's sight was computed.
+        let (zone, range) = self.criteria.at(short.worst);
+        let zoned = range.map(|_| {
+            let mut s = zone.sight_setup();
+            s.cap = self.setup.cap.max(s.cap);
+            s
+        });
+        let setup = zoned.as_ref().unwrap_or(&self.setup);
+        let judged = range.map(|r| r.words(self.alignment.stationing()));
         let (day, horizon) = road.daylight_and_horizon(at, setup);
         let beam = if setup.headlights { road.headlight(at, setup) } else { f64::INFINITY };
         let headlight = beam < day;
@@ -162,7 +219,7 @@ impl<'a> Wording<'a> {
                 )
             })
             .unwrap_or_default();
-        Blame { headlight, pvi: local.map(|i| i + self.offset), words }
+        Blame { headlight, pvi: local.map(|i| i + self.offset), words, judged }
     }
 
     /// The finding of a shortfall charged as `blame` says.
@@ -190,13 +247,14 @@ impl<'a> Wording<'a> {
             blame.pvi,
             format!(
                 "Travelling {way}, the {governs} available from {} to {} is less than the {:.1} {len} needed; \
-                 worst at {}: {:.1} {len} available{}",
+                 worst at {}: {:.1} {len} available{}{}",
                 label(at, Station(short.start)),
                 label(at, Station(short.end)),
                 short.required,
                 label(at, Station(short.worst)),
                 short.available,
-                blame.words
+                blame.words,
+                blame.judged.as_ref().map_or_else(String::new, |j| format!(" [judged under {j}]"))
             ),
         )
     }

@@ -9,7 +9,6 @@
 //! stretch into the next and charged to their curve on the stretch that
 //! holds their worst eye. Memory does not grow with the findings.
 
-use super::curve::check_curve;
 use super::grades::check_grades_of;
 use super::sight::{Blame, Wording, on_each_stretch};
 use super::{CurveCheck, Streamed};
@@ -44,7 +43,7 @@ impl<'a> StreamedCheck<'a> {
     /// too many stations (the whole [`crate::Analysis`] reports those).
     pub fn new(design: &'a Design, pvis_each: usize) -> Option<Self> {
         let profile = design.profile();
-        let criteria = design.criteria.resolve(design.units).ok()?;
+        let criteria = design.criteria_in_force().ok()?;
         if !profile.problems().is_empty() {
             return None;
         }
@@ -142,7 +141,7 @@ impl<'a> StreamedCheck<'a> {
         let mut scratch = Vec::new();
         for curve in self.interior_curves() {
             scratch.clear();
-            let mut check = check_curve(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
+            let mut check = super::curve::check_curve_in_force(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
             check.ok = !self.fails_at(curve.index);
             if let Some(site) = &self.site {
                 for &(pvi, needed) in &site.needed {
@@ -187,7 +186,7 @@ impl<'a> StreamedCheck<'a> {
         let mut scratch = Vec::new();
         for curve in self.interior_curves() {
             scratch.clear();
-            check_curve(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
+            super::curve::check_curve_in_force(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
             scratch.iter().try_for_each(&mut *each)?;
         }
         let tangents = self.profile.pvis.len().saturating_sub(1);

@@ -1,8 +1,10 @@
 //! Design criteria: what the user enters, each value either computed from the
 //! design speed by the published method or overridden.
 
+mod ranges;
 mod resolved;
 
+pub use ranges::{CriteriaRange, ResolvedRange, ranges_problem};
 pub use resolved::{Resolved, ResolvedCriteria, SagRule};
 
 use serde::{Deserialize, Serialize};
@@ -307,6 +309,7 @@ impl Criteria {
             headlight_check: self.headlight_check,
             grade_adjusted_ssd: self.grade_adjusted_ssd,
             values: Vec::with_capacity(CriterionId::ALL.len()),
+            ranges: Vec::new(),
         };
         for id in CriterionId::ALL {
             let (computed, rule) = out.computed(id);
@@ -343,6 +346,22 @@ pub enum CriteriaError {
     /// No design speed was set.
     #[error("no design speed is set")]
     NoDesignSpeed,
+    /// A criteria range's own criteria are not usable.
+    #[error("criteria range {}: {error}", .index + 1)]
+    InRange {
+        /// Which range (0-based).
+        index: usize,
+        /// Why.
+        error: Box<CriteriaError>,
+    },
+    /// The criteria ranges are not usable (out of order, overlapping).
+    #[error("criteria range {}: {why}", .index + 1)]
+    BadRange {
+        /// Which range (0-based).
+        index: usize,
+        /// Why.
+        why: String,
+    },
     /// The design speed is not one the published tables cover.
     #[error("design speed {} {unit} is outside {low}–{high} {unit}, the speeds of the published SSD and K tables (Green Book 2018 Tables 3-1, 3-34, 3-36)", crate::shown(*.speed))]
     BadDesignSpeed {

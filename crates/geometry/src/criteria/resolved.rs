@@ -38,6 +38,9 @@ pub struct ResolvedCriteria {
     pub grade_adjusted_ssd: bool,
     /// Each criterion in force, in the order of [`CriterionId::ALL`].
     pub(super) values: Vec<Resolved>,
+    /// The criteria ranges in force along the road, in station order (the
+    /// values above are the project's, outside every range).
+    pub ranges: Vec<super::ranges::ResolvedRange>,
 }
 
 impl ResolvedCriteria {

@@ -65,6 +65,7 @@ pub fn unchecked_words(why: &CriteriaError) -> &'static str {
         CriteriaError::BadDesignSpeed { .. } => "design speed off the tables",
         CriteriaError::CoarseStep { .. } => "sight step too coarse",
         CriteriaError::BadOverride { .. } => "a criterion unusable",
+        CriteriaError::InRange { .. } | CriteriaError::BadRange { .. } => "a criteria range unusable",
     }
 }
 
