@@ -261,12 +261,18 @@ pub fn pvi_position(text: &str, index: usize) -> Option<(usize, usize)> {
 /// `key` of a project's text: its `index`-th `station` key after the
 /// field's name.
 fn entry_position(text: &str, key: &str, index: usize) -> Option<(usize, usize)> {
+    // Each entry's first field names it.
+    let field = match key {
+        "equations" => "internal",
+        "criteria_ranges" => "from",
+        _ => "station",
+    };
     let start = field_start(text, key)?;
     let mut rest = start;
     let mut seen = 0;
-    while let Some(found) = text.get(rest..).and_then(|t| t.find("station")) {
+    while let Some(found) = text.get(rest..).and_then(|t| t.find(field)) {
         let at = rest + found;
-        let after = text.get(at + "station".len()..).unwrap_or("");
+        let after = text.get(at + field.len()..).unwrap_or("");
         let before = text.get(..at).and_then(|b| b.chars().next_back());
         if after.trim_start().starts_with(':') && !before.is_some_and(|c| c.is_alphanumeric() || c == '_') {
             if seen == index {
@@ -274,7 +280,7 @@ fn entry_position(text: &str, key: &str, index: usize) -> Option<(usize, usize)>
             }
             seen += 1;
         }
-        rest = at + "station".len();
+        rest = at + field.len();
     }
     None
 }

@@ -46,6 +46,8 @@ pub enum Role {
     ControlLabel,
     /// A station equation: a line across the profile and its mark.
     Equation,
+    /// A stretch under a criteria range (shaded, its speed labelled).
+    CriteriaRange,
 }
 
 /// A polyline.
@@ -155,6 +157,12 @@ pub struct Scene {
     /// their mark, "back = ahead" ([`Role::Equation`]), drawn across the
     /// whole height.
     pub equations: Vec<(f64, String)>,
+    /// The criteria ranges in the range: from and to (internal stations)
+    /// and their words ("60 km/h, criteria range 1"), [`Role::CriteriaRange`].
+    pub ranges: Vec<(f64, f64, String)>,
+    /// Where the design speed changes in the range: the station and the
+    /// speed in force ahead of it ("Design speed 60 km/h ahead").
+    pub speed_changes: Vec<(f64, String)>,
 }
 
 /// How finely a scene is drawn: the chord error of curves (elevation
@@ -196,6 +204,34 @@ pub fn profile_scene_with(
     let label = |s: f64| stationing.label_std(s);
     let within = |s: f64| s >= range.0 && s <= range.1;
     scene.equations = stationing.marks().into_iter().filter(|(s, _)| within(*s)).collect();
+    if let Ok(criteria) = &analysis.criteria {
+        let speed = |c: &gradewright_geometry::ResolvedCriteria| {
+            format!("{} {}", gradewright_geometry::trimmed(c.design_speed, 2), units.speed_symbol())
+        };
+        for r in &criteria.ranges {
+            if r.to >= range.0 && r.from <= range.1 {
+                scene.ranges.push((
+                    r.from,
+                    r.to,
+                    format!("{}, criteria range {}", speed(&r.criteria), r.index + 1),
+                ));
+            }
+            for s in [r.from, r.to] {
+                let ahead = criteria.at(s).0;
+                let behind = criteria.at(s - gradewright_geometry::tolerance::station_hair(s) * 10.0).0;
+                let start = pvis.first().map_or(f64::NEG_INFINITY, |p| p.station.0);
+                let end = pvis.last().map_or(f64::INFINITY, |p| p.station.0);
+                if within(s)
+                    && s > start
+                    && s < end
+                    && ahead.design_speed.to_bits() != behind.design_speed.to_bits()
+                    && !scene.speed_changes.iter().any(|(x, _)| (x - s).abs() < 1e-9)
+                {
+                    scene.speed_changes.push((s, format!("Design speed {} ahead", speed(ahead))));
+                }
+            }
+        }
+    }
     if analysis.ground.len() >= 2 {
         // Decimated for drawing only (spikes kept), reaching both edges.
         let points = ground_line.unwrap_or_else(|| analysis.ground.decimated(range, detail.columns));

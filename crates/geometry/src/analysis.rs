@@ -373,7 +373,8 @@ fn check_curves(profile: &Profile, criteria: &ResolvedCriteria) -> Vec<(crate::C
         .iter()
         .map(|curve| {
             let mut found = Vec::new();
-            let check = crate::checks::check_curve_in_force(curve, criteria, profile.stationing(), &mut found);
+            let check =
+                crate::checks::check_curve_in_force(curve, criteria, profile.stationing(), &mut found);
             (check, found)
         })
         .collect()

@@ -42,8 +42,9 @@ pub mod visibility;
 pub use alignment::{Alignment, Cursor, KeyPoint, OutOfRange, Sample, flatten_segments, interior_curves};
 pub use analysis::{Analysis, is_design_problem, unchecked_report};
 pub use checks::{
-    CheckReport, CurveCheck, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, StreamedCheck, check_curve, check_curve_in_force,
-    check_profile, check_profile_with_sight, compute_sight, sight_by_stretch, sight_in_force, structural_findings,
+    CheckReport, CurveCheck, MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, StreamedCheck, check_curve,
+    check_curve_in_force, check_profile, check_profile_with_sight, compute_sight, sight_by_stretch,
+    sight_in_force, structural_findings,
 };
 pub use controls::{
     ControlKind, ControlPoint, ControlStatus, Undercrossing, check_controls, control_findings, undercrossing,

@@ -18,10 +18,11 @@ use gradewright_geometry::{
 fn project(ranges: Vec<CriteriaRange>, base_speed: f64, crest_at: f64) -> Project {
     let mut p = Project::new("Ranges", Units::Metric);
     p.criteria.design_speed = Some(base_speed);
-    p.pvis = vec![Pvi::new(0.0, 100.0), Pvi::with_curve(crest_at, 100.0 + 0.02 * crest_at, 200.0), Pvi::new(
-        2.0 * crest_at,
-        100.0,
-    )];
+    p.pvis = vec![
+        Pvi::new(0.0, 100.0),
+        Pvi::with_curve(crest_at, 100.0 + 0.02 * crest_at, 200.0),
+        Pvi::new(2.0 * crest_at, 100.0),
+    ];
     p.criteria_ranges = ranges;
     p
 }

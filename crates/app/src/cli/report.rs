@@ -327,6 +327,21 @@ pub fn text(
         units.speed_symbol()
     )?;
     let stationing = project.equations.stationing(units);
+    if !criteria.ranges.is_empty() {
+        writeln!(out, "  Criteria ranges (outside them the criteria below apply):")?;
+        for r in &criteria.ranges {
+            let c = &r.criteria;
+            writeln!(
+                out,
+                "    {}{}, crest K {:.0}, sag K {:.0}, SSD {:.0} {len}",
+                r.words(stationing),
+                if c.headlight_check { "" } else { ", lit (no headlight check)" },
+                c.get(gradewright_geometry::CriterionId::CrestK),
+                c.get(gradewright_geometry::CriterionId::SagK),
+                c.get(gradewright_geometry::CriterionId::StoppingSightDistance)
+            )?;
+        }
+    }
     if !stationing.is_plain() {
         writeln!(out, "  Station equations (stations below are plan stations):")?;
         for (internal, mark) in stationing.marks() {

@@ -40,6 +40,8 @@ pub enum Edit {
     SetControls(Vec<ControlPoint>),
     /// Replace the station equations.
     SetEquations(gradewright_geometry::Equations),
+    /// Replace the criteria ranges.
+    SetRanges(Vec<gradewright_geometry::CriteriaRange>),
     /// Set or clear the earthwork section.
     SetSection(Option<Section>),
     /// Change how PVIs snap (kept with the project).

@@ -178,6 +178,7 @@ impl Document {
             Edit::SetGround(ground) => self.project.ground = ground,
             Edit::SetControls(controls) => self.project.controls = controls,
             Edit::SetEquations(equations) => self.project.equations = equations,
+            Edit::SetRanges(ranges) => self.project.criteria_ranges = ranges,
             Edit::SetSection(section) => self.project.section = section,
             Edit::SetSnap(snap) => self.project.snap = snap,
             Edit::SetExport(export) => self.project.export = *export,

@@ -381,3 +381,37 @@ fn typing_a_point_on_the_tangent_sets_the_grade() {
     let moved = h.state().project().pvis[1];
     assert!((moved.elevation - 222.0).abs() < 1e-9, "{}", moved.elevation);
 }
+
+/// The criteria-range table: adding a range is one undo step, the range's
+/// speed is typed into its cell, and the analysis judges under it (the
+/// demo's failing crest at PVI 4 passes in a 30 km/h range over it).
+#[test]
+fn a_criteria_range_is_added_typed_and_undone() {
+    let mut h = Harness::builder().with_size([1500.0, 2400.0]).with_max_steps(12).build_ui_state(
+        |ui, app: &mut GradewrightApp| app.show(ui),
+        GradewrightApp::with_demo(AppFiles::new(None)),
+    );
+    h.run();
+    assert!(!crest_check(&h).ok, "the demo's crest fails at the project's speed");
+    h.get_by_label("Criteria by station range (0)").click();
+    h.run();
+    h.get_by_label("Add criteria range").click();
+    h.run();
+    assert_eq!(h.state().project().criteria_ranges.len(), 1);
+    // Over the whole road, at 30 km/h.
+    let first = h.state().project().pvis.first().map_or(0.0, |p| p.station.0);
+    let last = h.state().project().pvis.last().map_or(0.0, |p| p.station.0);
+    let at = |s: f64| gradewright_geometry::format_station(s, gradewright_geometry::Units::Metric, 3);
+    replace_text(&mut h, "Range 1 from", &at(first));
+    replace_text(&mut h, "Range 1 to", &at(last));
+    replace_text(&mut h, "Range 1 design speed", "30");
+    let range = h.state().project().criteria_ranges[0].clone();
+    assert_eq!(range.design_speed, Some(30.0));
+    assert!(crest_check(&h).ok, "judged at 30 km/h the crest passes: {:?}", crest_check(&h));
+    for _ in 0..4 {
+        h.state_mut().push(Action::Undo);
+        h.run();
+    }
+    assert!(h.state().project().criteria_ranges.is_empty());
+    assert!(!crest_check(&h).ok);
+}

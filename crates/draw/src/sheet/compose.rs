@@ -323,10 +323,12 @@ fn profile(scene: &Scene, page: &Page) -> Element {
 }
 
 /// Each station equation's mark, "back = ahead", above the frame over its
-/// line (outside the profile, so it never covers the design).
+/// line (outside the profile, so it never covers the design), and each
+/// change of the design speed: a dotted line across the frame and the
+/// speed ahead of it along its foot.
 fn equation_marks(scene: &Scene, page: &Page) -> Vec<Element> {
-    let (_, fy, _, _) = page.frame;
-    scene
+    let (_, fy, _, fh) = page.frame;
+    let mut out: Vec<Element> = scene
         .equations
         .iter()
         .map(|(s, text)| {
@@ -337,7 +339,29 @@ fn equation_marks(scene: &Scene, page: &Page) -> Vec<Element> {
                 .a("text-anchor", "middle")
                 .a("font-weight", "bold")
         })
-        .collect()
+        .collect();
+    for (s, text) in &scene.speed_changes {
+        let x = page.x(*s);
+        out.push(
+            Element::new("line")
+                .a("class", "CriteriaRange")
+                .a("x1", mm(x))
+                .a("y1", mm(fy))
+                .a("x2", mm(x))
+                .a("y2", mm(fy + fh))
+                .a("stroke", "#000")
+                .a("stroke-width", 0.25)
+                .a("stroke-dasharray", "0.6 0.9"),
+        );
+        out.push(
+            Element::text(text.clone())
+                .a("x", mm(x + 1.0))
+                .a("y", mm(fy + fh - 2.0))
+                .a("font-size", SMALL)
+                .a("font-weight", "bold"),
+        );
+    }
+    out
 }
 
 /// A marker of `shape` at paper (`x`, `y`): every role has its own shape, so

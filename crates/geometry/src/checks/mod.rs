@@ -11,7 +11,9 @@ mod sight;
 mod streamed;
 
 pub use curve::{check_curve, check_curve_in_force};
-pub use sight::{MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, compute_sight, sight_by_stretch, sight_in_force};
+pub use sight::{
+    MAX_SIGHT_STATIONS, PVIS_PER_STRETCH, Streamed, compute_sight, sight_by_stretch, sight_in_force,
+};
 pub use streamed::StreamedCheck;
 
 use crate::visibility::SightProfile;

@@ -141,7 +141,12 @@ impl<'a> StreamedCheck<'a> {
         let mut scratch = Vec::new();
         for curve in self.interior_curves() {
             scratch.clear();
-            let mut check = super::curve::check_curve_in_force(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
+            let mut check = super::curve::check_curve_in_force(
+                &curve,
+                &self.criteria,
+                self.profile.stationing(),
+                &mut scratch,
+            );
             check.ok = !self.fails_at(curve.index);
             if let Some(site) = &self.site {
                 for &(pvi, needed) in &site.needed {
@@ -186,7 +191,12 @@ impl<'a> StreamedCheck<'a> {
         let mut scratch = Vec::new();
         for curve in self.interior_curves() {
             scratch.clear();
-            super::curve::check_curve_in_force(&curve, &self.criteria, self.profile.stationing(), &mut scratch);
+            super::curve::check_curve_in_force(
+                &curve,
+                &self.criteria,
+                self.profile.stationing(),
+                &mut scratch,
+            );
             scratch.iter().try_for_each(&mut *each)?;
         }
         let tangents = self.profile.pvis.len().saturating_sub(1);

@@ -128,7 +128,11 @@ impl Criteria {
     /// As [`Criteria::resolve`] for the project's criteria; for a range's,
     /// [`CriteriaError::InRange`] naming it; unusable ranges
     /// ([`ranges_problem`]).
-    pub fn resolve_with(&self, units: Units, ranges: &[CriteriaRange]) -> Result<ResolvedCriteria, CriteriaError> {
+    pub fn resolve_with(
+        &self,
+        units: Units,
+        ranges: &[CriteriaRange],
+    ) -> Result<ResolvedCriteria, CriteriaError> {
         let mut base = self.resolve(units)?;
         if let Some((index, why)) = ranges_problem(ranges) {
             return Err(CriteriaError::BadRange { index, why });

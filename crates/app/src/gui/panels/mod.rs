@@ -9,6 +9,7 @@ pub mod export;
 pub mod findings;
 pub mod plot;
 mod plot_scene;
+pub mod ranges;
 pub mod sight;
 pub mod site;
 pub mod table;
@@ -64,6 +65,8 @@ pub struct Panels {
     pub site: site::SitePanel,
     /// The station equations.
     pub equations: equations::EquationsPanel,
+    /// The criteria ranges.
+    pub ranges: ranges::RangesPanel,
     /// The design criteria.
     pub criteria: criteria::CriteriaPanel,
     /// The export windows.
@@ -78,6 +81,7 @@ impl Panels {
         self.table.reset();
         self.site.reset();
         self.equations.reset();
+        self.ranges.reset();
         self.criteria.reset();
         self.plot.reset();
     }
@@ -109,6 +113,13 @@ impl Panels {
                     egui::CollapsingHeader::new(RichText::new("Design criteria").heading())
                         .default_open(true)
                         .show(ui, |ui| self.criteria.ui(ui, &mut view));
+                    let count = view.doc.project().criteria_ranges.len();
+                    egui::CollapsingHeader::new(
+                        RichText::new(format!("Criteria by station range ({count})")).heading(),
+                    )
+                    .id_salt("criteria-ranges")
+                    .default_open(count > 0)
+                    .show(ui, |ui| self.ranges.ui(ui, &mut view));
                 }
                 SidePage::Site => {
                     egui::CollapsingHeader::new(RichText::new("Control points").heading())

@@ -343,8 +343,28 @@ pub(super) fn paint_site(drawn: &PlotScene, ui: &egui::Ui, transform: &PlotTrans
         let colour = if m.role == Role::MissedControl { palette.fail } else { palette.control };
         symbol(&mut shapes, at(m.at[0], m.at[1]), m.shape, SYMBOL, colour, ui.visuals().extreme_bg_color);
     }
-    // Station equations: a dashed line across the plot and its mark.
     let frame = *transform.frame();
+    // Criteria ranges: shaded over the plot's height, their speed at the top.
+    for (from, to, text) in &scene.ranges {
+        let (a, b) = (at(*from, 0.0).x.max(frame.left()), at(*to, 0.0).x.min(frame.right()));
+        if b <= a {
+            continue;
+        }
+        let band = egui::Rect::from_x_y_ranges(a..=b, frame.top()..=frame.bottom());
+        shapes.push(Paint::rect_filled(band, 0.0, palette.control.gamma_multiply(0.14)));
+        for x in [a, b] {
+            shapes.extend(Paint::dotted_line(
+                &[egui::pos2(x, frame.top()), egui::pos2(x, frame.bottom())],
+                palette.control,
+                5.0,
+                1.0,
+            ));
+        }
+        let galley =
+            ui.painter().layout_no_wrap(text.clone(), egui::FontId::proportional(12.0), palette.control);
+        shapes.push(Paint::galley(egui::pos2(a + 4.0, frame.bottom() - 18.0), galley, palette.control));
+    }
+    // Station equations: a dashed line across the plot and its mark.
     for (s, text) in &scene.equations {
         let x = at(*s, 0.0).x;
         let (top, bottom) = (egui::pos2(x, frame.top()), egui::pos2(x, frame.bottom()));
