@@ -353,41 +353,82 @@ mod tests {
                 .collect::<Vec<_>>()
                 .into();
             design.section = Some(Section::default_for(units));
-            let whole = Analysis::of(&design);
-            let has = |code| whole.report.findings.iter().any(|f| f.code == code);
-            assert!(whole.report.findings.iter().filter(|f| f.code.is_sight_shortfall()).count() > 40);
-            let codes: std::collections::BTreeSet<String> =
-                whole.report.findings.iter().map(|f| f.code.to_string()).collect();
-            assert!(
-                has(FindingCode::ControlFixed) && has(FindingCode::ControlUndercrossing),
-                "{units:?} {codes:?}"
-            );
-            assert!(has(FindingCode::GradeMax) || has(FindingCode::CurveMinLength), "{units:?}");
-            for each in [7, 64, 2048] {
-                let streamed = StreamedCheck::new(&design, each).unwrap_or_else(|| panic!("streamable"));
-                let mut curves = Vec::new();
-                streamed
-                    .curves(|c| {
-                        curves.push(c.clone());
-                        Ok::<_, ()>(())
-                    })
-                    .unwrap_or_default();
-                assert_eq!(curves, whole.report.curves, "{units:?}, {each} PVIs a stretch");
-                let mut findings = Vec::new();
-                streamed
-                    .findings(|f| {
-                        findings.push(f.clone());
-                        Ok::<_, ()>(())
-                    })
-                    .unwrap_or_default();
-                assert_eq!(findings, whole.report.findings, "{units:?}, {each} PVIs a stretch");
-                assert_eq!(streamed.len(), findings.len());
-                assert_eq!(streamed.has_failures(), whole.has_failures());
-                assert_eq!(streamed.failures(), whole.report.findings.iter().filter(|f| f.fails()).count());
-                assert_eq!(streamed.failing_curves(), whole.report.failing_curves());
-                assert_eq!(streamed.control_status(), &whole.control_status[..]);
-                assert_eq!(streamed.cut_fill(), whole.cut_fill);
-                assert_eq!(streamed.earthwork(), whole.earthwork.as_ref());
+            // And the same road with criteria ranges (a slow lit one and a
+            // fast one) and station equations (a short and a long one).
+            let mut zoned = design.clone();
+            zoned.ranges = vec![
+                crate::CriteriaRange {
+                    from: length * 0.2,
+                    to: length * 0.45,
+                    design_speed: Some(speed * 0.6),
+                    headlight_check: Some(false),
+                    ..crate::CriteriaRange::default()
+                },
+                crate::CriteriaRange {
+                    from: length * 0.6,
+                    to: length * 0.8,
+                    design_speed: Some(speed + 10.0),
+                    ..crate::CriteriaRange::default()
+                },
+            ];
+            zoned.equations = crate::Equations::new(vec![
+                crate::StationEquation {
+                    internal: length * 0.25,
+                    back: length * 0.25,
+                    ahead: length * 0.25 + 37.0,
+                },
+                crate::StationEquation {
+                    internal: length * 0.7,
+                    back: length * 0.7 + 37.0,
+                    ahead: length * 0.7 - 20.0,
+                },
+            ]);
+            assert_eq!(zoned.equations.problem(), None);
+            for design in [design, zoned] {
+                let whole = Analysis::of(&design);
+                assert!(whole.criteria.is_ok(), "{:?}", whole.criteria);
+                if !design.ranges.is_empty() {
+                    let said = |w: &str| whole.report.findings.iter().any(|f| f.message.contains(w));
+                    assert!(said("judged under criteria range 1") && said("judged under criteria range 2"));
+                }
+                let has = |code| whole.report.findings.iter().any(|f| f.code == code);
+                assert!(whole.report.findings.iter().filter(|f| f.code.is_sight_shortfall()).count() > 40);
+                let codes: std::collections::BTreeSet<String> =
+                    whole.report.findings.iter().map(|f| f.code.to_string()).collect();
+                assert!(
+                    has(FindingCode::ControlFixed) && has(FindingCode::ControlUndercrossing),
+                    "{units:?} {codes:?}"
+                );
+                assert!(has(FindingCode::GradeMax) || has(FindingCode::CurveMinLength), "{units:?}");
+                for each in [7, 64, 2048] {
+                    let streamed = StreamedCheck::new(&design, each).unwrap_or_else(|| panic!("streamable"));
+                    let mut curves = Vec::new();
+                    streamed
+                        .curves(|c| {
+                            curves.push(c.clone());
+                            Ok::<_, ()>(())
+                        })
+                        .unwrap_or_default();
+                    assert_eq!(curves, whole.report.curves, "{units:?}, {each} PVIs a stretch");
+                    let mut findings = Vec::new();
+                    streamed
+                        .findings(|f| {
+                            findings.push(f.clone());
+                            Ok::<_, ()>(())
+                        })
+                        .unwrap_or_default();
+                    assert_eq!(findings, whole.report.findings, "{units:?}, {each} PVIs a stretch");
+                    assert_eq!(streamed.len(), findings.len());
+                    assert_eq!(streamed.has_failures(), whole.has_failures());
+                    assert_eq!(
+                        streamed.failures(),
+                        whole.report.findings.iter().filter(|f| f.fails()).count()
+                    );
+                    assert_eq!(streamed.failing_curves(), whole.report.failing_curves());
+                    assert_eq!(streamed.control_status(), &whole.control_status[..]);
+                    assert_eq!(streamed.cut_fill(), whole.cut_fill);
+                    assert_eq!(streamed.earthwork(), whole.earthwork.as_ref());
+                }
             }
         }
     }
