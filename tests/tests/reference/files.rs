@@ -90,3 +90,20 @@ fn demo_project_loads() {
     assert!(p.profile().problems().is_empty());
     assert!(p.pvis.len() >= 6);
 }
+
+/// The second demo (a fictional county road opened from LandXML) loads with
+/// its station equation, its criteria range and the file it came from, and
+/// writes that file back with its plan geometry.
+#[test]
+fn second_demo_loads_with_its_equation_range_and_file() {
+    let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("../assets/birch-hollow-connector.ron");
+    let p = Project::load(&path).unwrap_or_else(|e| panic!("{e}"));
+    assert!(p.profile().problems().is_empty());
+    assert_eq!(p.equations.as_slice().len(), 1);
+    assert_eq!(p.criteria_ranges.len(), 1);
+    let mut out = Vec::new();
+    let stamp = gradewright_exchange::Stamp { date: "2026-12-04".to_owned(), time: "12:00:00".to_owned() };
+    gradewright_exchange::write_landxml(&mut out, &p, &stamp).unwrap_or_else(|e| panic!("{e}"));
+    let text = String::from_utf8_lossy(&out);
+    assert!(text.contains("<Spiral ") && text.contains("StaEquation"), "{text}");
+}

@@ -111,10 +111,11 @@ impl EquationsPanel {
                     }
                     changed = Some(next);
                 }
-                let delete = ui.small_button("🗑").on_hover_text("Delete this station equation");
-                let name = format!("Delete station equation {}", i + 1);
-                delete.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, name.clone()));
-                if delete.clicked() {
+                if super::delete_button(
+                    ui,
+                    "Delete this station equation",
+                    &format!("Delete station equation {}", i + 1),
+                ) {
                     let mut next = list.clone();
                     if i < next.len() {
                         next.remove(i);
@@ -143,18 +144,12 @@ impl EquationsPanel {
             .button("Add station equation")
             .on_hover_text("At the selected PVI (or mid-profile); then type its ahead station")
             .clicked()
+            && let Some(internal) = view.station_to_add()
         {
-            let station = view
-                .selected
-                .and_then(|i| doc.project().pvis.get(i))
-                .map(|p| p.station.0)
-                .or_else(|| doc.analysis().alignment.as_ref().map(|a| 0.5 * (a.start().0 + a.end().0)));
-            if let Some(internal) = station {
-                let plan = doc.project().stationing().plan(internal).value;
-                let mut next = list.clone();
-                next.push(StationEquation { internal, back: plan, ahead: plan });
-                changed = Some(next);
-            }
+            let plan = doc.project().stationing().plan(internal).value;
+            let mut next = list.clone();
+            next.push(StationEquation { internal, back: plan, ahead: plan });
+            changed = Some(next);
         }
         if let Some(why) = &self.refused {
             ui.label(RichText::new(why).color(palette.fail));

@@ -19,6 +19,14 @@ use egui::RichText;
 use super::command::Action;
 use super::document::Document;
 
+/// A row's small delete button, hovered with `hover` and named `name` for
+/// assistive technology (and the tests); whether it was clicked.
+pub fn delete_button(ui: &mut egui::Ui, hover: &str, name: &str) -> bool {
+    let delete = ui.small_button("🗑").on_hover_text(hover);
+    delete.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, name));
+    delete.clicked()
+}
+
 /// What a panel is drawn with: the document (read only), the selected PVI,
 /// and the queue its actions go to.
 pub struct View<'a> {
@@ -39,6 +47,16 @@ impl View<'_> {
     /// Queues an edit (one undo step).
     pub fn edit(&mut self, edit: super::command::Edit) {
         self.queue.push(Action::edit(edit));
+    }
+
+    /// Where something added from a panel goes: the selected PVI's
+    /// station, else the middle of the profile (`None` when it cannot be
+    /// evaluated).
+    pub fn station_to_add(&self) -> Option<f64> {
+        self.selected
+            .and_then(|i| self.doc.project().pvis.get(i))
+            .map(|p| p.station.0)
+            .or_else(|| self.doc.analysis().alignment.as_ref().map(|a| 0.5 * (a.start().0 + a.end().0)))
     }
 }
 

@@ -103,10 +103,8 @@ impl RangesPanel {
                 if lights != before {
                     set(&mut |r| r.headlight_check = Some(lights));
                 }
-                let delete = ui.small_button("🗑").on_hover_text("Delete this range");
-                let name = format!("Delete criteria range {}", i + 1);
-                delete.widget_info(|| egui::WidgetInfo::labeled(egui::Role::Button, true, name.clone()));
-                if delete.clicked() {
+                if super::delete_button(ui, "Delete this range", &format!("Delete criteria range {}", i + 1))
+                {
                     let mut next = list.clone();
                     if i < next.len() {
                         next.remove(i);

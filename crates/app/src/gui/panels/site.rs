@@ -231,15 +231,9 @@ impl SitePanel {
             .button("Add control point")
             .on_hover_text("At the selected PVI (or mid-profile), on the profile")
             .clicked()
+            && let Some(station) = view.station_to_add()
         {
-            let station = view
-                .selected
-                .and_then(|i| doc.project().pvis.get(i))
-                .map(|p| p.station.0)
-                .or_else(|| doc.analysis().alignment.as_ref().map(|a| 0.5 * (a.start().0 + a.end().0)));
-            if let Some(station) = station {
-                view.push(Action::AddControl { station, elevation: None });
-            }
+            view.push(Action::AddControl { station, elevation: None });
         }
         if let Some(next) = changed {
             view.edit(Edit::SetControls(next));
