@@ -148,6 +148,8 @@ impl Analysis {
         let curve_notes = previous
             .as_ref()
             .filter(|p| p.criteria.as_ref().ok() == criteria.as_ref().ok() && p.criteria.is_ok())
+            // Their words name plan stations: new equations, new words.
+            .filter(|p| p.source.as_ref().is_some_and(|s| s.equations == design.equations))
             .map(|p| p.curve_notes.clone());
         // On a long profile checked afresh, the curves are checked on a core
         // of their own while the sight distance is computed (the same checks,
@@ -398,6 +400,7 @@ fn sight_after(
     let same_frame = old.units == new.units
         && old.criteria == new.criteria
         && old.ranges == new.ranges
+        && old.equations == new.equations
         && old.pvis.len() == new.pvis.len()
         && old.pvis.first().map(|p| p.station) == new.pvis.first().map(|p| p.station)
         && old.pvis.last().map(|p| p.station) == new.pvis.last().map(|p| p.station);
@@ -519,6 +522,29 @@ pub(crate) fn ground_findings<'a>(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// After an edit of the station equations alone, every finding is worded
+    /// with the new plan stations (none is reused with the old words).
+    #[test]
+    fn an_equation_edit_rewords_every_finding() {
+        let mut design = Design {
+            units: Units::Metric,
+            pvis: vec![Pvi::new(0.0, 100.0), Pvi::with_curve(500.0, 120.0, 60.0), Pvi::new(1000.0, 100.0)],
+            ..Design::default()
+        };
+        design.criteria.design_speed = Some(100.0);
+        let before = Analysis::of(&design);
+        assert!(before.report.findings.iter().any(|f| f.message.contains("0+500.000")));
+        design.equations = crate::Equations::new(vec![crate::StationEquation {
+            internal: 200.0,
+            back: 200.0,
+            ahead: 300.0,
+        }]);
+        let after = Analysis::after(&design, Some(before));
+        assert_eq!(after.report.findings, Analysis::of(&design).report.findings);
+        assert!(after.report.findings.iter().any(|f| f.message.contains("0+600.000")));
+        assert!(!after.report.findings.iter().any(|f| f.message.contains("0+500.000")));
+    }
     use crate::{Station, Units};
 
     /// A profile long enough for its curves to be checked beside the sight
