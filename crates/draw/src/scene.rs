@@ -208,6 +208,8 @@ pub fn profile_scene_with(
         let speed = |c: &gradewright_geometry::ResolvedCriteria| {
             format!("{} {}", gradewright_geometry::trimmed(c.design_speed, 2), units.speed_symbol())
         };
+        let start = pvis.first().map_or(f64::NEG_INFINITY, |p| p.station.0);
+        let end = pvis.last().map_or(f64::INFINITY, |p| p.station.0);
         for r in &criteria.ranges {
             if r.to >= range.0 && r.from <= range.1 {
                 scene.ranges.push((
@@ -218,14 +220,15 @@ pub fn profile_scene_with(
             }
             for s in [r.from, r.to] {
                 let ahead = criteria.at(s).0;
-                let behind = criteria.at(s - gradewright_geometry::tolerance::station_hair(s) * 10.0).0;
-                let start = pvis.first().map_or(f64::NEG_INFINITY, |p| p.station.0);
-                let end = pvis.last().map_or(f64::INFINITY, |p| p.station.0);
+                let behind = criteria.behind(s).0;
                 if within(s)
                     && s > start
                     && s < end
                     && ahead.design_speed.to_bits() != behind.design_speed.to_bits()
-                    && !scene.speed_changes.iter().any(|(x, _)| (x - s).abs() < 1e-9)
+                    && !scene
+                        .speed_changes
+                        .iter()
+                        .any(|(x, _)| gradewright_geometry::tolerance::same_station(*x, s))
                 {
                     scene.speed_changes.push((s, format!("Design speed {} ahead", speed(ahead))));
                 }

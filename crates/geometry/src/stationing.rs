@@ -35,6 +35,16 @@ pub struct StationEquation {
     pub ahead: f64,
 }
 
+impl StationEquation {
+    /// The plan station the road reaches at `internal` coming from the
+    /// equation before it (`None`: from the start, where plan and internal
+    /// stations are one): what the equation there must state as its back
+    /// station.
+    pub fn reached(previous: Option<&Self>, internal: f64) -> f64 {
+        previous.map_or(internal, |p| p.ahead + (internal - p.internal))
+    }
+}
+
 /// A road's station equations, in internal-station order (shared: copies
 /// of a design do not copy them).
 #[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
@@ -81,7 +91,7 @@ impl Equations {
                             ),
                         ));
                     }
-                    p.ahead + (e.internal - p.internal)
+                    StationEquation::reached(Some(&p), e.internal)
                 }
             };
             if (reached - e.back).abs() > tolerance::EQUATION_BACK {
@@ -97,6 +107,19 @@ impl Equations {
             previous = Some(*e);
         }
         None
+    }
+
+    /// `list` sorted by internal station with every back station set to the
+    /// plan station the road reaches there (so an edit of one equation
+    /// keeps the others true).
+    pub fn settled(mut list: Vec<StationEquation>) -> Self {
+        list.sort_by(|a, b| a.internal.total_cmp(&b.internal));
+        let mut previous: Option<StationEquation> = None;
+        for e in &mut list {
+            e.back = StationEquation::reached(previous.as_ref(), e.internal);
+            previous = Some(*e);
+        }
+        Self::new(list)
     }
 
     /// The stationing of these equations in `units`.

@@ -525,7 +525,7 @@ impl<'a> Parsed<'a> {
             let ahead = self.attribute(*node, "staAhead")? * scale;
             let back = match node.attribute("staBack") {
                 Some(_) => self.attribute(*node, "staBack")? * scale,
-                None => out.last().map_or(internal, |p: &StationEquation| p.ahead + (internal - p.internal)),
+                None => StationEquation::reached(out.last(), internal),
             };
             out.push(StationEquation { internal, back, ahead });
         }

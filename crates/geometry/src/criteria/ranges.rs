@@ -164,6 +164,16 @@ impl ResolvedCriteria {
         }
     }
 
+    /// The criteria in force just behind internal station `s` (a range
+    /// holds the stations after its `from` up to its `to`): with
+    /// [`ResolvedCriteria::at`], whether something changes at `s`.
+    pub fn behind(&self, s: f64) -> (&ResolvedCriteria, Option<&ResolvedRange>) {
+        match self.ranges.iter().find(|r| s > r.from && s <= r.to) {
+            Some(r) => (&r.criteria, Some(r)),
+            None => (self, None),
+        }
+    }
+
     /// Every set of criteria in force somewhere over [a, b]: the one at `a`
     /// first, then the others in station order (each once).
     pub fn over(&self, a: f64, b: f64) -> Vec<(&ResolvedCriteria, Option<&ResolvedRange>)> {

@@ -24,34 +24,20 @@ enum Column {
 #[derive(Debug)]
 pub struct EquationsPanel {
     cells: Cells<(usize, Column)>,
-    /// Why the last change was refused, shown until the next one.
-    refused: Option<String>,
+    refused: super::Refusal,
 }
 
 impl Default for EquationsPanel {
     fn default() -> Self {
-        Self { cells: Cells::new("equations"), refused: None }
+        Self { cells: Cells::new("equations"), refused: super::Refusal::default() }
     }
-}
-
-/// `list` sorted by internal station with every back station set to the
-/// plan station the road reaches there (so an edit of one equation keeps
-/// the others true).
-pub fn settled(mut list: Vec<StationEquation>) -> Equations {
-    list.sort_by(|a, b| a.internal.total_cmp(&b.internal));
-    let mut previous: Option<StationEquation> = None;
-    for e in &mut list {
-        e.back = previous.map_or(e.internal, |p| p.ahead + (e.internal - p.internal));
-        previous = Some(*e);
-    }
-    Equations::new(list)
 }
 
 impl EquationsPanel {
     /// Forgets the old project's cells.
     pub fn reset(&mut self) {
         self.cells.clear();
-        self.refused = None;
+        self.refused.clear();
     }
 
     /// The table: internal station, back (the road's), ahead; delete; add
@@ -151,21 +137,12 @@ impl EquationsPanel {
             next.push(StationEquation { internal, back: plan, ahead: plan });
             changed = Some(next);
         }
-        if let Some(why) = &self.refused {
-            ui.label(RichText::new(why).color(palette.fail));
-        }
+        self.refused.ui(ui, palette);
         if let Some(next) = changed {
-            let next = settled(next);
-            match next.problem() {
-                None => {
-                    self.refused = None;
-                    view.edit(Edit::SetEquations(next));
-                }
-                Some((k, why)) => {
-                    // Refused: the model keeps its equations, and says why.
-                    self.cells.clear();
-                    self.refused = Some(format!("Not changed: station equation {} — {why}", k + 1));
-                }
+            let next = Equations::settled(next);
+            let problem = next.problem();
+            if self.refused.settle(view, problem, "station equation", Edit::SetEquations(next)) {
+                self.cells.clear();
             }
         }
     }

@@ -19,6 +19,42 @@ use egui::RichText;
 use super::command::Action;
 use super::document::Document;
 
+/// Why a table's last change was refused (the model kept as it was), shown
+/// under the table until the next change.
+#[derive(Debug, Default)]
+pub struct Refusal(Option<String>);
+
+impl Refusal {
+    /// Forgets it (another project is open).
+    pub fn clear(&mut self) {
+        self.0 = None;
+    }
+
+    /// Shows why, if a change was refused.
+    pub fn ui(&self, ui: &mut egui::Ui, palette: super::theme::Palette) {
+        if let Some(why) = &self.0 {
+            ui.label(RichText::new(why).color(palette.fail));
+        }
+    }
+
+    /// Queues `edit` when `problem` is `None`; else keeps the model and says
+    /// why, naming entry `index` of `what` ("station equation 2").
+    /// Whether it was refused.
+    pub fn settle(
+        &mut self,
+        view: &mut View<'_>,
+        problem: Option<(usize, String)>,
+        what: &str,
+        edit: super::command::Edit,
+    ) -> bool {
+        self.0 = problem.map(|(k, why)| format!("Not changed: {what} {} — {why}", k + 1));
+        if self.0.is_none() {
+            view.edit(edit);
+        }
+        self.0.is_some()
+    }
+}
+
 /// A row's small delete button, hovered with `hover` and named `name` for
 /// assistive technology (and the tests); whether it was clicked.
 pub fn delete_button(ui: &mut egui::Ui, hover: &str, name: &str) -> bool {

@@ -24,13 +24,12 @@ enum Column {
 #[derive(Debug)]
 pub struct RangesPanel {
     cells: Cells<(usize, Column)>,
-    /// Why the last change was refused, shown until the next one.
-    refused: Option<String>,
+    refused: super::Refusal,
 }
 
 impl Default for RangesPanel {
     fn default() -> Self {
-        Self { cells: Cells::new("criteria-ranges"), refused: None }
+        Self { cells: Cells::new("criteria-ranges"), refused: super::Refusal::default() }
     }
 }
 
@@ -38,7 +37,7 @@ impl RangesPanel {
     /// Forgets the old project's cells.
     pub fn reset(&mut self) {
         self.cells.clear();
-        self.refused = None;
+        self.refused.clear();
     }
 
     /// The table: from, to (plan stations), design speed, headlight check;
@@ -133,20 +132,12 @@ impl RangesPanel {
             });
             changed = Some(next);
         }
-        if let Some(why) = &self.refused {
-            ui.label(RichText::new(why).color(palette.fail));
-        }
+        self.refused.ui(ui, palette);
         if let Some(mut next) = changed {
             next.sort_by(|a, b| a.from.total_cmp(&b.from));
-            match ranges_problem(&next) {
-                None => {
-                    self.refused = None;
-                    view.edit(Edit::SetRanges(next));
-                }
-                Some((k, why)) => {
-                    self.cells.clear();
-                    self.refused = Some(format!("Not changed: criteria range {} — {why}", k + 1));
-                }
+            let problem = ranges_problem(&next);
+            if self.refused.settle(view, problem, "criteria range", Edit::SetRanges(next)) {
+                self.cells.clear();
             }
         }
     }
